@@ -1,0 +1,323 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Closed-form transfer functions (RAOs) for heave, pitch and roll, and the natural roll period.
+
+Amplitudes per unit wave amplitude of a regular wave of angular frequency omega [rad/s],
+wavenumber k [rad/m] (deep water k = omega**2/g; a local finite-depth k may be passed) met at
+speed U [m/s] and ITTC relative heading mu [deg] (180 head, 90 beam, 0 following).
+
+Heave and pitch: Jensen, Mansour & Olsen (2004) "Estimation of ship motions using closed-form
+expressions", Ocean Engineering 31(1) 61-85 (box-shaped, homogeneously loaded monohull; deep
+water; linear)::
+
+    alpha = omega_e / omega = 1 - k U cos(mu) / omega     (= 1 - Fn sqrt(kL) cos mu, deep water)
+    B     = Cb B0 (default, "block")  or  B0 ("full")
+    ke    = k |cos mu|,  sigma = ke L / 2
+    A     = 2 sin(k B alpha**2 / 2) exp(-k T alpha**2)
+    f     = sqrt((1 - kT)**2 + (A**2 / (k B alpha**3))**2)
+    kappa = exp(-k T) (default)  or  exp(-ke T) (option "ke", as in some public reproductions)
+    F     = kappa f sin(sigma)/sigma
+    G     = kappa f (6/L) (1/sigma) (sin(sigma)/sigma - cos(sigma))
+    eta   = 1 / sqrt((1 - 2 k T alpha**2)**2 + (A**2 / (k B alpha**2))**2)
+    heave = eta |F| [m/m],  pitch = eta |G| [rad/m]
+
+The default kappa = exp(-kT) is the one that keeps heave = 1 + O(k**2) in long waves at every
+heading (with exp(-ke T) beam-sea heave tends to 1/2 in short waves instead of 0). Evaluation is
+guard-free: A**2/(k B alpha**3) is computed as k B alpha sinc(x)**2 exp(-2 k T alpha**2) with
+x = k B alpha**2/2 (exact identity), which is finite as alpha -> 0 (following seas) and k -> 0;
+(sin s - s cos s)/s**3 uses its series 1/3 - s**2/30 + s**4/840 for s < 1e-2 (beam seas).
+The range we accept as "valid" is our own choice from strip-theory practice (slender
+displacement hull at moderate speed; common practice, no source): Fn = U/sqrt(gL) <= 0.4,
+2.5 <= L/B <= 10, 1.5 <= B/T <= 6; outside it the per-sample OUTSIDE_VALIDITY flag is set.
+
+Roll: single-degree-of-freedom damped oscillator driven by the effective wave slope (Lloyd
+1989, "Seakeeping: Ship Behaviour in Rough Weather", ch. 9; Bhattacharyya 1978, "Dynamics of
+Marine Vehicles", ch. 5)::
+
+    roll = r k |sin mu| / sqrt((1 - (omega_e/omega_r)**2)**2 + (2 zeta omega_e/omega_r)**2)  [rad/m]
+    omega_r = 2 pi / T_roll,  zeta = damping as a fraction of critical
+
+with effective-slope reduction r (our documented choice, default "beam_draught"):
+r = 3 (sin y - y cos y)/y**3 * exp(-k T), y = k |sin mu| B0/2 (slope averaged over the beam
+and the pressure decay to the keel); "beam" drops exp(-kT); "none" uses r = 1.
+Natural roll period (IMO 2008 IS Code, Res. MSC.267(85), Part A s.2.3 weather criterion):
+T = 2 C B / sqrt(GM), C = 0.373 + 0.023 B/d - 0.043 Lwl/100 (lengths in m, T in s).
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Optional
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from .heading import cos_deg
+from .units import G_STANDARD_M_S2, FloatArray
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+
+__all__ = [
+    "HeavePitchTransfer",
+    "MotionTransfer",
+    "jmo_heave_pitch",
+    "roll_transfer_rad_per_m",
+    "effective_slope_factor",
+    "imo_roll_period_s",
+    "jmo_validity_mask",
+    "ClosedFormTransfer",
+    "FN_MAX",
+    "L_OVER_B_RANGE",
+    "B_OVER_T_RANGE",
+]
+
+FN_MAX: float = 0.4
+L_OVER_B_RANGE = (2.5, 10.0)
+B_OVER_T_RANGE = (1.5, 6.0)
+_KAPPA = ("k", "ke")
+_BREADTH = ("block", "full")
+_SLOPE = ("beam_draught", "beam", "none")
+
+
+def _scalar_pos(name: str, v: float) -> float:
+    arr = require_positive(name, v)
+    if arr.ndim != 0:
+        raise SeawayInputError(f"{name} must be a scalar, got shape {arr.shape}")
+    return float(arr)
+
+
+def _cube_ratio(s: FloatArray) -> FloatArray:
+    """(sin s - s cos s) / s**3 with its series below |s| < 1e-2 (-> 1/3 at s = 0)."""
+    s = np.abs(s)
+    small = s < 1e-2
+    ss = np.where(small, 1.0, s)
+    exact = (np.sin(ss) - ss * np.cos(ss)) / ss**3
+    s2 = s * s
+    series = 1.0 / 3.0 - s2 / 30.0 + s2 * s2 / 840.0
+    return np.where(small, series, exact)
+
+
+def _sin_deg_abs(mu_deg: ArrayLike) -> FloatArray:
+    """|sin mu| with exact zeros at 0/180 deg."""
+    return np.abs(cos_deg(np.asarray(mu_deg, dtype=float) - 90.0))
+
+
+@dataclass(frozen=True)
+class HeavePitchTransfer:
+    """JMO heave/pitch amplitudes. ``heave_m_per_m`` [m/m], ``pitch_rad_per_m`` [rad/m],
+    ``omega_e_rad_s`` signed encounter frequency [rad/s]; one broadcast shape."""
+
+    heave_m_per_m: FloatArray
+    pitch_rad_per_m: FloatArray
+    omega_e_rad_s: FloatArray
+
+
+def jmo_heave_pitch(
+    omega_rad_s: ArrayLike,
+    k_rad_m: ArrayLike,
+    rel_heading_deg: ArrayLike,
+    speed_m_s: ArrayLike,
+    length_m: float,
+    beam_m: float,
+    draught_m: float,
+    block_coeff: float,
+    *,
+    kappa: str = "k",
+    breadth: str = "block",
+) -> HeavePitchTransfer:
+    """Heave [m/m] and pitch [rad/m] amplitudes of Jensen, Mansour & Olsen (2004).
+
+    Equations in the module docstring (Ocean Engineering 31(1) 61-85). Arguments broadcast:
+    omega [rad/s] > 0, k [rad/m] > 0 (pass the local finite-depth k if wanted; the formulas are
+    the deep-water ones with that k), mu [deg] ITTC (180 head), U [m/s] >= 0; L, B0, T [m] and
+    Cb scalars. ``kappa`` "k" (exp(-kT), default) or "ke" (exp(-|k cos mu| T));
+    ``breadth`` "block" (B = Cb B0, default) or "full" (B = B0).
+    """
+    if kappa not in _KAPPA:
+        raise SeawayInputError(f"kappa must be one of {_KAPPA}, got {kappa!r}")
+    if breadth not in _BREADTH:
+        raise SeawayInputError(f"breadth must be one of {_BREADTH}, got {breadth!r}")
+    L = _scalar_pos("length_m", length_m)
+    B0 = _scalar_pos("beam_m", beam_m)
+    T = _scalar_pos("draught_m", draught_m)
+    cb = _scalar_pos("block_coeff", block_coeff)
+    omega = require_positive("omega_rad_s", omega_rad_s)
+    k = require_positive("k_rad_m", k_rad_m)
+    U = require_nonnegative("speed_m_s", speed_m_s)
+    c = cos_deg(as_float_array("rel_heading_deg", rel_heading_deg))
+    Beff = cb * B0 if breadth == "block" else B0
+    omega_e = omega - k * U * c
+    alpha = omega_e / omega
+    a2 = alpha * alpha
+    x = 0.5 * k * Beff * a2
+    kta2 = k * T * a2
+    e2 = np.exp(-2.0 * kta2)
+    sinc2 = np.sinc(x / math.pi) ** 2
+    q3 = k * Beff * alpha * sinc2 * e2  # = A**2 / (k B alpha**3)
+    q2 = q3 * alpha  # = A**2 / (k B alpha**2)
+    one_kt = 1.0 - k * T
+    f = np.sqrt(one_kt * one_kt + q3 * q3)
+    ke = k * np.abs(c)
+    kap = np.exp(-k * T) if kappa == "k" else np.exp(-ke * T)
+    sigma = 0.5 * ke * L
+    kf = kap * f
+    F = kf * np.sinc(sigma / math.pi)
+    G = kf * (6.0 / L) * sigma * _cube_ratio(sigma)
+    d = 1.0 - 2.0 * kta2
+    eta = 1.0 / np.sqrt(d * d + q2 * q2)
+    return HeavePitchTransfer(
+        heave_m_per_m=np.asarray(eta * np.abs(F), dtype=float),
+        pitch_rad_per_m=np.asarray(eta * np.abs(G), dtype=float),
+        omega_e_rad_s=np.asarray(omega_e, dtype=float),
+    )
+
+
+def effective_slope_factor(
+    k_rad_m: ArrayLike,
+    rel_heading_deg: ArrayLike,
+    beam_m: float,
+    draught_m: float,
+    mode: str = "beam_draught",
+) -> FloatArray:
+    """Effective wave-slope reduction r for roll (dimensionless, 0 < r <= 1).
+
+    "beam_draught": r = 3 (sin y - y cos y)/y**3 exp(-k T), y = k |sin mu| B/2 (beam average of
+    the slope of a cosine wave, and the exp(-kT) pressure decay; our documented choice after
+    Lloyd 1989 ch. 9); "beam": without exp(-kT); "none": r = 1.
+    """
+    if mode not in _SLOPE:
+        raise SeawayInputError(f"slope_reduction must be one of {_SLOPE}, got {mode!r}")
+    k = require_positive("k_rad_m", k_rad_m)
+    if mode == "none":
+        return np.ones(np.broadcast_shapes(k.shape, np.shape(rel_heading_deg)))
+    B = _scalar_pos("beam_m", beam_m)
+    y = 0.5 * k * _sin_deg_abs(rel_heading_deg) * B
+    r = 3.0 * _cube_ratio(y)
+    if mode == "beam_draught":
+        r = r * np.exp(-k * _scalar_pos("draught_m", draught_m))
+    return np.asarray(r, dtype=float)
+
+
+def roll_transfer_rad_per_m(
+    k_rad_m: ArrayLike,
+    rel_heading_deg: ArrayLike,
+    omega_e_rad_s: ArrayLike,
+    roll_period_s: float,
+    damping_ratio: float,
+    beam_m: float,
+    draught_m: float,
+    *,
+    slope_reduction: str = "beam_draught",
+) -> FloatArray:
+    """Roll amplitude [rad/m] of the slope-driven 1-DOF model (Lloyd 1989; Bhattacharyya 1978).
+
+    roll = r k |sin mu| / sqrt((1 - (we/wr)**2)**2 + (2 zeta we/wr)**2), wr = 2 pi / T_roll,
+    we = |omega_e| [rad/s]; r from :func:`effective_slope_factor`. Arguments broadcast.
+    """
+    tr = _scalar_pos("roll_period_s", roll_period_s)
+    zeta = _scalar_pos("damping_ratio", damping_ratio)
+    k = require_positive("k_rad_m", k_rad_m)
+    we = np.abs(as_float_array("omega_e_rad_s", omega_e_rad_s))
+    r = effective_slope_factor(k, rel_heading_deg, beam_m, draught_m, slope_reduction)
+    q = we * (tr / (2.0 * math.pi))
+    den = np.sqrt((1.0 - q * q) ** 2 + (2.0 * zeta * q) ** 2)
+    return np.asarray(r * k * _sin_deg_abs(rel_heading_deg) / den, dtype=float)
+
+
+def imo_roll_period_s(beam_m: ArrayLike, draught_m: ArrayLike, length_wl_m: ArrayLike, gm_m: ArrayLike) -> FloatArray:
+    """Natural roll period T [s] of the IMO 2008 IS Code (Res. MSC.267(85)) weather criterion.
+
+    T = 2 C B / sqrt(GM), C = 0.373 + 0.023 (B/d) - 0.043 (Lwl/100); B moulded breadth, d mean
+    moulded draught, Lwl waterline length, GM corrected for free surface, all in m.
+    """
+    B = require_positive("beam_m", beam_m)
+    d = require_positive("draught_m", draught_m)
+    L = require_positive("length_wl_m", length_wl_m)
+    gm = require_positive("gm_m", gm_m)
+    C = 0.373 + 0.023 * (B / d) - 0.043 * (L / 100.0)
+    if np.any(C <= 0):
+        raise SeawayInputError(
+            f"IMO roll-period coefficient C = 0.373 + 0.023 B/d - 0.043 L/100 is <= 0 for "
+            f"beam_m={B!r}, draught_m={d!r}, length_wl_m={L!r}; give roll_period_s instead"
+        )
+    return np.asarray(2.0 * C * B / np.sqrt(gm), dtype=float)
+
+
+def jmo_validity_mask(
+    speed_m_s: ArrayLike,
+    length_m: float,
+    beam_m: float,
+    draught_m: float,
+    *,
+    g_m_s2: float = G_STANDARD_M_S2,
+) -> NDArray[np.bool_]:
+    """True where the closed-form model is inside our documented range (module docstring):
+    Fn = U/sqrt(g L) <= 0.4, 2.5 <= L/B <= 10 and 1.5 <= B/T <= 6."""
+    U = require_nonnegative("speed_m_s", speed_m_s)
+    L = _scalar_pos("length_m", length_m)
+    B = _scalar_pos("beam_m", beam_m)
+    T = _scalar_pos("draught_m", draught_m)
+    fn = U / math.sqrt(_scalar_pos("g_m_s2", g_m_s2) * L)
+    hull_ok = (L_OVER_B_RANGE[0] <= L / B <= L_OVER_B_RANGE[1]) and (
+        B_OVER_T_RANGE[0] <= B / T <= B_OVER_T_RANGE[1]
+    )
+    return np.asarray((fn <= FN_MAX) & hull_ok, dtype=bool)
+
+
+@dataclass(frozen=True)
+class MotionTransfer:
+    """Heave [m/m], pitch [rad/m] and roll [rad/m] amplitudes on one broadcast shape."""
+
+    heave_m_per_m: FloatArray
+    pitch_rad_per_m: FloatArray
+    roll_rad_per_m: FloatArray
+
+
+@dataclass(frozen=True)
+class ClosedFormTransfer:
+    """Transfer model of one hull: JMO 2004 heave/pitch and the slope-driven roll model.
+
+    Common interface with :class:`.rao_table.TableTransfer`: ``evaluate(omega, k, mu, U,
+    omega_e)`` returns :class:`MotionTransfer`; ``validity(U)`` returns the per-sample mask;
+    ``coverage_fraction`` is None (no frequency range limit).
+    """
+
+    length_m: float
+    beam_m: float
+    draught_m: float
+    block_coeff: float
+    roll_period_s: float
+    roll_damping_ratio: float
+    kappa: str = "k"
+    breadth: str = "block"
+    slope_reduction: str = "beam_draught"
+    g_m_s2: float = G_STANDARD_M_S2
+    name: str = "closed-form (Jensen, Mansour & Olsen 2004; slope-driven roll)"
+
+    @classmethod
+    def from_profile(cls, profile: "object", *, kappa: str = "k", breadth: str = "block",
+                     slope_reduction: str = "beam_draught", g_m_s2: float = G_STANDARD_M_S2) -> "ClosedFormTransfer":
+        p = profile
+        return cls(
+            length_m=p.length_wl_m, beam_m=p.beam_m, draught_m=p.draught_m,  # type: ignore[attr-defined]
+            block_coeff=p.block_coeff, roll_period_s=p.natural_roll_period_s,  # type: ignore[attr-defined]
+            roll_damping_ratio=p.roll_damping_ratio, kappa=kappa, breadth=breadth,  # type: ignore[attr-defined]
+            slope_reduction=slope_reduction, g_m_s2=g_m_s2,
+        )
+
+    def evaluate(self, omega_rad_s: ArrayLike, k_rad_m: ArrayLike, rel_heading_deg: ArrayLike,
+                 speed_m_s: ArrayLike, omega_e_rad_s: Optional[ArrayLike] = None) -> MotionTransfer:
+        hp = jmo_heave_pitch(omega_rad_s, k_rad_m, rel_heading_deg, speed_m_s, self.length_m,
+                             self.beam_m, self.draught_m, self.block_coeff,
+                             kappa=self.kappa, breadth=self.breadth)
+        we = hp.omega_e_rad_s if omega_e_rad_s is None else omega_e_rad_s
+        roll = roll_transfer_rad_per_m(k_rad_m, rel_heading_deg, we, self.roll_period_s,
+                                       self.roll_damping_ratio, self.beam_m, self.draught_m,
+                                       slope_reduction=self.slope_reduction)
+        return MotionTransfer(hp.heave_m_per_m, hp.pitch_rad_per_m,
+                              np.broadcast_to(roll, hp.heave_m_per_m.shape))
+
+    def validity(self, speed_m_s: ArrayLike) -> NDArray[np.bool_]:
+        return jmo_validity_mask(speed_m_s, self.length_m, self.beam_m, self.draught_m, g_m_s2=self.g_m_s2)
+
+    def coverage_fraction(self, omega_rad_s: FloatArray) -> Optional[FloatArray]:
+        """Closed form covers every frequency: None."""
+        return None

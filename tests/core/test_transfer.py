@@ -1,0 +1,148 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Closed-form heave/pitch (Jensen, Mansour & Olsen 2004), slope-driven roll, IMO roll period."""
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from seaway_comfort.processing.core.transfer import (
+    ClosedFormTransfer,
+    effective_slope_factor,
+    imo_roll_period_s,
+    jmo_heave_pitch,
+    jmo_validity_mask,
+    roll_transfer_rad_per_m,
+)
+from seaway_comfort.processing.core.validation import SeawayInputError
+
+G = 9.81  # methods.md s.4.5 values were computed with g = 9.81
+W = np.array([0.5, 1.0, 1.5, 2.0, 2.5, 3.0])
+K = W**2 / G
+A = dict(length_m=12.0, beam_m=4.0, draught_m=1.0, block_coeff=0.45)   # vessel A
+B = dict(length_m=82.8, beam_m=19.2, draught_m=6.0, block_coeff=0.65)  # vessel B
+
+# Check values: methods.md s.4.5 [D], the JMO 2004 formulas (Ocean Eng. 31(1) 61-85) evaluated
+# with B = Cb*B0, g = 9.81; reproduced there by an independent second implementation.
+TABLE = [
+    # vessel, U, mu, kappa, quantity, values
+    (A, 4.0, 180, "k", "heave", [1.0209, 1.2062, 1.2747, 0.0613, 0.0075, 0.0005]),
+    (A, 4.0, 180, "ke", "heave", [1.0209, 1.2062, 1.2747, 0.0613, 0.0075, 0.0005]),
+    (A, 4.0, 180, "k", "pitch", [1.4930, 7.2271, 19.3367, 2.8213, 0.2098, 0.0179]),
+    (A, 4.0, 135, "ke", "heave", [1.0230, 1.1838, 1.8262, 0.2474, 0.0131, 0.0014]),
+    (A, 4.0, 135, "k", "heave", [1.0154, 1.1490, 1.7076, 0.2196, 0.0109, 0.0011]),
+    (A, 4.0, 135, "ke", "pitch", [1.0570, 4.9512, 18.1475, 5.2353, 0.9399, 0.0328]),
+    (A, 4.0, 135, "k", "pitch", [1.0492, 4.8055, 16.9684, 4.6459, 0.7799, 0.0251]),
+    (A, 4.0, 90, "ke", "heave", [1.0268, 1.1239, 1.3556, 1.8518, 1.1656, 0.2610]),
+    (A, 4.0, 90, "k", "heave", [1.0010, 1.0150, 1.0778, 1.2317, 0.6164, 0.1043]),
+    (A, 4.0, 0, "k", "heave", [0.9781, 0.8235, 0.4771, 0.1086, 0.0317, 0.0194]),
+    (A, 4.0, 0, "k", "pitch", [1.4304, 4.9342, 7.2377, 5.0037, 0.8826, 0.6630]),
+    (B, 5.0, 180, "k", "heave", [1.0380, 0.0248, 0.0001, 0.0004, 0.0001, 0.0000]),
+    (B, 5.0, 180, "k", "pitch", [1.6414, 0.0309, 0.0054, 0.0005, 0.0001, 0.0000]),
+    (B, 5.0, 90, "ke", "heave", [1.1999, 1.2828, 0.2201, 0.3716, 0.4248, 0.4500]),
+    (B, 5.0, 90, "k", "heave", [1.0298, 0.6959, 0.0556, 0.0322, 0.0093, 0.0018]),
+]
+
+
+@pytest.mark.parametrize("hull, u, mu, kappa, qty, expected", TABLE)
+def test_jmo_table_values(hull, u, mu, kappa, qty, expected):
+    r = jmo_heave_pitch(W, K, mu, u, **hull, kappa=kappa)
+    got = r.heave_m_per_m if qty == "heave" else np.degrees(r.pitch_rad_per_m)
+    np.testing.assert_allclose(got, expected, atol=5.1e-5)  # half a unit of the 4th decimal
+
+
+def test_encounter_frequency_rows():
+    # methods.md s.4.5 [D]: omega_e = omega - k U cos mu for vessel A, U = 4 m/s.
+    r = jmo_heave_pitch(W, K, 180, 4.0, **A)
+    np.testing.assert_allclose(r.omega_e_rad_s, [0.6019, 1.4077, 2.4174, 3.6310, 5.0484, 6.6697], atol=5e-5)
+    r0 = jmo_heave_pitch(W, K, 0, 4.0, **A)
+    np.testing.assert_allclose(r0.omega_e_rad_s, [0.3981, 0.5923, 0.5826, 0.3690, -0.0484, -0.6697], atol=5e-5)
+
+
+def test_long_wave_limit():
+    # methods.md s.4.5 limit test [D]: L 100, B0 20, T 5, Cb 1, U 0, mu 180, omega 0.05
+    # -> heave 0.99998, pitch/k 0.99999 (heave RAO -> 1, pitch RAO -> wave slope k).
+    k = 0.05**2 / G
+    r = jmo_heave_pitch(0.05, k, 180, 0.0, 100.0, 20.0, 5.0, 1.0)
+    assert float(r.heave_m_per_m) == pytest.approx(0.99998, abs=1e-5)
+    assert float(r.pitch_rad_per_m) / k == pytest.approx(0.99999, abs=1e-5)
+    # common practice, no source: heave -> 1 at every heading with kappa = exp(-kT)
+    # (methods.md s.4.1 long-wave expansion: 1 + O(k^2)).
+    for mu in (0, 45, 90, 135, 180):
+        h = jmo_heave_pitch(0.02, 0.02**2 / G, mu, 0.0, 40.0, 10.0, 2.5, 0.6).heave_m_per_m
+        assert abs(float(h) - 1.0) < 1e-3
+
+
+def test_short_wave_limit_tends_to_zero():
+    # common practice, no source: heave and pitch vanish for waves much shorter than the hull.
+    w = np.array([6.0, 10.0])
+    r = jmo_heave_pitch(w, w**2 / G, 150, 3.0, **B)
+    assert np.all(r.heave_m_per_m < 1e-3) and np.all(r.pitch_rad_per_m < 1e-4)
+
+
+def test_zero_speed_head_following_symmetry():
+    # common practice, no source: at U = 0 the box hull responds alike to head and following seas.
+    w = np.linspace(0.2, 3.0, 50)
+    h = jmo_heave_pitch(w, w**2 / G, 180, 0.0, **A)
+    f = jmo_heave_pitch(w, w**2 / G, 0, 0.0, **A)
+    np.testing.assert_allclose(h.heave_m_per_m, f.heave_m_per_m, rtol=1e-12)
+    np.testing.assert_allclose(h.pitch_rad_per_m, f.pitch_rad_per_m, rtol=1e-12)
+
+
+def test_alpha_zero_guard_is_finite_and_has_its_limit():
+    # methods.md s.4.1 [D]: alpha = 0 at omega = g/(U cos mu) = 2.4525 rad/s for U 4, mu 0;
+    # limit eta -> 1, f -> |1 - kT|, so heave = exp(-kT)|1-kT| sinc(sigma).
+    w = G / 4.0
+    k = w**2 / G
+    r = jmo_heave_pitch(w, k, 0, 4.0, **A)
+    sig = k * 12.0 / 2
+    expected = np.exp(-k) * abs(1 - k) * abs(np.sin(sig) / sig)
+    assert np.isfinite(r.heave_m_per_m) and float(r.heave_m_per_m) == pytest.approx(expected, rel=1e-9)
+
+
+def test_beam_sea_pitch_is_zero_and_finite():
+    r = jmo_heave_pitch(W, K, 90, 4.0, **A)
+    assert np.all(np.isfinite(r.pitch_rad_per_m)) and np.all(r.pitch_rad_per_m == 0.0)
+
+
+def test_imo_roll_period_table():
+    # methods.md s.4.4 [D] with the IMO 2008 IS Code formula T = 2CB/sqrt(GM).
+    rows = [(20, 8, 150, 1.5, 11.9535), (4, 1.0, 12, 0.8, 4.1129), (3.5, 0.6, 10, 1.2, 3.2134),
+            (19.2, 6, 82.8, 1.0, 15.7822)]
+    for b, d, lwl, gm, t in rows:
+        assert float(imo_roll_period_s(b, d, lwl, gm)) == pytest.approx(t, abs=5e-5)
+    with pytest.raises(SeawayInputError, match="gm_m must be > 0"):
+        imo_roll_period_s(4, 1, 12, 0.0)
+
+
+def test_simple_roll_model_values():
+    # methods.md s.4.5 [D] (Lloyd 1989 / Bhattacharyya 1978 1-DOF roll, r = 1): vessel A,
+    # T_roll 4.1129 s, zeta 0.1, mu 90, U 0: omega 1.0 -> 9.9614, 1.5277 -> 68.1533, 2.0 -> 30.7218 deg/m.
+    w = np.array([1.0, 2 * np.pi / 4.1129, 2.0])
+    r = roll_transfer_rad_per_m(w**2 / G, 90, w, 4.1129, 0.1, 4.0, 1.0, slope_reduction="none")
+    np.testing.assert_allclose(np.degrees(r), [9.9614, 68.1533, 30.7218], atol=1.5e-3)
+
+
+def test_slope_factor_limits():
+    # common practice, no source: 3(sin y - y cos y)/y^3 -> 1 as y -> 0 (series 1 - y^2/10).
+    r = effective_slope_factor(np.array([1e-6, 0.1]), 90, 4.0, 1.0, "beam")
+    np.testing.assert_allclose(r, [1.0, 1 - 0.2**2 / 10 + 0.2**4 / 280], rtol=1e-6)
+    assert float(roll_transfer_rad_per_m(0.1, 180, 1.0, 4.0, 0.1, 4.0, 1.0)) == 0.0
+
+
+def test_validity_mask_and_model():
+    # Our documented range (transfer.py docstring): Fn <= 0.4.
+    u = np.array([0.0, 0.4 * np.sqrt(9.80665 * 12.0) * 0.999, 0.4 * np.sqrt(9.80665 * 12.0) * 1.001])
+    np.testing.assert_array_equal(jmo_validity_mask(u, 12.0, 4.0, 1.0), [True, True, False])
+    assert not jmo_validity_mask(1.0, 12.0, 1.0, 0.5).any()  # L/B = 12 > 10
+    m = ClosedFormTransfer(12.0, 4.0, 1.0, 0.45, 4.1129, 0.1)
+    t = m.evaluate(W, K, 90.0, 0.0)
+    assert t.roll_rad_per_m.shape == W.shape and np.all(t.roll_rad_per_m > 0)
+
+
+def test_bad_inputs():
+    with pytest.raises(SeawayInputError, match="kappa"):
+        jmo_heave_pitch(W, K, 180, 1.0, **A, kappa="x")
+    with pytest.raises(SeawayInputError, match="omega_rad_s"):
+        jmo_heave_pitch(np.array([np.nan]), K[:1], 180, 1.0, **A)
+    with pytest.raises(SeawayInputError, match="speed_m_s"):
+        jmo_heave_pitch(W, K, 180, -1.0, **A)
