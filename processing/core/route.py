@@ -58,7 +58,9 @@ def wrap_lon_deg(lon_deg: ArrayLike) -> FloatArray:
     """Longitude wrapped to [-180, 180) degrees."""
     lon = as_float_array("lon_deg", lon_deg)
     out = np.mod(lon + 180.0, 360.0) - 180.0
-    return np.where(out >= 180.0, -180.0, out)
+    out = np.where(out >= 180.0, -180.0, out)
+    # values already in range are returned bit-for-bit (the mod above can round them)
+    return np.where((lon >= -180.0) & (lon < 180.0), lon, out)
 
 
 @dataclass(frozen=True)
@@ -239,13 +241,24 @@ def elapsed_time_s(dist_m: ArrayLike, speed_kn: ArrayLike) -> FloatArray:
 
 def _departure_ms(departure_utc: DateLike) -> np.datetime64:
     """Departure as numpy datetime64[ms] UTC (aware datetimes converted, naive taken as UTC)."""
+    if isinstance(departure_utc, str):
+        text = departure_utc.strip()
+        if text.endswith(("Z", "z")):
+            text = text[:-1] + "+00:00"
+        try:
+            departure_utc = _dt.datetime.fromisoformat(text)
+        except ValueError:
+            pass  # let numpy try other ISO 8601 forms below
     if isinstance(departure_utc, _dt.datetime):
         if departure_utc.tzinfo is not None:
             departure_utc = departure_utc.astimezone(_dt.timezone.utc).replace(tzinfo=None)
         return np.datetime64(departure_utc, "ms")
     try:
-        dep = np.datetime64(departure_utc, "ms")
-    except (TypeError, ValueError) as exc:
+        with warnings.catch_warnings():
+            # numpy deprecates parsing zone offsets: refuse them rather than guess
+            warnings.simplefilter("error", DeprecationWarning)
+            dep = np.datetime64(departure_utc, "ms")
+    except (TypeError, ValueError, DeprecationWarning) as exc:
         raise SeawayInputError(
             f"departure_utc must be a UTC datetime, numpy.datetime64 or ISO 8601 text, got "
             f"{departure_utc!r}"
