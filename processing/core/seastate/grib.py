@@ -1,0 +1,132 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""GRIB2 reader: bands identified by discipline 10 / category 0 parameter numbers and level.
+
+Each GRIB message is one GDAL band. Identification uses, in order: the caller's variable map
+(matched against ``GRIB_ELEMENT``), then the product definition template values
+``GRIB_PDS_TEMPLATE_ASSEMBLED_VALUES`` (category, number, ..., type and scaled value of the first
+fixed surface at positions 10 and 12, WMO FM 92 GRIB2 template 4.0), then ``GRIB_ELEMENT``.
+The valid time of each message is ``GRIB_VALID_TIME`` (epoch seconds). GDAL re-wraps 0..360
+global GRIB grids to -180..180 on read; :mod:`.grid` handles either.
+"""
+from __future__ import annotations
+
+import re
+from typing import Dict, List, Optional, Tuple
+
+import numpy as np
+
+from ..validation import SeawayInputError
+from .discovery import Discovery, resolve_going_to
+from .layer import VariableLayer, grid_from_dataset, open_gdal
+from .timeaxis import parse_grib_time
+from .variables import (GRIB_BY_ELEMENT, GRIB_WAVE_PARAMETERS, GribParameter, canonical_kind,
+                        grib_canonical, unit_conversion)
+
+
+def _ints(text: str) -> List[int]:
+    out = []
+    for tok in (text or "").split():
+        try:
+            out.append(int(tok))
+        except ValueError:
+            out.append(-1)
+    return out
+
+
+def identify_band(md: Dict[str, str]) -> Tuple[Optional[GribParameter], int, float]:
+    """(parameter, level type, level value) of one GRIB band from its GDAL metadata."""
+    disc_m = re.match(r"\s*(\d+)", md.get("GRIB_DISCIPLINE", ""))
+    discipline = int(disc_m.group(1)) if disc_m else -1
+    vals = _ints(md.get("GRIB_PDS_TEMPLATE_ASSEMBLED_VALUES", ""))
+    pdtn = _ints(md.get("GRIB_PDS_PDTN", "-1"))
+    level_type, level_value = -1, 0.0
+    param: Optional[GribParameter] = None
+    if len(vals) >= 12 and pdtn and pdtn[0] in (0, 1, 8, 11):
+        level_type = vals[9]
+        scale = vals[10]
+        level_value = vals[11] / (10.0 ** scale) if 0 <= scale < 10 else float(vals[11])
+        if discipline == 10 and vals[0] == 0:
+            param = GRIB_WAVE_PARAMETERS.get(vals[1])
+    if param is None and discipline in (10, -1):
+        param = GRIB_BY_ELEMENT.get(md.get("GRIB_ELEMENT", ""))
+        if param is not None and level_type < 0:
+            short = md.get("GRIB_SHORT_NAME", "")
+            m = re.match(r"\s*(\d+)-", short)
+            if m and "241" in short:
+                level_type, level_value = 241, float(m.group(1))
+    return param, level_type, level_value
+
+
+def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: str,
+                  *, strict: bool) -> Discovery:
+    """Scan a GRIB2 file; one layer per canonical variable (bands sorted by valid time)."""
+    disc = Discovery(path, "grib2")
+    ds = open_gdal(path, what="GRIB2 file")
+    where_file = f"{path}"
+    grid = grid_from_dataset(ds, where=where_file)
+    groups: Dict[str, Dict[str, object]] = {}
+    for b in range(1, ds.RasterCount + 1):
+        md = ds.GetRasterBand(b).GetMetadata() or {}
+        element = md.get("GRIB_ELEMENT", f"band{b}")
+        param, ltype, lval = identify_band(md)
+        if element in inverse_map:
+            canonical, priority = inverse_map[element], -1
+            how = f"variable_map {canonical!r} -> GRIB element {element}"
+            note = ""
+        elif param is not None:
+            hit = grib_canonical(param, ltype, lval)
+            if hit is None:
+                disc.ignored.append((f"{element} (band {b})", f"{param.name}: not used by the sampler"))
+                continue
+            canonical, priority = hit
+            lvl = f", level type {ltype} value {lval:g}" if ltype not in (-1, 1) else ""
+            how = f"GRIB2 discipline 10 category 0 parameter {param.number} ({element}{lvl})"
+            note = param.note
+        else:
+            disc.ignored.append((f"{element} (band {b})", "not a GRIB2 wave parameter we use"))
+            continue
+        where = f"{path} variable {canonical!r} (GRIB {element}, band {b})"
+        try:
+            t = parse_grib_time(md.get("GRIB_VALID_TIME"), where=where)
+        except SeawayInputError as exc:
+            if strict:
+                raise
+            disc.ignored.append((f"{element} (band {b})", str(exc)))
+            continue
+        grp = groups.setdefault(canonical, {"entries": [], "element": element, "how": how,
+                                            "priority": priority, "unit": md.get("GRIB_UNIT", ""),
+                                            "note": note})
+        grp["entries"].append((int(t.astype(np.int64)), b))  # type: ignore[union-attr]
+    for canonical, grp in groups.items():
+        entries: List[Tuple[int, int]] = grp["entries"]  # type: ignore[assignment]
+        element = str(grp["element"])
+        where = f"{path} variable {canonical!r} (GRIB {element})"
+        entries.sort(key=lambda e: e[0])
+        kept: List[Tuple[int, int]] = []
+        for t, b in entries:
+            if kept and kept[-1][0] == t:
+                disc.warnings.append(
+                    f"{where}: two messages for {np.datetime64(t, 's')}Z (bands {kept[-1][1]} and {b}); "
+                    f"band {kept[-1][1]} is used"
+                )
+                continue
+            kept.append((t, b))
+        try:
+            kind = canonical_kind(canonical)
+            conv = unit_conversion(kind, str(grp["unit"]), where=where)
+        except SeawayInputError as exc:
+            if strict:
+                raise
+            disc.ignored.append((element, str(exc)))
+            continue
+        going_to, dir_note = resolve_going_to(kind, False, direction_convention, where=where,
+                                              warnings=disc.warnings)
+        notes = tuple(n for n in (str(grp["note"]), dir_note) if n)
+        disc.layers.append(VariableLayer(
+            canonical=canonical, kind=kind, file=path, file_variable=element,
+            recognised_by=str(grp["how"]), priority=int(grp["priority"]),  # type: ignore[arg-type]
+            units=conv, going_to=going_to, grid=grid,
+            times_s=np.array([t for t, _ in kept], dtype=np.int64),
+            bands=tuple((path, b) for _, b in kept), notes=notes,
+        ))
+    return disc

@@ -1,0 +1,160 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""One sea-state variable found in a file (a *layer*) and the GDAL reads behind it.
+
+A layer is one canonical variable (e.g. ``hs``) on one grid with one time axis; each time step is
+one GDAL band, possibly in different files (GRIB forecasts often come one file per step). The
+readers (:mod:`.netcdf`, :mod:`.grib`, :mod:`.geotiff`) build layers; :mod:`.sampler` reads only
+the windows and time steps it needs through :class:`DatasetCache`.
+
+Raw band values become physical values as ``(raw * scale + offset) * unit_factor`` with GDAL's
+band scale/offset (CF ``scale_factor``/``add_offset``, CF Conventions 1.8 s.8.1) and no-data
+(CF ``_FillValue``/``missing_value``) turned into NaN before scaling.
+"""
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass, field
+from typing import Dict, List, Optional, Sequence, Tuple
+
+import numpy as np
+from numpy.typing import NDArray
+
+from ..validation import SeawayInputError
+from .grid import GridGeometry, Window
+from .variables import UnitConversion
+
+try:  # GDAL is a hard requirement of this sub-package only
+    from osgeo import gdal, osr
+except ImportError as _exc:  # pragma: no cover - exercised only without GDAL
+    gdal = None  # type: ignore[assignment]
+    osr = None  # type: ignore[assignment]
+    _GDAL_IMPORT_ERROR: Optional[ImportError] = _exc
+else:
+    _GDAL_IMPORT_ERROR = None
+    gdal.UseExceptions()
+
+
+def require_gdal() -> None:
+    if gdal is None:
+        raise SeawayInputError(f"GDAL's Python bindings (osgeo) are not available: {_GDAL_IMPORT_ERROR}")
+
+
+def open_gdal(name: str, *, what: str) -> "gdal.Dataset":
+    """Open a GDAL dataset read-only; a clear :class:`SeawayInputError` on any failure."""
+    require_gdal()
+    plain = name
+    if name.upper().startswith(("NETCDF:", "HDF5:")):
+        plain = name.split(":", 1)[1].rsplit(":", 1)[0].strip('"')
+    if not os.path.exists(plain):
+        raise SeawayInputError(f"{what} {plain!r} does not exist")
+    try:
+        ds = gdal.Open(name, gdal.GA_ReadOnly)
+    except RuntimeError as exc:
+        raise SeawayInputError(f"GDAL cannot open {what} {name!r}: {exc}") from None
+    if ds is None:
+        raise SeawayInputError(f"GDAL cannot open {what} {name!r}: {gdal.GetLastErrorMsg()}")
+    return ds
+
+
+def grid_from_dataset(ds: "gdal.Dataset", *, where: str) -> GridGeometry:
+    """Grid geometry from a GDAL dataset. No CRS: WGS 84 lon/lat assumed if the extent fits."""
+    gt = ds.GetGeoTransform(can_return_null=True)
+    if gt is None:
+        raise SeawayInputError(f"{where}: the raster has no georeferencing (no geotransform)")
+    wkt = ds.GetProjection() or ""
+    nx, ny = ds.RasterXSize, ds.RasterYSize
+    if not wkt:
+        g = GridGeometry(nx, ny, tuple(gt), "", True, "EPSG:4326", True)
+        x0, y0, x1, y1 = g.extent()
+        if x0 < -540 or x1 > 540 or y0 < -91 or y1 > 91:
+            raise SeawayInputError(
+                f"{where}: the raster has no CRS and its extent {g.extent()} is not lon/lat degrees"
+            )
+        return g
+    srs = osr.SpatialReference()
+    srs.ImportFromWkt(wkt)
+    code = srs.GetAuthorityCode(None)
+    name = srs.GetAuthorityName(None)
+    label = f"{name}:{code}" if code and name else (srs.GetName() or "custom CRS")
+    if srs.IsGeographic():
+        return GridGeometry(nx, ny, tuple(gt), wkt, True, label, False)
+    return GridGeometry(nx, ny, tuple(gt), srs.ExportToWkt(), False, label, False)
+
+
+@dataclass(frozen=True, eq=False)
+class VariableLayer:
+    """One canonical variable on one grid and time axis (bands may span files)."""
+
+    canonical: str
+    kind: str
+    file: str
+    file_variable: str
+    recognised_by: str
+    priority: int
+    units: UnitConversion
+    going_to: bool
+    grid: GridGeometry
+    times_s: NDArray[np.int64]
+    bands: Tuple[Tuple[str, int], ...]
+    notes: Tuple[str, ...] = ()
+    extra_nodata: Tuple[float, ...] = ()
+    files: Tuple[str, ...] = field(default=())
+
+    @property
+    def all_files(self) -> Tuple[str, ...]:
+        return self.files or (self.file,)
+
+
+class DatasetCache:
+    """Keeps GDAL datasets open between reads; :meth:`close` releases them."""
+
+    def __init__(self) -> None:
+        self._open: Dict[str, "gdal.Dataset"] = {}
+        self.bytes_read = 0
+
+    def get(self, name: str) -> "gdal.Dataset":
+        ds = self._open.get(name)
+        if ds is None:
+            ds = open_gdal(name, what="forecast file")
+            self._open[name] = ds
+        return ds
+
+    def read_band_window(self, layer: VariableLayer, step: int, window: Window) -> NDArray[np.float64]:
+        """Physical values of one time step inside ``window`` (NaN where no data)."""
+        name, bandno = layer.bands[step]
+        band = self.get(name).GetRasterBand(bandno)
+        parts: List[NDArray[np.float64]] = []
+        for xoff, xsize in window.col_runs:
+            raw = band.ReadAsArray(xoff, window.row0, xsize, window.nrows)
+            if raw is None:
+                raise SeawayInputError(
+                    f"{layer.file} variable {layer.file_variable!r}: GDAL could not read band "
+                    f"{bandno}: {gdal.GetLastErrorMsg()}"
+                )
+            parts.append(np.asarray(raw))
+        raw = parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1)
+        self.bytes_read += raw.nbytes
+        arr = raw.astype(np.float64)
+        bad = ~np.isfinite(arr)
+        nd = band.GetNoDataValue()
+        if nd is not None and np.isfinite(nd):
+            bad |= raw == nd
+        for extra in layer.extra_nodata:
+            bad |= raw == extra
+        scale = band.GetScale()
+        offset = band.GetOffset()
+        if scale not in (None, 1.0) or offset not in (None, 0.0):
+            arr = arr * (1.0 if scale is None else scale) + (0.0 if offset is None else offset)
+        if layer.units.factor != 1.0:
+            arr = arr * layer.units.factor
+        arr[bad] = np.nan
+        return arr
+
+    def read_cube(self, layer: VariableLayer, steps: Sequence[int], window: Window) -> NDArray[np.float64]:
+        cube = np.empty((len(steps), window.nrows, window.ncols), dtype=np.float64)
+        for k, s in enumerate(steps):
+            cube[k] = self.read_band_window(layer, int(s), window)
+        return cube
+
+    def close(self) -> None:
+        self._open.clear()

@@ -1,0 +1,134 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""NetCDF-CF reader: variables by CF ``standard_name`` (or the caller's variable map), CF time.
+
+GDAL's netCDF driver exposes each (time, y, x) variable as a subdataset ``NETCDF:"file":var``
+with one band per time step; band metadata ``NETCDF_DIM_<dim>`` holds the raw coordinate value,
+dataset metadata ``<dim>#units`` / ``<dim>#calendar`` the CF time units (CF Conventions 1.8 s.4.4).
+Packed values (``scale_factor``/``add_offset``, s.8.1) and ``_FillValue``/``missing_value``
+(s.2.5.1) are honoured on read (:mod:`.layer`).
+"""
+from __future__ import annotations
+
+import re
+from typing import Dict, List, Optional, Tuple
+
+import numpy as np
+
+from ..validation import SeawayInputError
+from .discovery import Discovery, resolve_going_to
+from .grid import GridGeometry
+from .layer import VariableLayer, grid_from_dataset, open_gdal
+from .timeaxis import decode_cf_time, require_increasing
+from .variables import CF_STANDARD_NAMES, canonical_kind, unit_conversion
+
+
+def _braced(text: str) -> List[str]:
+    return [s for s in re.split(r"[{},\s]+", text or "") if s]
+
+
+def _variable_datasets(path: str) -> List[Tuple[str, str]]:
+    """(gdal name, variable name) for every 2-D+ variable in the file."""
+    ds = open_gdal(path, what="NetCDF file")
+    subs = ds.GetSubDatasets()
+    if subs:
+        out = []
+        for name, _desc in subs:
+            out.append((name, name.rsplit(":", 1)[-1]))
+        return out
+    if ds.RasterCount == 0:
+        return []
+    var = ds.GetRasterBand(1).GetMetadataItem("NETCDF_VARNAME") or "band"
+    return [(f'NETCDF:"{path}":{var}', var)]
+
+
+def _time_dimension(md: Dict[str, str], where: str) -> Tuple[Optional[str], List[str]]:
+    dims = _braced(md.get("NETCDF_DIM_EXTRA", ""))
+    time_dims = []
+    for d in dims:
+        units = md.get(f"{d}#units", "")
+        axis = md.get(f"{d}#axis", "")
+        std = md.get(f"{d}#standard_name", "")
+        if " since " in units.lower() or axis.upper() == "T" or std == "time":
+            time_dims.append(d)
+    if len(time_dims) > 1:
+        raise SeawayInputError(f"{where}: more than one time dimension ({', '.join(time_dims)})")
+    return (time_dims[0] if time_dims else None), [d for d in dims if d not in time_dims]
+
+
+def discover_netcdf(path: str, inverse_map: Dict[str, str], direction_convention: str,
+                    *, strict: bool) -> Discovery:
+    """Scan a NetCDF file for sea-state variables."""
+    disc = Discovery(path, "netcdf")
+    for gdal_name, var in _variable_datasets(path):
+        where = f"{path} variable {var!r}"
+        ds = open_gdal(gdal_name, what="NetCDF variable")
+        md = ds.GetMetadata() or {}
+        band_md = ds.GetRasterBand(1).GetMetadata() if ds.RasterCount else {}
+        std = band_md.get("standard_name", md.get(f"{var}#standard_name", ""))
+        units_text = band_md.get("units", md.get(f"{var}#units", ""))
+        cf = CF_STANDARD_NAMES.get(std)
+        if var in inverse_map:
+            canonical = inverse_map[var]
+            how = f"variable_map {canonical!r} -> {var!r}"
+            declared = cf.going_to if (cf and cf.canonical == canonical) else None
+            priority = -1
+        elif cf is not None:
+            canonical, how, declared, priority = cf.canonical, f"CF standard_name {std}", cf.going_to, cf.priority
+        else:
+            disc.ignored.append((var, f"standard_name {std!r} not a sea-state quantity we use"
+                                 if std else "no standard_name and not in variable_map"))
+            continue
+        try:
+            layer = _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority,
+                           units_text, direction_convention, where, disc.warnings)
+        except SeawayInputError as exc:
+            if strict:
+                raise
+            disc.ignored.append((var, str(exc)))
+            continue
+        disc.layers.append(layer)
+    return disc
+
+
+def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, units_text,  # type: ignore[no-untyped-def]
+           direction_convention, where, warnings) -> VariableLayer:
+    kind = canonical_kind(canonical)
+    conv = unit_conversion(kind, units_text, where=where)
+    going_to, dir_note = resolve_going_to(kind, declared, direction_convention, where=where,
+                                          warnings=warnings)
+    tdim, others = _time_dimension(md, where)
+    if tdim is None:
+        raise SeawayInputError(f"{where}: no time information (no time dimension with CF units)")
+    for d in others:
+        size = _braced(md.get(f"NETCDF_DIM_{d}_DEF", ""))
+        if size and int(size[0]) > 1:
+            raise SeawayInputError(
+                f"{where}: extra dimension {d!r} of size {size[0]}; only (time, y, x) variables are read"
+            )
+    units = md.get(f"{tdim}#units")
+    calendar = md.get(f"{tdim}#calendar")
+    raw = []
+    for b in range(1, ds.RasterCount + 1):
+        item = ds.GetRasterBand(b).GetMetadataItem(f"NETCDF_DIM_{tdim}")
+        if item is None:
+            raise SeawayInputError(f"{where}: band {b} has no {tdim} coordinate")
+        raw.append(float(item))
+    times = decode_cf_time(raw, units, calendar, where=f"{where} time axis {tdim!r}")
+    times_s = times.astype(np.int64)
+    require_increasing(times_s, where=where)
+    grid: GridGeometry = grid_from_dataset(ds, where=where)
+    extra_nd: Tuple[float, ...] = ()
+    band_md = ds.GetRasterBand(1).GetMetadata() or {}
+    mv = band_md.get("missing_value")
+    if mv is not None:
+        try:
+            extra_nd = tuple(float(v) for v in _braced(mv))
+        except ValueError:
+            extra_nd = ()
+    notes = tuple(n for n in (dir_note,) if n)
+    return VariableLayer(
+        canonical=canonical, kind=kind, file=path, file_variable=var, recognised_by=how,
+        priority=priority, units=conv, going_to=going_to, grid=grid, times_s=times_s,
+        bands=tuple((gdal_name, b) for b in range(1, ds.RasterCount + 1)), notes=notes,
+        extra_nodata=extra_nd,
+    )

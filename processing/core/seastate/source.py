@@ -1,0 +1,412 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""The public sea-state source: open forecast files, inventory them, sample them along a route.
+
+``open_sea_state`` accepts GRIB2, NetCDF-CF and GeoTIFF stacks (one or many files; each variable
+may come from a different file, grid and time axis and is sampled on its own grid). The sampling
+method is described in :mod:`.sampler`; derived quantities in :mod:`.derived`.
+"""
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass, field, replace
+from typing import Callable, Dict, List, Optional, Sequence, Tuple, Union
+
+import numpy as np
+from numpy.typing import NDArray
+
+from ..flags import CAUTION, NOT_COMPUTED_FLAGS, SampleFlag
+from ..units import FloatArray
+from ..validation import SeawayInputError, as_float_array, require_in_range, require_nonnegative
+from .derived import MEAN_PERIOD_RATIOS, dominant_partition, hs_m_from_partitions, tp_s_from_mean_period
+from .discovery import Discovery, check_direction_convention, invert_variable_map
+from .geotiff import discover_geotiff
+from .grib import discover_grib
+from .inventory import IgnoredEntry, Inventory, entry_for_layer
+from .layer import DatasetCache, VariableLayer, open_gdal
+from .netcdf import discover_netcdf
+from .sampler import LayerSample, sample_layer
+from .timeaxis import as_utc_seconds, to_datetime64
+from .variables import PARTITIONS
+
+ProgressCallback = Callable[[float], Optional[bool]]
+
+
+class SamplingCancelled(Exception):
+    """Raised by :meth:`SeaStateSource.sample` when the progress callback returns False."""
+
+
+@dataclass(frozen=True)
+class SampledSeaState:
+    """Sea state at n route samples. NaN + a flag where not computable, never 0.
+
+    ``wave_from_deg`` is degrees true, coming from. Partition arrays are (n, p) in the order of
+    ``partition_names``; NaN where a partition is absent at a sample.
+    """
+
+    hs_m: FloatArray
+    tp_s: FloatArray
+    wave_from_deg: FloatArray
+    partition_names: Tuple[str, ...]
+    partition_hs_m: FloatArray
+    partition_tp_s: FloatArray
+    partition_from_deg: FloatArray
+    tm01_s: FloatArray
+    flags: NDArray[np.int64]
+    source_name: str
+    valid: NDArray[np.bool_]
+    notes: Tuple[str, ...] = ()
+    caution: str = CAUTION
+
+    @property
+    def n(self) -> int:
+        return int(self.hs_m.size)
+
+
+def _same_grid(a: VariableLayer, b: VariableLayer) -> bool:
+    ga, gb = a.grid, b.grid
+    return (ga.nx, ga.ny, ga.crs_label) == (gb.nx, gb.ny, gb.crs_label) and np.allclose(
+        ga.geotransform, gb.geotransform, rtol=0, atol=1e-9)
+
+
+def _merge(layers_in_order: List[VariableLayer], warnings: List[str]) -> Dict[str, VariableLayer]:
+    """One layer per canonical variable: first file wins; same-grid files extend the time axis."""
+    chosen: Dict[str, VariableLayer] = {}
+    for layer in layers_in_order:
+        c = layer.canonical
+        old = chosen.get(c)
+        if old is None:
+            chosen[c] = layer
+            continue
+        if old.file == layer.file:
+            if layer.priority < old.priority:
+                chosen[c] = layer
+                warnings.append(f"{layer.file}: {c!r} found as {old.file_variable!r} and "
+                                f"{layer.file_variable!r}; {layer.file_variable!r} is used")
+            else:
+                warnings.append(f"{layer.file}: {c!r} found as {old.file_variable!r} and "
+                                f"{layer.file_variable!r}; {old.file_variable!r} is used")
+            continue
+        if _same_grid(old, layer) and old.units.factor == layer.units.factor and old.going_to == layer.going_to:
+            t_old = set(int(t) for t in old.times_s)
+            dup = [t for t in layer.times_s if int(t) in t_old]
+            if dup:
+                warnings.append(
+                    f"{c!r}: {layer.file} repeats {len(dup)} time(s) of {old.file} (first "
+                    f"{np.datetime64(int(dup[0]), 's')}Z); {old.file} is used for those"
+                )
+            entries = list(zip(old.times_s.tolist(), old.bands))
+            entries += [(int(t), b) for t, b in zip(layer.times_s.tolist(), layer.bands) if int(t) not in t_old]
+            if len(entries) == len(old.bands):
+                continue
+            entries.sort(key=lambda e: e[0])
+            chosen[c] = replace(old, times_s=np.array([e[0] for e in entries], dtype=np.int64),
+                                bands=tuple(e[1] for e in entries),
+                                files=tuple(dict.fromkeys(old.all_files + layer.all_files)))
+            continue
+        overlap = not (layer.times_s[-1] < old.times_s[0] or layer.times_s[0] > old.times_s[-1])
+        why = "for the same times" if overlap else "on a different grid"
+        warnings.append(f"{c!r} is in both {old.file} and {layer.file} {why}; {old.file} is used")
+    return chosen
+
+
+def _discover(path: str, inverse_map: Dict[str, str], direction_convention: str,
+              times_utc: Optional[Sequence], strict: bool) -> Discovery:
+    ds = open_gdal(path, what="forecast file")
+    driver = ds.GetDriver().ShortName
+    del ds
+    if driver == "netCDF":
+        return discover_netcdf(path, inverse_map, direction_convention, strict=strict)
+    if driver == "GRIB":
+        return discover_grib(path, inverse_map, direction_convention, strict=strict)
+    return discover_geotiff(path, inverse_map, direction_convention, times_utc=times_utc, strict=strict)
+
+
+class SeaStateSource:
+    """Sea-state variables from one or more files, ready to sample along a route."""
+
+    def __init__(self, name: str, layers: Dict[str, VariableLayer], files: Tuple[str, ...],
+                 unused: List[VariableLayer], ignored: List[IgnoredEntry], warnings: List[str]):
+        self.name = name
+        self._layers = layers
+        self._files = files
+        self._unused = unused
+        self._ignored = ignored
+        self.warnings: List[str] = warnings
+        self._cache = DatasetCache()
+
+    # --------------------------------------------------------------- description
+    @property
+    def variables(self) -> Tuple[str, ...]:
+        return tuple(self._layers)
+
+    @property
+    def partitions(self) -> Tuple[str, ...]:
+        return tuple(p for p in PARTITIONS if f"{p}_hs" in self._layers)
+
+    @property
+    def time_range_utc(self) -> Tuple[np.datetime64, np.datetime64]:
+        """Earliest and latest time of any variable (each variable has its own axis)."""
+        t0 = min(int(l.times_s[0]) for l in self._layers.values())
+        t1 = max(int(l.times_s[-1]) for l in self._layers.values())
+        return np.datetime64(t0, "s"), np.datetime64(t1, "s")
+
+    def layer(self, canonical: str) -> VariableLayer:
+        return self._layers[canonical]
+
+    def inventory(self) -> Inventory:
+        entries = [entry_for_layer(l, True) for l in self._layers.values()]
+        entries += [entry_for_layer(l, False) for l in self._unused]
+        return Inventory(self.name, self._files, tuple(entries), tuple(self._ignored), tuple(self.warnings))
+
+    def close(self) -> None:
+        self._cache.close()
+
+    def __enter__(self) -> "SeaStateSource":
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        self.close()
+
+    @property
+    def bytes_read(self) -> int:
+        """Raw bytes read from files by sample() so far (for memory checks)."""
+        return self._cache.bytes_read
+
+    # --------------------------------------------------------------- sampling
+    def sample(self, lon_deg, lat_deg, time_utc, *, land_search_km: float = 30.0,  # type: ignore[no-untyped-def]
+               time_tolerance_s: float = 1800.0, progress: Optional[ProgressCallback] = None
+               ) -> SampledSeaState:
+        """Sea state at route samples (lon, lat in degrees WGS 84; UTC times).
+
+        ``time_utc`` is an array of datetime64 / ISO strings / datetimes of the same length as the
+        positions, or a single time for all. Raises :class:`SeawayInputError` for bad input or
+        when no sample lies inside the grid and time range of the wave-height variables.
+        """
+        lon = np.atleast_1d(as_float_array("lon_deg", lon_deg)).ravel()
+        lat = np.atleast_1d(require_in_range("lat_deg", lat_deg, -90.0, 90.0, unit="deg")).ravel()
+        if lon.size == 0:
+            raise SeawayInputError("lon_deg is empty: no samples to take")
+        if lat.size != lon.size:
+            raise SeawayInputError(f"lat_deg has {lat.size} values but lon_deg has {lon.size}")
+        t = as_utc_seconds("time_utc", time_utc)
+        if t.size == 1 and lon.size > 1:
+            t = np.full(lon.size, t[0], dtype=np.int64)
+        if t.size != lon.size:
+            raise SeawayInputError(f"time_utc has {t.size} values but lon_deg has {lon.size}")
+        search = float(require_nonnegative("land_search_km", land_search_km))
+        tol = float(require_nonnegative("time_tolerance_s", time_tolerance_s))
+
+        heights = ["hs"] if "hs" in self._layers else [f"{p}_hs" for p in self.partitions]
+        order = heights + [c for c in self._layers if c not in heights]
+        out: Dict[str, LayerSample] = {}
+        for k, c in enumerate(order):
+            out[c] = sample_layer(self._layers[c], self._cache, lon, lat, t,
+                                  land_search_km=search, time_tolerance_s=tol)
+            if k == len(heights) - 1:
+                self._check_any_inside([out[h] for h in heights], lon, lat, t)
+            if progress is not None and progress((k + 1) / len(order)) is False:
+                raise SamplingCancelled("sea-state sampling cancelled")
+        return self._combine(out, lon.size)
+
+    def _check_any_inside(self, samples: List[LayerSample], lon, lat, t) -> None:  # type: ignore[no-untyped-def]
+        off = int(SampleFlag.OUTSIDE_GRID | SampleFlag.OUTSIDE_TIME)
+        if any(np.any((s.flags & off) == 0) for s in samples):
+            return
+        s = samples[0]
+        layer = self._layers[s.canonical]
+        if np.all(s.flags & int(SampleFlag.OUTSIDE_GRID)):
+            raise SeawayInputError(
+                f"the route lies entirely outside the grid of {layer.file} variable "
+                f"{layer.file_variable!r} (grid extent {layer.grid.extent()}, {layer.grid.crs_label}; "
+                f"route lon {lon.min():g}..{lon.max():g}, lat {lat.min():g}..{lat.max():g})"
+            )
+        a, b = to_datetime64([layer.times_s[0], layer.times_s[-1]])
+        ta, tb = to_datetime64([t.min(), t.max()])
+        raise SeawayInputError(
+            f"no route sample lies inside both the grid and the time range of {layer.file} variable "
+            f"{layer.file_variable!r} (forecast {a}Z..{b}Z; route times {ta}Z..{tb}Z)"
+        )
+
+    def _combine(self, s: Dict[str, LayerSample], n: int) -> SampledSeaState:
+        flags = np.zeros(n, dtype=np.int64)
+        notes: List[str] = []
+        keep = int(SampleFlag.LAND_ADJUSTED | SampleFlag.IMPLAUSIBLE_VALUE)
+        for c, ls in s.items():
+            flags |= ls.flags & keep
+            if np.any(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)):
+                layer = self._layers[c]
+                msg = (f"{layer.file} variable {layer.file_variable!r} ({c}): implausible values at "
+                       f"{int(np.count_nonzero(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)))} samples; "
+                       f"check the file's units (units read: {layer.units.unit_in!r})")
+                notes.append(msg)
+                if msg not in self.warnings:
+                    self.warnings.append(msg)
+        nc = int(NOT_COMPUTED_FLAGS)
+        parts = self.partitions
+        nan2 = np.full((n, len(parts)), np.nan)
+        p_hs, p_tp, p_dir = nan2.copy(), nan2.copy(), nan2.copy()
+        for j, p in enumerate(parts):
+            for arr, q in ((p_hs, "hs"), (p_tp, "tp"), (p_dir, "dir")):
+                if f"{p}_{q}" in s:
+                    arr[:, j] = s[f"{p}_{q}"].values
+        dom, has_part = dominant_partition(p_hs)
+        rows = np.arange(n)
+        dom_tp = np.where(has_part, p_tp[rows, dom] if parts else np.nan, np.nan)
+        dom_dir = np.where(has_part, p_dir[rows, dom] if parts else np.nan, np.nan)
+        partial = np.zeros(n, dtype=bool)
+        combined = "hs" in s
+        consulted: Dict[str, List[str]] = {"hs": [], "tp": [], "dir": []}
+
+        if combined:
+            hs = s["hs"].values.copy()
+            consulted["hs"].append("hs")
+        else:
+            hs = hs_m_from_partitions(p_hs)
+            consulted["hs"] += [f"{p}_hs" for p in parts]
+            notes.append("combined Hs = sqrt(sum of partition Hs^2); Tp and direction of the most "
+                         "energetic partition (the file has no combined sea)")
+
+        tp = s["tp"].values.copy() if "tp" in s else np.full(n, np.nan)
+        if "tp" in s:
+            consulted["tp"].append("tp")
+        for key in ("tm01", "tm02", "tm10"):
+            if key in s:
+                consulted["tp"].append(key)
+                fill = ~np.isfinite(tp) & np.isfinite(s[key].values)
+                if fill.any():
+                    tp[fill] = tp_s_from_mean_period(s[key].values[fill], key)
+                    partial |= fill
+                    notes.append(f"Tp derived from {key} at {int(fill.sum())} samples with "
+                                 f"{key}/Tp = {MEAN_PERIOD_RATIOS[key]} (JONSWAP gamma 3.3)")
+        fill = ~np.isfinite(tp) & np.isfinite(dom_tp)
+        if fill.any():
+            tp[fill] = dom_tp[fill]
+            if combined or "tp" in s:
+                partial |= fill
+                notes.append(f"Tp of the most energetic partition used at {int(fill.sum())} samples")
+        consulted["tp"] += [f"{p}_tp" for p in parts if f"{p}_tp" in s]
+
+        wdir = s["dir"].values.copy() if "dir" in s else np.full(n, np.nan)
+        if "dir" in s:
+            consulted["dir"].append("dir")
+        fill = ~np.isfinite(wdir) & np.isfinite(dom_dir)
+        if fill.any():
+            wdir[fill] = dom_dir[fill]
+            if combined or "dir" in s:
+                partial |= fill
+                notes.append(f"direction of the most energetic partition used at {int(fill.sum())} samples")
+        consulted["dir"] += [f"{p}_dir" for p in parts if f"{p}_dir" in s]
+
+        tm01 = s["tm01"].values.copy() if "tm01" in s else np.full(n, np.nan)
+        valid = np.isfinite(hs) & np.isfinite(tp) & np.isfinite(wdir)
+        for field_name, arr in (("hs", hs), ("tp", tp), ("dir", wdir)):
+            bad = ~np.isfinite(arr)
+            for c in consulted[field_name]:
+                flags[bad] |= s[c].flags[bad] & nc
+            if field_name != "hs" and not consulted[field_name]:
+                partial |= bad
+        any_nc = np.zeros(n, dtype=bool)
+        for ls in s.values():
+            any_nc |= (ls.flags & nc) != 0
+        partial |= valid & any_nc
+        flags[partial] |= int(SampleFlag.PARTIAL_VARIABLES)
+        orphan = ~valid & ((flags & nc) == 0) & ((flags & int(SampleFlag.PARTIAL_VARIABLES)) == 0)
+        flags[orphan] |= int(SampleFlag.PARTIAL_VARIABLES)
+        for arr in (hs, tp, wdir):
+            arr[~valid] = np.nan
+        return SampledSeaState(
+            hs_m=hs, tp_s=tp, wave_from_deg=wdir, partition_names=parts, partition_hs_m=p_hs,
+            partition_tp_s=p_tp, partition_from_deg=p_dir, tm01_s=tm01, flags=flags,
+            source_name=self.name, valid=valid, notes=tuple(dict.fromkeys(notes)),
+        )
+
+
+def _as_paths(paths: Union[str, os.PathLike, Sequence[Union[str, os.PathLike]]]) -> List[str]:
+    if isinstance(paths, (str, os.PathLike)):
+        items = [paths]
+    else:
+        items = list(paths)
+    if not items:
+        raise SeawayInputError("paths is empty: give at least one forecast file")
+    out = []
+    for p in items:
+        if not isinstance(p, (str, os.PathLike)):
+            raise SeawayInputError(f"paths must be file names, got {p!r}")
+        out.append(os.fspath(p))
+    return out
+
+
+def open_sea_state(
+    paths: Union[str, Sequence[str]],
+    *,
+    source_name: Optional[str] = None,
+    variable_map: Optional[Dict[str, str]] = None,
+    direction_convention: str = "auto",
+    times_utc: Optional[Sequence] = None,
+) -> SeaStateSource:
+    """Open GRIB2 / NetCDF-CF / GeoTIFF-stack forecast files as one :class:`SeaStateSource`.
+
+    ``variable_map`` maps our canonical names ("hs", "tp", "dir", "tm01", "wind_hs", "swell1_tp",
+    ...) to file variable names (NetCDF variable, GRIB element, or a GeoTIFF's file name/stem).
+    ``direction_convention``: "auto" (file's declaration, else coming-from), "from" or "to".
+    ``times_utc``: times of the bands of GeoTIFF stacks without time metadata.
+    Needs a wave height (combined or partitions), a period and a direction source.
+    """
+    files = _as_paths(paths)
+    check_direction_convention(direction_convention)
+    inverse = invert_variable_map(variable_map)
+    warnings: List[str] = []
+    ignored: List[IgnoredEntry] = []
+    layers: List[VariableLayer] = []
+    for f in files:
+        d = _discover(f, inverse, direction_convention, times_utc, strict=True)
+        warnings += d.warnings
+        ignored += [IgnoredEntry(f, name, reason) for name, reason in d.ignored]
+        layers += sorted(d.layers, key=lambda l: l.priority)
+    found_files = {inverse[k] for k in inverse}
+    chosen = _merge(layers, warnings)
+    unused = [l for l in layers if chosen.get(l.canonical) is not l and not any(
+        l.bands[0] in c.bands for c in chosen.values())]
+    missing_map = sorted(c for c in found_files if c not in chosen)
+    if missing_map:
+        raise SeawayInputError(
+            f"variable_map names {', '.join(repr(variable_map[c]) for c in missing_map)} "  # type: ignore[index]
+            f"for {', '.join(missing_map)}, but no such variable was found in {', '.join(files)}"
+        )
+    _require(chosen, files, ignored)
+    name = source_name if source_name else os.path.splitext(os.path.basename(files[0]))[0]
+    return SeaStateSource(name, chosen, tuple(files), unused, ignored, warnings)
+
+
+def _require(chosen: Dict[str, VariableLayer], files: List[str], ignored: List[IgnoredEntry]) -> None:
+    have = set(chosen)
+    parts = [p for p in PARTITIONS if f"{p}_hs" in have]
+    needs = {
+        "a significant wave height (hs or a partition height)": "hs" in have or bool(parts),
+        "a wave period (tp, tm01, tm02, tm10 or a partition period)":
+            bool(have & {"tp", "tm01", "tm02", "tm10"}) or any(f"{p}_tp" in have for p in parts),
+        "a wave direction (dir or a partition direction)":
+            "dir" in have or any(f"{p}_dir" in have for p in parts),
+    }
+    lacking = [k for k, ok in needs.items() if not ok]
+    if lacking:
+        found = ", ".join(sorted(have)) or "none"
+        skipped = "; ".join(f"{e.name}: {e.reason}" for e in ignored[:8])
+        raise SeawayInputError(
+            f"{', '.join(files)}: missing {' and '.join(lacking)}. Sea-state variables found: {found}."
+            + (f" Not used: {skipped}." if skipped else "")
+            + " Use variable_map to name non-standard variables."
+        )
+
+
+def describe_file(path: str, *, variable_map: Optional[Dict[str, str]] = None) -> Inventory:
+    """Inventory of one file without requiring any variable (for a 'describe file' tool)."""
+    f = _as_paths(path)[0]
+    inverse = invert_variable_map(variable_map)
+    d = _discover(f, inverse, "auto", None, strict=False)
+    warnings = list(d.warnings)
+    layers = sorted(d.layers, key=lambda l: l.priority)
+    chosen = _merge(layers, warnings)
+    entries = [entry_for_layer(l, chosen.get(l.canonical) is l) for l in layers]
+    return Inventory(os.path.splitext(os.path.basename(f))[0], (f,), tuple(entries),
+                     tuple(IgnoredEntry(f, n, r) for n, r in d.ignored), tuple(warnings))

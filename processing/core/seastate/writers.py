@@ -1,0 +1,324 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Write sea-state and bathymetry files with GDAL (for tests and the invented demo scenario).
+
+* :func:`write_cf_netcdf`: NetCDF-4 with CF attributes through GDAL's multidimensional API
+  (``standard_name``, ``units``, ``_FillValue``, optional packing ``scale_factor``/``add_offset``
+  to Int16, a ``crs`` grid-mapping variable so GDAL reports EPSG:4326).
+* :func:`write_grib2`: GRIB2 discipline 10 messages, one per (variable, time), product template
+  4.0; swell partitions at level type 241 (ordered sequence) value k. ``INPUT_UNIT=K`` works
+  around GDAL 3.6 adding 273.15 to parameter 10/0/3.
+* :func:`write_geotiff_stack`: one band per time, band descriptions = ISO UTC times.
+* :func:`write_bathymetry_geotiff`: one band of depths or elevations.
+"""
+from __future__ import annotations
+
+from typing import Callable, Dict, Mapping, Optional, Sequence, Union
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from ..validation import SeawayInputError, as_float_array
+from .layer import gdal, osr, require_gdal
+from .timeaxis import as_utc_seconds
+from .variables import CF_STANDARD_NAMES, canonical_kind
+
+ArrayOrStep = Union[ArrayLike, Callable[[int], ArrayLike]]
+
+_GRIB_CODES = {  # canonical -> (category, number, level type, level value)
+    "hs": (0, 3, 1, 0), "dir": (0, 10, 1, 0), "tp": (0, 34, 1, 0), "tm01": (0, 15, 1, 0),
+    "tm02": (0, 28, 1, 0), "tm10": (0, 25, 1, 0),
+    "wind_hs": (0, 5, 1, 0), "wind_tp": (0, 35, 1, 0), "wind_dir": (0, 4, 1, 0),
+}
+for _k in (1, 2, 3):
+    _GRIB_CODES.update({f"swell{_k}_hs": (0, 8, 241, _k), f"swell{_k}_tp": (0, 9, 241, _k),
+                        f"swell{_k}_dir": (0, 7, 241, _k)})
+GRIB_PERPW_CODE = (0, 11, 1, 0)
+
+
+def _wgs84_wkt() -> str:
+    srs = osr.SpatialReference()
+    srs.ImportFromEPSG(4326)
+    return srs.ExportToWkt()
+
+
+def _regular(name: str, v: np.ndarray) -> float:
+    if v.ndim != 1 or v.size < 2:
+        raise SeawayInputError(f"{name} must be a 1-D array of at least 2 values, got shape {v.shape}")
+    d = np.diff(v)
+    if not np.allclose(d, d[0], rtol=1e-6, atol=1e-9) or d[0] == 0:
+        raise SeawayInputError(f"{name} must be regularly spaced, got steps {d[:5]}...")
+    return float(d[0])
+
+
+def _attr(obj, name: str, value) -> None:  # type: ignore[no-untyped-def]
+    if isinstance(value, str):
+        a = obj.CreateAttribute(name, [], gdal.ExtendedDataType.CreateString())
+    else:
+        a = obj.CreateAttribute(name, [], gdal.ExtendedDataType.Create(gdal.GDT_Float64))
+    a.Write(value)
+
+
+def write_cf_netcdf(
+    path: str,
+    lon_deg: ArrayLike,
+    lat_deg: ArrayLike,
+    times_utc: Sequence,
+    variables: Mapping[str, ArrayOrStep],
+    *,
+    var_names: Optional[Mapping[str, str]] = None,
+    units: Optional[Mapping[str, str]] = None,
+    fill_value: float = -9999.0,
+    lon_0_360: bool = False,
+    scale_factor: Optional[Union[float, Mapping[str, float]]] = None,
+    add_offset: Union[float, Mapping[str, float]] = 0.0,
+    time_units: str = "hours since 1970-01-01 00:00:00",
+    calendar: str = "standard",
+    extra_attributes: Optional[Mapping[str, Mapping[str, str]]] = None,
+) -> str:
+    """Write a CF NetCDF file of (time, lat, lon) variables keyed by CF standard name.
+
+    ``variables[std_name]`` is an array (nt, ny, nx) in the order of ``lat_deg``/``lon_deg`` or a
+    function of the time index returning (ny, nx) (to write large files step by step). NaN is
+    written as ``fill_value``. ``lon_0_360`` stores longitudes modulo 360, re-ordered to increase.
+    ``scale_factor`` packs to Int16 with ``add_offset`` (fill -32767). Keys of ``variables`` that are
+    not CF standard names are written without a standard_name (use ``var_names`` to name them).
+    """
+    require_gdal()
+    lon = as_float_array("lon_deg", lon_deg).ravel()
+    lat = as_float_array("lat_deg", lat_deg).ravel()
+    t_s = as_utc_seconds("times_utc", times_utc)
+    order = np.arange(lon.size)
+    if lon_0_360:
+        lon = np.mod(lon, 360.0)
+        order = np.argsort(lon, kind="stable")
+        lon = lon[order]
+    _regular("lon_deg", lon)
+    _regular("lat_deg", lat)
+    unit_word, _, ref = time_units.partition(" since ")
+    factor = {"seconds": 1, "minutes": 60, "hours": 3600, "days": 86400}.get(unit_word.strip())
+    if factor is None:
+        raise SeawayInputError(f"time_units {time_units!r} must be seconds/minutes/hours/days since ...")
+    ref_s = as_utc_seconds("time_units reference", ref.strip().replace(" ", "T", 1))[0]
+    tvals = (t_s - ref_s) / factor
+
+    drv = gdal.GetDriverByName("netCDF")
+    ds = drv.CreateMultiDimensional(path)
+    rg = ds.GetRootGroup()
+    nt, ny, nx = t_s.size, lat.size, lon.size
+    dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, nt)
+    dy = rg.CreateDimension("lat", gdal.DIM_TYPE_HORIZONTAL_Y, None, ny)
+    dx = rg.CreateDimension("lon", gdal.DIM_TYPE_HORIZONTAL_X, None, nx)
+    f64 = gdal.ExtendedDataType.Create(gdal.GDT_Float64)
+    tv = rg.CreateMDArray("time", [dt], f64)
+    tv.Write(np.asarray(tvals, dtype=np.float64))
+    _attr(tv, "units", time_units)
+    _attr(tv, "calendar", calendar)
+    _attr(tv, "standard_name", "time")
+    _attr(tv, "axis", "T")
+    yv = rg.CreateMDArray("lat", [dy], f64)
+    yv.Write(lat)
+    _attr(yv, "units", "degrees_north")
+    _attr(yv, "standard_name", "latitude")
+    xv = rg.CreateMDArray("lon", [dx], f64)
+    xv.Write(lon)
+    _attr(xv, "units", "degrees_east")
+    _attr(xv, "standard_name", "longitude")
+    crs = rg.CreateMDArray("crs", [], gdal.ExtendedDataType.Create(gdal.GDT_Int32))
+    _attr(crs, "grid_mapping_name", "latitude_longitude")
+    _attr(crs, "crs_wkt", _wgs84_wkt())
+    for std, data in variables.items():
+        name = (var_names or {}).get(std) or (
+            CF_STANDARD_NAMES[std].canonical if std in CF_STANDARD_NAMES else std)
+        sf = scale_factor.get(std) if isinstance(scale_factor, Mapping) else scale_factor
+        ao = add_offset.get(std, 0.0) if isinstance(add_offset, Mapping) else add_offset
+        if sf is not None:
+            v = rg.CreateMDArray(name, [dt, dy, dx], gdal.ExtendedDataType.Create(gdal.GDT_Int16))
+            fill = -32767.0
+        else:
+            v = rg.CreateMDArray(name, [dt, dy, dx], gdal.ExtendedDataType.Create(gdal.GDT_Float32))
+            fill = float(fill_value)
+        if std in CF_STANDARD_NAMES:
+            _attr(v, "standard_name", std)
+        u = (units or {}).get(std)
+        if u is None and std in CF_STANDARD_NAMES:
+            u = {"height": "m", "period": "s", "direction": "degree"}[
+                canonical_kind(CF_STANDARD_NAMES[std].canonical)]
+        if u is not None:
+            _attr(v, "units", u)
+        _attr(v, "grid_mapping", "crs")
+        for k, val in ((extra_attributes or {}).get(std) or {}).items():
+            _attr(v, k, val)
+        v.SetNoDataValueDouble(fill)
+        if sf is not None:
+            v.SetScale(float(sf))
+            v.SetOffset(float(ao))
+        for i in range(nt):
+            step = data(i) if callable(data) else np.asarray(data, dtype=float)[i]
+            step = np.asarray(step, dtype=float)
+            if step.shape != (ny, nx):
+                raise SeawayInputError(
+                    f"variables[{std!r}] step {i} has shape {step.shape}, expected ({ny}, {nx})"
+                )
+            step = step[:, order]
+            if sf is not None:
+                packed = np.rint((step - ao) / sf)
+                packed = np.where(np.isfinite(packed), np.clip(packed, -32766, 32767), fill)
+                out = packed.astype(np.int16)
+            else:
+                out = np.where(np.isfinite(step), step, fill).astype(np.float32)
+            v.WriteArray(np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
+        del v
+    del rg, ds
+    return path
+
+
+def _mem_dataset(lon: np.ndarray, lat: np.ndarray, nbands: int, wkt: str, gdt: int = 0):  # type: ignore[no-untyped-def]
+    dx = _regular("lon_deg", lon)
+    dy = _regular("lat_deg", lat)
+    mem = gdal.GetDriverByName("MEM").Create("", lon.size, lat.size, nbands, gdt or gdal.GDT_Float64)
+    mem.SetProjection(wkt)
+    mem.SetGeoTransform([lon[0] - dx / 2.0, dx, 0.0, lat[0] - dy / 2.0, 0.0, dy])
+    return mem
+
+
+def write_grib2(
+    path: str,
+    lon_deg: ArrayLike,
+    lat_deg: ArrayLike,
+    times_utc: Sequence,
+    variables: Mapping[str, ArrayLike],
+    *,
+    ref_time_utc: Optional[object] = None,
+    decimal_scale_factor: int = 2,
+    use_perpw_for_tp: bool = False,
+) -> str:
+    """Write GRIB2 (discipline 10) with one message per canonical variable and time.
+
+    ``variables[canonical]`` is (nt, ny, nx) in the order of ``lat_deg``/``lon_deg``. Forecast
+    hours are counted from ``ref_time_utc`` (default: the first time). ``use_perpw_for_tp``
+    writes ``tp`` as PERPW (10/0/11) instead of PWPER (10/0/34).
+    """
+    require_gdal()
+    lon = as_float_array("lon_deg", lon_deg).ravel()
+    lat = as_float_array("lat_deg", lat_deg).ravel()
+    t_s = as_utc_seconds("times_utc", times_utc)
+    ref_s = t_s[0] if ref_time_utc is None else as_utc_seconds("ref_time_utc", ref_time_utc)[0]
+    hours = (t_s - ref_s) / 3600.0
+    if np.any(hours < 0) or not np.allclose(hours, np.rint(hours)):
+        raise SeawayInputError(f"times_utc must be whole hours at or after ref_time_utc, got {hours}")
+    flip = lat[0] < lat[-1]
+    lat_w = lat[::-1] if flip else lat
+    names = list(variables)
+    nb = len(names) * t_s.size
+    mem = _mem_dataset(lon, lat_w, nb, _wgs84_wkt())
+    ref_text = str(np.datetime64(int(ref_s), "s"))
+    opts = [
+        "DISCIPLINE=10",
+        f"IDS=CENTER=255 SUBCENTER=0 MASTER_TABLE=2 LOCAL_TABLE=0 SIGNF_REF_TIME=1 "
+        f"REF_TIME={ref_text}Z PROD_STATUS=0 TYPE=1",
+        "PDS_PDTN=0", "DATA_ENCODING=SIMPLE_PACKING",
+        f"DECIMAL_SCALE_FACTOR={int(decimal_scale_factor)}", "INPUT_UNIT=K",
+    ]
+    b = 0
+    for name in names:
+        if name not in _GRIB_CODES:
+            raise SeawayInputError(f"write_grib2: no GRIB2 code for variable {name!r}; known: {', '.join(_GRIB_CODES)}")
+        cat, num, ltype, lval = GRIB_PERPW_CODE if (name == "tp" and use_perpw_for_tp) else _GRIB_CODES[name]
+        data = np.asarray(variables[name], dtype=float)
+        if data.shape != (t_s.size, lat.size, lon.size):
+            raise SeawayInputError(f"variables[{name!r}] has shape {data.shape}, expected "
+                                   f"({t_s.size}, {lat.size}, {lon.size})")
+        for i in range(t_s.size):
+            b += 1
+            arr = data[i][::-1] if flip else data[i]
+            mem.GetRasterBand(b).WriteArray(arr)
+            opts.append(f"BAND_{b}_PDS_TEMPLATE_ASSEMBLED_VALUES={cat} {num} 2 0 0 0 0 1 "
+                        f"{int(round(hours[i]))} {ltype} 0 {lval} 255 0 0")
+    gdal.GetDriverByName("GRIB").CreateCopy(path, mem, options=opts)
+    return path
+
+
+def write_geotiff_stack(
+    path: str,
+    x: ArrayLike,
+    y: ArrayLike,
+    times_utc: Optional[Sequence],
+    values: ArrayLike,
+    *,
+    variable: str,
+    units: str = "",
+    nodata: float = -9999.0,
+    crs: str = "EPSG:4326",
+    write_times: bool = True,
+) -> str:
+    """Write a GeoTIFF stack (nt, ny, nx): band i = time i, description = ISO UTC time.
+
+    ``variable`` is a canonical name (written as its CF ``standard_name`` metadata when one
+    exists) or a CF standard name. ``x``/``y`` are cell-centre coordinates in ``crs``.
+    """
+    require_gdal()
+    xs = as_float_array("x", x).ravel()
+    ys = as_float_array("y", y).ravel()
+    data = np.asarray(values, dtype=float)
+    if data.ndim == 2:
+        data = data[None]
+    if data.shape[1:] != (ys.size, xs.size):
+        raise SeawayInputError(f"values has shape {data.shape}, expected (nt, {ys.size}, {xs.size})")
+    srs = osr.SpatialReference()
+    srs.SetFromUserInput(crs)
+    mem = _mem_dataset(xs, ys, data.shape[0], srs.ExportToWkt(), gdal.GDT_Float32)
+    if variable in CF_STANDARD_NAMES:
+        std = variable
+    else:
+        canonical_kind(variable)
+        std = next((k for k, v in CF_STANDARD_NAMES.items() if v.canonical == variable and v.priority == 0
+                    and not v.going_to), "")
+    if std:
+        mem.SetMetadataItem("standard_name", std)
+    if units:
+        mem.SetMetadataItem("units", units)
+    t_s = as_utc_seconds("times_utc", times_utc) if times_utc is not None else None
+    if t_s is not None and t_s.size != data.shape[0]:
+        raise SeawayInputError(f"times_utc has {t_s.size} entries, values has {data.shape[0]} steps")
+    for i in range(data.shape[0]):
+        band = mem.GetRasterBand(i + 1)
+        band.WriteArray(np.where(np.isfinite(data[i]), data[i], nodata).astype(np.float32))
+        band.SetNoDataValue(float(nodata))
+        if units:
+            band.SetUnitType(units)
+        if write_times and t_s is not None:
+            band.SetDescription(f"{np.datetime64(int(t_s[i]), 's')}Z")
+    gdal.GetDriverByName("GTiff").CreateCopy(path, mem)
+    return path
+
+
+def write_bathymetry_geotiff(
+    path: str,
+    lon_deg: ArrayLike,
+    lat_deg: ArrayLike,
+    values: ArrayLike,
+    *,
+    convention: str,
+    nodata: Optional[float] = None,
+    write_positive: bool = False,
+    units: str = "m",
+) -> str:
+    """Write a bathymetry GeoTIFF of depths (``depth_positive_down``) or elevations
+    (``elevation_positive_up``); ``write_positive`` adds the CF-style ``positive`` metadata item."""
+    require_gdal()
+    if convention not in ("depth_positive_down", "elevation_positive_up"):
+        raise SeawayInputError(f"convention must be depth_positive_down or elevation_positive_up, got {convention!r}")
+    lon = as_float_array("lon_deg", lon_deg).ravel()
+    lat = as_float_array("lat_deg", lat_deg).ravel()
+    data = np.asarray(values, dtype=float)
+    mem = _mem_dataset(lon, lat, 1, _wgs84_wkt(), gdal.GDT_Float32)
+    band = mem.GetRasterBand(1)
+    out = data if nodata is None else np.where(np.isfinite(data), data, nodata)
+    band.WriteArray(out.astype(np.float32))
+    if nodata is not None:
+        band.SetNoDataValue(float(nodata))
+    band.SetUnitType(units)
+    if write_positive:
+        mem.SetMetadataItem("positive", "down" if convention == "depth_positive_down" else "up")
+    gdal.GetDriverByName("GTiff").CreateCopy(path, mem)
+    return path
