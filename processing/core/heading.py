@@ -22,7 +22,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Optional
+from typing import Optional, Tuple
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -40,6 +40,18 @@ __all__ = [
     "encounter_period",
     "imo_angle_of_encounter_deg",
 ]
+
+
+def _angles(course_deg: ArrayLike, wave_from_deg: ArrayLike) -> Tuple[FloatArray, FloatArray]:
+    course = as_float_array("course_deg", course_deg)
+    wave_from = as_float_array("wave_from_deg", wave_from_deg)
+    try:
+        np.broadcast_shapes(course.shape, wave_from.shape)
+    except ValueError as exc:
+        raise SeawayInputError(
+            f"course_deg {course.shape} and wave_from_deg {wave_from.shape} do not broadcast"
+        ) from exc
+    return course, wave_from
 
 
 def cos_deg(angle_deg: ArrayLike) -> FloatArray:
@@ -62,8 +74,7 @@ def relative_heading_deg(course_deg: ArrayLike, wave_from_deg: ArrayLike) -> Flo
     course_deg : course/heading the vessel goes TO [deg true], finite.
     wave_from_deg : direction the waves come FROM [deg true], finite. Broadcasts with course.
     """
-    course = as_float_array("course_deg", course_deg)
-    wave_from = as_float_array("wave_from_deg", wave_from_deg)
+    course, wave_from = _angles(course_deg, wave_from_deg)
     return wrap_deg(wave_from + 180.0 - course)
 
 
@@ -82,8 +93,7 @@ def imo_angle_of_encounter_deg(course_deg: ArrayLike, wave_from_deg: ArrayLike) 
     alpha = (wave_from - course) mod 360: 0 = head sea, 90 = sea from starboard,
     180 = following sea. Related to the ITTC heading by alpha = (mu + 180) mod 360.
     """
-    course = as_float_array("course_deg", course_deg)
-    wave_from = as_float_array("wave_from_deg", wave_from_deg)
+    course, wave_from = _angles(course_deg, wave_from_deg)
     return wrap_deg(wave_from - course)
 
 
@@ -109,6 +119,13 @@ def encounter_frequency_rad_s(
     k = require_positive("k_rad_m", k_rad_m)
     speed = require_nonnegative("speed_m_s", speed_m_s)
     c = cos_deg(as_float_array("rel_heading_deg", rel_heading_deg))
+    try:
+        np.broadcast_shapes(omega.shape, k.shape, speed.shape, c.shape)
+    except ValueError as exc:
+        raise SeawayInputError(
+            f"omega_rad_s {omega.shape}, k_rad_m {k.shape}, speed_m_s {speed.shape} and "
+            f"rel_heading_deg {c.shape} do not broadcast"
+        ) from exc
     return np.asarray(omega - k * speed * c, dtype=float)
 
 

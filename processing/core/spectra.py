@@ -207,7 +207,12 @@ def dnv_default_gamma(hs_m: ArrayLike, tp_s: ArrayLike) -> FloatArray:
     """
     hs = require_nonnegative("hs_m", hs_m)
     tp = require_positive("tp_s", tp_s)
-    hs, tp = np.broadcast_arrays(hs, tp)
+    try:
+        hs, tp = np.broadcast_arrays(hs, tp)
+    except ValueError as exc:
+        raise SeawayInputError(
+            f"hs_m {hs.shape} and tp_s {tp.shape} do not broadcast"
+        ) from exc
     with np.errstate(divide="ignore"):
         r = np.where(hs > 0, tp / np.sqrt(np.where(hs > 0, hs, 1.0)), np.inf)
     mid = np.exp(5.75 - 1.15 * np.where(np.isfinite(r), r, 5.0))
@@ -288,6 +293,12 @@ def cos2s_spreading_per_rad(theta_rel_rad: ArrayLike, s: ArrayLike) -> FloatArra
     """
     theta = as_float_array("theta_rel_rad", theta_rel_rad)
     sv = require_nonnegative("s", s)
+    try:
+        np.broadcast_shapes(theta.shape, sv.shape)
+    except ValueError as exc:
+        raise SeawayInputError(
+            f"theta_rel_rad {theta.shape} and s {sv.shape} do not broadcast"
+        ) from exc
     c2 = np.clip(0.5 * (1.0 + np.cos(theta)), 0.0, 1.0)
     with np.errstate(divide="ignore"):
         d = _cos2s_constant(sv) * np.where(sv == 0, 1.0, c2**sv)

@@ -208,3 +208,9 @@ def test_heading_bad_input() -> None:
         encounter_frequency_rad_s(1.0, 0.0, 1.0, 0.0)
     with pytest.raises(SeawayInputError, match="speed_m_s"):
         encounter_frequency_rad_s(1.0, 0.1, -1.0, 0.0)
+    with pytest.raises(SeawayInputError, match="broadcast"):
+        relative_heading_deg(np.zeros(2), np.zeros(3))
+    with pytest.raises(SeawayInputError, match="broadcast"):
+        imo_angle_of_encounter_deg(np.zeros(2), np.zeros(3))
+    with pytest.raises(SeawayInputError, match="broadcast"):
+        encounter_frequency_rad_s(np.ones(2), np.ones(3), 1.0, 0.0)

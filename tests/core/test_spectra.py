@@ -240,6 +240,16 @@ def test_dnv_default_gamma(hs: float, tp: float, gam: float) -> None:
     assert float(dnv_default_gamma(hs, tp)) == pytest.approx(gam, rel=1e-14)
 
 
+def test_dnv_default_gamma_bad_input() -> None:
+    """Negative Hs, non-positive Tp and non-broadcastable shapes are rejected."""
+    with pytest.raises(SeawayInputError, match="hs_m"):
+        dnv_default_gamma(-1.0, 8.0)
+    with pytest.raises(SeawayInputError, match="tp_s"):
+        dnv_default_gamma(1.0, 0.0)
+    with pytest.raises(SeawayInputError, match="broadcast"):
+        dnv_default_gamma(np.ones(2), np.ones(3))
+
+
 @pytest.mark.parametrize("hs, hm0", [(4.0, 4.0042), (6.0, 6.0000)])
 def test_dnv_rule_spectrum_hm0_mhkit(hs: float, hm0: float) -> None:
     """Hm0 of the A_gamma-normalised JONSWAP with the DNV gamma rule, Tp 8 s: [mhkit-B]
@@ -357,6 +367,16 @@ def test_cos2s_large_s_and_periodicity() -> None:
     np.testing.assert_allclose(cos2s_spreading_per_rad(th + 2 * math.pi, 3.0), cos2s_spreading_per_rad(th, 3.0), rtol=1e-12)
     np.testing.assert_allclose(cos2s_spreading_per_rad(-th, 3.0), cos2s_spreading_per_rad(th, 3.0), rtol=1e-14)
     np.testing.assert_allclose(cos2s_spreading_per_rad(th, 0.0), 1 / (2 * math.pi), rtol=1e-15)
+
+
+def test_cos2s_bad_input() -> None:
+    """Negative or NaN s, NaN theta and non-broadcastable shapes are rejected."""
+    with pytest.raises(SeawayInputError, match="s must be >= 0"):
+        cos2s_spreading_per_rad(0.0, -1.0)
+    with pytest.raises(SeawayInputError, match="theta_rel_rad"):
+        cos2s_spreading_per_rad(np.nan, 2.0)
+    with pytest.raises(SeawayInputError, match="broadcast"):
+        cos2s_spreading_per_rad(np.zeros(2), np.ones(3))
 
 
 def test_spread_s_from_sigma() -> None:
