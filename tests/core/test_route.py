@@ -119,6 +119,16 @@ def test_karney_nearly_antipodal_inverse_example() -> None:
     assert _max_gap_m(r) <= 500 * NM * (1 + 1e-12)
 
 
+def test_karney_short_line_example() -> None:
+    """[Karney2013] Inverse(-30.12345, 0, -30.12344, 0.00005): s12 4.944208 m; azimuths
+    77.043533541 (departure) and 77.043508448 (arrival) [GLIB]/[B]."""
+    r = densify_route([0.0, 0.00005], [-30.12345, -30.12344], 1.0)
+    assert r.n == 2
+    assert r.dist_m[-1] == pytest.approx(4.944208, abs=0.5e-6)
+    assert r.course_deg[0] == pytest.approx(77.043533541, abs=0.5e-9)
+    assert r.course_deg[-1] == pytest.approx(77.043508448, abs=0.5e-9)
+
+
 @pytest.mark.parametrize("lat", [0.0, 60.0, -45.0])
 def test_antimeridian_route(lat: float) -> None:
     """179.5E -> 179.5W takes the 1-degree crossing of the antimeridian (not the 359-degree way);
