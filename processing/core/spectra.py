@@ -26,7 +26,7 @@ from dataclasses import dataclass
 from typing import Optional
 
 import numpy as np
-from numpy.typing import ArrayLike
+from numpy.typing import ArrayLike, NDArray
 from scipy.special import gammaln
 
 from .numerics import trapezoid_weights
@@ -438,22 +438,25 @@ def significant_wave_height_m(
     return 4.0 * np.sqrt(spectral_moment(s_m2_s_rad, omega_rad_s, 0, weights))
 
 
-def _period_ratio(
-    num: FloatArray, den: FloatArray, name: str, zero_energy_period_s: Optional[float]
-) -> FloatArray:
-    """num/den where den > 0; elsewhere the explicit fill value or an error."""
-    zero = ~(den > 0)
-    if zero.any():
-        if zero_energy_period_s is None:
-            idx = int(np.flatnonzero(zero.ravel())[0])
-            raise SeawayInputError(
-                f"{name} is undefined for a spectrum with no energy (first at flat index {idx}); "
-                "mask calm sea states or pass zero_energy_period_s explicitly"
-            )
-    out = np.where(zero, 0.0, num / np.where(zero, 1.0, den))
-    if zero.any():
-        out = np.where(zero, float(zero_energy_period_s), out)  # type: ignore[arg-type]
-    return np.asarray(out, dtype=float)
+def _calm_mask(m0: FloatArray, mk: FloatArray, name: str, fill: Optional[float]) -> NDArray[np.bool_]:
+    """Mask of spectra whose period is undefined (m0 or the other moment is 0).
+
+    Raises SeawayInputError if there are any and no explicit ``fill`` was given.
+    """
+    calm = ~((m0 > 0) & (mk > 0))
+    if calm.any() and fill is None:
+        idx = int(np.flatnonzero(calm.ravel())[0])
+        raise SeawayInputError(
+            f"{name} is undefined for a spectrum with no energy (first at flat index {idx}); "
+            "mask calm sea states or pass zero_energy_period_s explicitly"
+        )
+    return calm
+
+
+def _fill(calm: NDArray[np.bool_], value: FloatArray, fill: Optional[float]) -> FloatArray:
+    if calm.any():
+        value = np.where(calm, float(fill), value)  # type: ignore[arg-type]
+    return np.asarray(value, dtype=float)
 
 
 def tm01_s(
@@ -470,7 +473,8 @@ def tm01_s(
     """
     m0 = spectral_moment(s_m2_s_rad, omega_rad_s, 0, weights)
     m1 = spectral_moment(s_m2_s_rad, omega_rad_s, 1, weights)
-    return _period_ratio(2.0 * math.pi * m0, m1, "tm01_s", zero_energy_period_s)
+    calm = _calm_mask(m0, m1, "tm01_s", zero_energy_period_s)
+    return _fill(calm, 2.0 * math.pi * m0 / np.where(calm, 1.0, m1), zero_energy_period_s)
 
 
 def tm02_s(
@@ -486,11 +490,8 @@ def tm02_s(
     """
     m0 = spectral_moment(s_m2_s_rad, omega_rad_s, 0, weights)
     m2 = spectral_moment(s_m2_s_rad, omega_rad_s, 2, weights)
-    ratio = _period_ratio(m0, m2, "tm02_s", -1.0 if zero_energy_period_s is not None else None)
-    out = 2.0 * math.pi * np.sqrt(np.maximum(ratio, 0.0))
-    if zero_energy_period_s is not None:
-        out = np.where(ratio < 0, float(zero_energy_period_s), out)
-    return np.asarray(out, dtype=float)
+    calm = _calm_mask(m0, m2, "tm02_s", zero_energy_period_s)
+    return _fill(calm, 2.0 * math.pi * np.sqrt(m0 / np.where(calm, 1.0, m2)), zero_energy_period_s)
 
 
 def tm_minus10_s(
@@ -509,4 +510,5 @@ def tm_minus10_s(
     """
     m0 = spectral_moment(s_m2_s_rad, omega_rad_s, 0, weights)
     mm1 = spectral_moment(s_m2_s_rad, omega_rad_s, -1, weights)
-    return _period_ratio(2.0 * math.pi * mm1, m0, "tm_minus10_s", zero_energy_period_s)
+    calm = _calm_mask(m0, mm1, "tm_minus10_s", zero_energy_period_s)
+    return _fill(calm, 2.0 * math.pi * mm1 / np.where(calm, 1.0, m0), zero_energy_period_s)
