@@ -68,6 +68,13 @@ def _same_grid(a: VariableLayer, b: VariableLayer) -> bool:
         ga.geotransform, gb.geotransform, rtol=0, atol=1e-9)
 
 
+def _file_of(gdal_name: str) -> str:
+    """Plain file path of a GDAL dataset name (strips NETCDF:"...":var)."""
+    if gdal_name.upper().startswith("NETCDF:"):
+        return gdal_name.split(":", 1)[1].rsplit(":", 1)[0].strip('"')
+    return gdal_name
+
+
 def _merge(layers_in_order: List[VariableLayer], warnings: List[str]) -> Dict[str, VariableLayer]:
     """One layer per canonical variable: first file wins; same-grid files extend the time axis."""
     chosen: Dict[str, VariableLayer] = {}
@@ -90,9 +97,10 @@ def _merge(layers_in_order: List[VariableLayer], warnings: List[str]) -> Dict[st
             t_old = set(int(t) for t in old.times_s)
             dup = [t for t in layer.times_s if int(t) in t_old]
             if dup:
+                holder = _file_of(old.bands[int(np.flatnonzero(old.times_s == dup[0])[0])][0])
                 warnings.append(
-                    f"{c!r}: {layer.file} repeats {len(dup)} time(s) of {old.file} (first "
-                    f"{np.datetime64(int(dup[0]), 's')}Z); {old.file} is used for those"
+                    f"{c!r}: {layer.file} repeats {len(dup)} time(s) already read (first "
+                    f"{np.datetime64(int(dup[0]), 's')}Z from {holder}); {holder} is used"
                 )
             entries = list(zip(old.times_s.tolist(), old.bands))
             entries += [(int(t), b) for t, b in zip(layer.times_s.tolist(), layer.bands) if int(t) not in t_old]
