@@ -11,7 +11,7 @@ cd "$here"
 APT_PACKAGES=(qgis python3-qgis qgis-providers python3-gdal gdal-bin python3-numpy python3-scipy
               python3-pyproj python3-shapely python3-matplotlib python3-pytest python3-venv
               python3-pip pyqt5-dev-tools qttools5-dev-tools xvfb xauth)
-VENV_PACKAGES=("pytest-qgis==5.0.2" "hypothesis>=6.50" "geographiclib>=2.0")
+VENV_PACKAGES=("pytest-qgis==5.0.2" "hypothesis>=6.50" "geographiclib>=2.0" "distributed>=2023.1")
 
 if [ "$(id -u)" -eq 0 ]; then SUDO=(); elif command -v sudo >/dev/null 2>&1; then SUDO=(sudo); else SUDO=(); fi
 
