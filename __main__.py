@@ -3,6 +3,7 @@
 
 Commands:
   demo       build the invented demo scenario and run the route-comfort algorithm on it
+  seasonal   seasonal comfort climate along a route from years of hindcast
 """
 from __future__ import annotations
 
@@ -11,6 +12,7 @@ from typing import List, Optional
 
 COMMANDS = {
     "demo": "build the invented demo scenario and run the passage-comfort algorithm on it",
+    "seasonal": "seasonal comfort climate along a route from years of hindcast (no QGIS needed)",
 }
 
 
@@ -26,6 +28,10 @@ def main(argv: Optional[List[str]] = None) -> int:
         from .processing.demo_runner import main as demo_main
 
         return int(demo_main(rest))
+    if command == "seasonal":
+        from .processing.core.climate.cli import main as seasonal_main
+
+        return int(seasonal_main(rest))
     return 2
 
 
