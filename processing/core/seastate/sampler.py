@@ -123,7 +123,8 @@ def sample_layer(
     rr = np.clip(rr, 0, g.ny - 1)
 
     mc, mr = _margins(layer, lat_deg[act], land_search_km)
-    win = read_window_for(g, cc[ok], rr[ok], mc, mr)
+    used = ok & (ww > 0)  # at least the nearest centre of every sample has weight >= 1/4
+    win = read_window_for(g, cc[used], rr[used], mc, mr)
     wt = w[act]
     need0 = wt < 1.0
     need1 = wt > 0.0
@@ -134,8 +135,10 @@ def sample_layer(
     s1 = np.searchsorted(steps, s1g)
     s0 = np.minimum(s0, steps.size - 1)
     s1 = np.minimum(s1, steps.size - 1)
-    lc = win.local_col(cc, g.nx)
-    lr = win.local_row(rr)
+    # corners with zero weight may lie outside the window: clip their indices, they are masked below
+    lc = np.clip(win.local_col(cc, g.nx), 0, win.ncols - 1)
+    lr = np.clip(win.local_row(rr), 0, win.nrows - 1)
+    ww = np.where(used, ww, 0.0)
     v0 = cube[s0[:, None], lr, lc]
     v1 = cube[s1[:, None], lr, lc]
     ok0 = np.isfinite(v0) & (ww > 0)
