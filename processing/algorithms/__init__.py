@@ -7,4 +7,7 @@ from __future__ import annotations
 
 from typing import Tuple
 
-ALGORITHM_CLASSES: Tuple[type, ...] = ()
+from .describe_sea_state import DescribeSeaStateAlgorithm
+from .route_comfort import RouteComfortAlgorithm
+
+ALGORITHM_CLASSES: Tuple[type, ...] = (RouteComfortAlgorithm, DescribeSeaStateAlgorithm)

@@ -1,0 +1,307 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""QGIS <-> core conversions: route layers to lon/lat arrays, QDateTime <-> datetime64, results
+to features. No formulas here; the numbers come from :mod:`.core.passage`."""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Any, Iterator, List, Optional, Sequence
+
+import numpy as np
+from qgis.core import (
+    Qgis,
+    QgsCoordinateReferenceSystem,
+    QgsCoordinateTransform,
+    QgsCsException,
+    QgsFeature,
+    QgsField,
+    QgsFields,
+    QgsGeometry,
+    QgsPointXY,
+    QgsProcessingException,
+    QgsWkbTypes,
+)
+from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime, QVariant
+
+from .core.flags import flag_codes_array
+from .core.passage import NOT_COMPUTED_CLASS, PassageResult
+
+WGS84 = "EPSG:4326"
+
+# ------------------------------------------------------------------------------- date-times
+
+
+def qdatetime_from_datetime64(t: Any) -> QDateTime:
+    """A UTC QDateTime (Qt.TimeSpec.UTC) from a numpy datetime64 (ms precision)."""
+    ms = int(np.datetime64(t, "ms").astype(np.int64))
+    q = QDateTime.fromMSecsSinceEpoch(ms, Qt.TimeSpec.UTC)
+    q.setTimeSpec(Qt.TimeSpec.UTC)
+    return q
+
+
+def datetime64_from_qdatetime(q: QDateTime, *, assume_utc: bool = True) -> np.datetime64:
+    """numpy datetime64[ms] (UTC) from a QDateTime.
+
+    A QDateTime with local time spec (what QGIS gives for a text without zone) is read as UTC
+    wall-clock time when ``assume_utc`` (the parameter says UTC), else converted from local time.
+    """
+    if q is None or not q.isValid():
+        raise QgsProcessingException(f"invalid date-time {q!r}")
+    if q.timeSpec() == Qt.TimeSpec.LocalTime and assume_utc:
+        q = QDateTime(q.date(), q.time(), Qt.TimeSpec.UTC)
+    return np.datetime64(int(q.toMSecsSinceEpoch()), "ms")
+
+
+def datetime64_from_value(value: Any, *, what: str) -> Optional[np.datetime64]:
+    """A UTC datetime64 from an attribute value (QDateTime, QDate, ISO text); None when NULL."""
+    from .core.passage import as_utc_datetime64
+    from .core.validation import SeawayInputError
+
+    if value is None or (isinstance(value, QVariant) and value.isNull()):
+        return None
+    if isinstance(value, QDateTime):
+        return datetime64_from_qdatetime(value) if value.isValid() else None
+    if isinstance(value, QDate):
+        return datetime64_from_qdatetime(QDateTime(value, QTime(0, 0), Qt.TimeSpec.UTC)) if value.isValid() else None
+    text = str(value).strip()
+    if not text or text.upper() == "NULL":
+        return None
+    try:
+        return as_utc_datetime64(what, text)
+    except SeawayInputError as exc:
+        raise QgsProcessingException(str(exc)) from exc
+
+
+# ------------------------------------------------------------------------------- route legs
+
+
+@dataclass(frozen=True)
+class RouteLeg:
+    """One part of one route feature, in WGS84 degrees."""
+
+    feature_id: int
+    part: int
+    name: str
+    lon_deg: np.ndarray
+    lat_deg: np.ndarray
+    departure_utc: Optional[np.datetime64]
+    speed_kn: Optional[float]
+
+
+def _field_index(fields: QgsFields, name: str) -> int:
+    for i in range(fields.count()):
+        if fields.at(i).name().lower() == name.lower():
+            return i
+    return -1
+
+
+def _looks_like_degrees(xs: Sequence[float], ys: Sequence[float]) -> bool:
+    return all(abs(x) <= 360.0 for x in xs) and all(abs(y) <= 90.0 for y in ys)
+
+
+def route_legs(
+    source: Any,
+    context: Any,
+    *,
+    feedback: Any = None,
+    name_field: str = "name",
+    depart_field: str = "depart_utc",
+    speed_field: str = "speed_kn",
+) -> List[RouteLeg]:
+    """Every part of every line feature as a leg, transformed to EPSG:4326.
+
+    Raises QgsProcessingException for an empty layer, a missing/invalid CRS, coordinates that
+    do not fit the layer's CRS (degrees vs metres), or a leg without length.
+    """
+    if source is None:
+        raise QgsProcessingException("ROUTE: the route layer could not be read")
+    crs = source.sourceCrs()
+    if not crs.isValid():
+        raise QgsProcessingException("ROUTE: the route layer has no valid CRS: set its CRS (e.g. EPSG:4326) and retry")
+    if source.featureCount() == 0:
+        raise QgsProcessingException("ROUTE: the route layer has no features: draw at least one line")
+    dest = QgsCoordinateReferenceSystem(WGS84)
+    xform = QgsCoordinateTransform(crs, dest, context.transformContext())
+    fields = source.fields()
+    i_name = _field_index(fields, name_field)
+    i_dep = _field_index(fields, depart_field)
+    i_speed = _field_index(fields, speed_field)
+    legs: List[RouteLeg] = []
+    for feat in source.getFeatures():
+        if feedback is not None and feedback.isCanceled():
+            break
+        geom = feat.geometry()
+        fid = int(feat.id())
+        label = str(feat[i_name]) if i_name >= 0 and feat[i_name] not in (None, "") and not (
+            isinstance(feat[i_name], QVariant) and feat[i_name].isNull()) else f"route {fid}"
+        if geom is None or geom.isEmpty():
+            raise QgsProcessingException(f"ROUTE: feature {label!r} has no geometry: delete it or draw its line")
+        if QgsWkbTypes.geometryType(geom.wkbType()) != QgsWkbTypes.GeometryType.LineGeometry:
+            raise QgsProcessingException(f"ROUTE: feature {label!r} is not a line")
+        parts = geom.asMultiPolyline() if geom.isMultipart() else [geom.asPolyline()]
+        dep = datetime64_from_value(feat[i_dep], what=f"{depart_field} of {label!r}") if i_dep >= 0 else None
+        speed = None
+        if i_speed >= 0:
+            raw = feat[i_speed]
+            if raw is not None and not (isinstance(raw, QVariant) and raw.isNull()) and str(raw).strip() != "":
+                try:
+                    speed = float(raw)
+                except (TypeError, ValueError):
+                    raise QgsProcessingException(
+                        f"ROUTE: field {speed_field} of {label!r} must be a number of knots, got {raw!r}"
+                    ) from None
+                if not (math.isfinite(speed) and speed > 0):
+                    raise QgsProcessingException(
+                        f"ROUTE: field {speed_field} of {label!r} must be > 0 kn, got {raw!r}"
+                    )
+        for k, pts in enumerate(parts):
+            xs = [p.x() for p in pts]
+            ys = [p.y() for p in pts]
+            if len(xs) < 2:
+                raise QgsProcessingException(f"ROUTE: part {k + 1} of {label!r} has fewer than 2 vertices")
+            if crs.isGeographic() and not _looks_like_degrees(xs, ys):
+                raise QgsProcessingException(
+                    f"ROUTE: {label!r} has coordinates like ({xs[0]:.1f}, {ys[0]:.1f}) that are not degrees, but "
+                    f"the layer CRS {crs.authid()} is geographic: set the layer's true (projected) CRS"
+                )
+            try:
+                out = [xform.transform(QgsPointXY(x, y)) for x, y in zip(xs, ys)]
+            except QgsCsException as exc:
+                raise QgsProcessingException(
+                    f"ROUTE: {label!r} cannot be transformed from {crs.authid()} to WGS84 ({exc}): check the layer CRS"
+                ) from exc
+            lon = np.array([p.x() for p in out], dtype=float)
+            lat = np.array([p.y() for p in out], dtype=float)
+            if not (np.isfinite(lon).all() and np.isfinite(lat).all()) or np.any(np.abs(lat) > 90):
+                raise QgsProcessingException(
+                    f"ROUTE: {label!r} falls outside the valid area of CRS {crs.authid()}: check the layer CRS"
+                )
+            if not crs.isGeographic() and _looks_like_degrees(xs, ys):
+                span = max(max(xs) - min(xs), max(ys) - min(ys))
+                if span < 400.0:
+                    raise QgsProcessingException(
+                        f"ROUTE: {label!r} spans only {span:.1f} map units in the projected CRS {crs.authid()}, "
+                        "and its coordinates look like degrees: set the layer CRS to EPSG:4326"
+                    )
+            name = label if len(parts) == 1 else f"{label} ({k + 1})"
+            legs.append(RouteLeg(fid, k, name, lon, lat, dep, speed))
+    return legs
+
+
+# ------------------------------------------------------------------------------- fields
+
+_TYPES = {"int": "Int", "long": "LongLong", "double": "Double", "string": "String", "datetime": "DateTime"}
+
+
+def make_field(name: str, kind: str) -> QgsField:
+    """A QgsField of kind int/long/double/string/datetime (QMetaType where QGIS takes it)."""
+    tname = _TYPES[kind]
+    if Qgis.versionInt() >= 33800:
+        from qgis.PyQt.QtCore import QMetaType
+
+        return QgsField(name, getattr(QMetaType.Type, tname))
+    return QgsField(name, getattr(QVariant.Type, tname))
+
+
+# (name, kind, PassageResult attribute or None for special handling)
+POINT_FIELDS = (
+    ("leg", "int", "leg"),
+    ("seq", "int", "seq"),
+    ("leg_name", "string", None),
+    ("eta_utc", "datetime", None),
+    ("dist_nm", "double", "dist_nm"),
+    ("course_deg", "double", "course_deg"),
+    ("speed_kn", "double", "speed_kn"),
+    ("hs_m", "double", "hs_m"),
+    ("tp_s", "double", "tp_s"),
+    ("wave_from_deg", "double", "wave_from_deg"),
+    ("depth_m", "double", "depth_m"),
+    ("wavelength_m", "double", "wavelength_m"),
+    ("celerity_m_s", "double", "celerity_m_s"),
+    ("rel_heading_deg", "double", "rel_heading_deg"),
+    ("enc_period_s", "double", "enc_period_s"),
+    ("heave_rms_m", "double", "heave_rms_m"),
+    ("pitch_rms_deg", "double", "pitch_rms_deg"),
+    ("roll_rms_deg", "double", "roll_rms_deg"),
+    ("heave_tz_s", "double", "heave_tz_s"),
+    ("pitch_tz_s", "double", "pitch_tz_s"),
+    ("roll_tz_s", "double", "roll_tz_s"),
+    ("vacc_rms_m_s2", "double", "vacc_rms_m_s2"),
+    ("lacc_rms_m_s2", "double", "lacc_rms_m_s2"),
+    ("vacc_wf_rms_m_s2", "double", "vacc_wf_rms_m_s2"),
+    ("msi_pct", "double", "msi_pct"),
+    ("msdv_cum", "double", "msdv_cum"),
+    ("vomit_pct", "double", "vomit_pct"),
+    ("comfort_class", "int", None),
+    ("comfort_label", "string", None),
+    ("flags", "string", None),
+    ("source", "string", None),
+)
+
+
+def passage_fields() -> QgsFields:
+    """Fields of the point and segment layers (names and units are the public interface)."""
+    fields = QgsFields()
+    for name, kind, _ in POINT_FIELDS:
+        fields.append(make_field(name, kind))
+    return fields
+
+
+def _null() -> Any:
+    return QVariant()
+
+
+def _attributes(r: PassageResult, i: int, leg_name: str, flag_text: Sequence[str]) -> List[Any]:
+    attrs: List[Any] = []
+    for name, kind, attr in POINT_FIELDS:
+        if attr is not None:
+            v = getattr(r, attr)[i]
+            if kind == "double":
+                fv = float(v)
+                attrs.append(fv if math.isfinite(fv) else _null())
+            else:
+                attrs.append(int(v))
+        elif name == "leg_name":
+            attrs.append(leg_name)
+        elif name == "eta_utc":
+            attrs.append(qdatetime_from_datetime64(r.eta_utc[i]))
+        elif name == "comfort_class":
+            c = int(r.comfort_class[i])
+            attrs.append(c if c != NOT_COMPUTED_CLASS else _null())
+        elif name == "comfort_label":
+            attrs.append(r.comfort_label[i] or _null())
+        elif name == "flags":
+            attrs.append(flag_text[i])
+        elif name == "source":
+            attrs.append(r.source[i] or _null())
+    return attrs
+
+
+def point_features(r: PassageResult, fields: QgsFields, leg_name: str) -> Iterator[QgsFeature]:
+    """One point feature per sample (EPSG:4326)."""
+    flag_text = flag_codes_array(r.flags)
+    for i in range(r.n):
+        f = QgsFeature(fields)
+        f.setGeometry(QgsGeometry.fromPointXY(QgsPointXY(float(r.lon_deg[i]), float(r.lat_deg[i]))))
+        f.setAttributes(_attributes(r, i, leg_name, flag_text))
+        yield f
+
+
+def segment_features(r: PassageResult, fields: QgsFields, leg_name: str) -> Iterator[QgsFeature]:
+    """One line from each sample to the next, with the start sample's fields (EPSG:4326).
+
+    Across the antimeridian the end longitude is unwrapped (e.g. 180.4 instead of -179.6) so
+    the short segment is not drawn round the world.
+    """
+    flag_text = flag_codes_array(r.flags)
+    for i in range(r.n - 1):
+        x0, y0 = float(r.lon_deg[i]), float(r.lat_deg[i])
+        x1, y1 = float(r.lon_deg[i + 1]), float(r.lat_deg[i + 1])
+        if x1 - x0 > 180.0:
+            x1 -= 360.0
+        elif x1 - x0 < -180.0:
+            x1 += 360.0
+        f = QgsFeature(fields)
+        f.setGeometry(QgsGeometry.fromPolylineXY([QgsPointXY(x0, y0), QgsPointXY(x1, y1)]))
+        f.setAttributes(_attributes(r, i, leg_name, flag_text))
+        yield f

@@ -1,0 +1,301 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Parameters shared by the passage algorithms: definitions, parsing and input checks.
+
+The route-comfort algorithm uses them today; a departure sweep will reuse the same
+definitions and parsers (one place, no copies). Every check turns bad input into a
+:class:`QgsProcessingException` whose text says what to fix.
+"""
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any, Dict, List, Optional, Sequence, Tuple
+
+from qgis.core import (
+    QgsApplication,
+    QgsProcessing,
+    QgsProcessingAlgorithm,
+    QgsProcessingContext,
+    QgsProcessingException,
+    QgsProcessingParameterBoolean,
+    QgsProcessingParameterDateTime,
+    QgsProcessingParameterDefinition,
+    QgsProcessingParameterEnum,
+    QgsProcessingParameterFeatureSource,
+    QgsProcessingParameterMultipleLayers,
+    QgsProcessingParameterNumber,
+    QgsProcessingParameterRasterLayer,
+    QgsProcessingParameterString,
+)
+from qgis.PyQt.QtCore import QCoreApplication
+
+from ..core.validation import SeawayInputError
+
+ROUTE = "ROUTE"
+SEA_STATE = "SEA_STATE"
+SOURCE_NAMES = "SOURCE_NAMES"
+SOURCE_MODE = "SOURCE_MODE"
+DEPTH = "DEPTH"
+DEPARTURE = "DEPARTURE"
+SPEED_KN = "SPEED_KN"
+VESSEL = "VESSEL"
+STATION = "STATION"
+SPACING_NM = "SPACING_NM"
+GAMMA = "GAMMA"
+SPREAD_S = "SPREAD_S"
+LONG_CRESTED = "LONG_CRESTED"
+METHOD = "METHOD"
+
+SOURCE_MODES: Tuple[str, ...] = ("first_valid", "compare")
+METHOD_CHOICES: Tuple[Optional[str], ...] = (None, "table", "exact")
+
+ROUTE_NAME_FIELD = "name"
+ROUTE_DEPART_FIELD = "depart_utc"
+ROUTE_SPEED_FIELD = "speed_kn"
+
+DEFAULT_VESSEL = "coastal_survey_35m"
+USER_VESSEL_SUBDIR = ("seaway_comfort", "vessels")
+
+
+class Tr:
+    """Translation context for the shared parameter texts."""
+
+    @staticmethod
+    def tr(text: str) -> str:
+        return QCoreApplication.translate("Tr", text)
+
+
+def _advanced(p: QgsProcessingParameterDefinition) -> QgsProcessingParameterDefinition:
+    p.setFlags(p.flags() | QgsProcessingParameterDefinition.Flag.FlagAdvanced)
+    return p
+
+
+def passage_parameters() -> List[QgsProcessingParameterDefinition]:
+    """The input parameters of a passage computation, in dialog order."""
+    tr = Tr.tr
+    from ..core.vessel import builtin_profile_names
+
+    names = builtin_profile_names()
+    default_vessel = DEFAULT_VESSEL if DEFAULT_VESSEL in names else (names[0] if names else "")
+    params: List[QgsProcessingParameterDefinition] = [
+        QgsProcessingParameterFeatureSource(
+            ROUTE, tr("Route (line layer; optional fields name, depart_utc, speed_kn)"),
+            [QgsProcessing.SourceType.TypeVectorLine],
+        ),
+        QgsProcessingParameterMultipleLayers(
+            SEA_STATE, tr("Sea-state forecast files (GRIB2, NetCDF-CF or GeoTIFF)"),
+            QgsProcessing.SourceType.TypeFile,
+        ),
+        QgsProcessingParameterString(
+            SOURCE_NAMES, tr("Source names (comma-separated, one per forecast file)"),
+            optional=True,
+        ),
+        _advanced(QgsProcessingParameterEnum(
+            SOURCE_MODE, tr("Several sources"),
+            [tr("First file with data at each sample"), tr("Compare: one result per file")],
+            defaultValue=0,
+        )),
+        QgsProcessingParameterRasterLayer(
+            DEPTH, tr("Bathymetry raster (optional; deep water when absent)"), optional=True,
+        ),
+        QgsProcessingParameterDateTime(
+            DEPARTURE, tr("Departure (UTC; a route field depart_utc overrides it)"),
+            QgsProcessingParameterDateTime.Type.DateTime, optional=True,
+        ),
+        QgsProcessingParameterNumber(
+            SPEED_KN, tr("Speed through the water (kn; a route field speed_kn overrides it)"),
+            QgsProcessingParameterNumber.Type.Double, defaultValue=8.0,
+        ),
+        QgsProcessingParameterString(
+            VESSEL, tr("Vessel profile: a JSON file or a profile name ({})").format(", ".join(names)),
+            defaultValue=default_vessel,
+        ),
+        QgsProcessingParameterString(
+            STATION, tr("Station on board (default: the profile's first)"), optional=True,
+        ),
+        QgsProcessingParameterNumber(
+            SPACING_NM, tr("Sample spacing (NM)"), QgsProcessingParameterNumber.Type.Double,
+            defaultValue=1.0,
+        ),
+        _advanced(QgsProcessingParameterNumber(
+            GAMMA, tr("JONSWAP peak enhancement gamma (1 = Pierson-Moskowitz)"),
+            QgsProcessingParameterNumber.Type.Double, defaultValue=3.3,
+        )),
+        _advanced(QgsProcessingParameterNumber(
+            SPREAD_S, tr("Directional spreading exponent s (cos-2s)"),
+            QgsProcessingParameterNumber.Type.Double, defaultValue=4.0,
+        )),
+        _advanced(QgsProcessingParameterBoolean(
+            LONG_CRESTED, tr("Long-crested seas (no directional spreading)"), defaultValue=False,
+        )),
+        _advanced(QgsProcessingParameterEnum(
+            METHOD, tr("Response method"),
+            [tr("Automatic"), tr("Response tables (fast)"), tr("Full spectral integration")],
+            defaultValue=0,
+        )),
+    ]
+    return params
+
+
+@dataclass(frozen=True)
+class PassageSettings:
+    """Parsed, checked passage parameters (everything except the route and the outputs)."""
+
+    sea_state_paths: Tuple[str, ...]
+    source_names: Tuple[str, ...]
+    source_mode: str
+    depth_path: Optional[str]
+    departure_utc: Optional[Any]  # numpy.datetime64 or None (then every feature needs depart_utc)
+    speed_kn: float
+    vessel_spec: str
+    profile: Any
+    station: Optional[str]
+    spacing_nm: float
+    gamma: float
+    spread_s: float
+    long_crested: bool
+    method: Optional[str]
+
+
+def user_vessel_dir() -> Path:
+    """``<QGIS settings dir>/seaway_comfort/vessels`` (user-stored vessel profiles)."""
+    return Path(QgsApplication.qgisSettingsDirPath()).joinpath(*USER_VESSEL_SUBDIR)
+
+
+def resolve_vessel_spec(spec: str) -> Any:
+    """A vessel profile from a built-in name, a user-profile name or a JSON file path."""
+    from ..core.vessel import builtin_profile_names, load_vessel_profile, resolve_vessel
+
+    text = (spec or "").strip()
+    if not text:
+        raise QgsProcessingException(
+            "VESSEL is empty: give a vessel profile JSON file or one of the profile names "
+            f"{', '.join(builtin_profile_names())}"
+        )
+    user = user_vessel_dir() / f"{text}.json"
+    try:
+        if text not in builtin_profile_names() and user.is_file():
+            return load_vessel_profile(user)
+        return resolve_vessel(text)
+    except SeawayInputError as exc:
+        stored = sorted(p.stem for p in user_vessel_dir().glob("*.json")) if user_vessel_dir().is_dir() else []
+        extra = f"; profiles in your QGIS profile folder: {', '.join(stored)}" if stored else ""
+        raise QgsProcessingException(f"VESSEL {text!r}: {exc}{extra}") from exc
+    except (OSError, ValueError) as exc:
+        raise QgsProcessingException(f"VESSEL {text!r} could not be read as a vessel profile: {exc}") from exc
+
+
+def _station_names(profile: Any) -> List[str]:
+    return [str(getattr(s, "name", s)) for s in getattr(profile, "stations", ())]
+
+
+def parse_passage_settings(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
+) -> PassageSettings:
+    """Read and check every shared passage parameter; QgsProcessingException on bad input."""
+    from .. import adapters
+
+    paths = [str(p) for p in (alg.parameterAsFileList(parameters, SEA_STATE, context) or []) if str(p)]
+    if not paths:
+        raise QgsProcessingException("SEA_STATE: give at least one forecast file (GRIB2, NetCDF-CF or GeoTIFF)")
+    for p in paths:
+        if not os.path.isfile(p):
+            raise QgsProcessingException(f"SEA_STATE: file {p!r} does not exist")
+    raw_names = alg.parameterAsString(parameters, SOURCE_NAMES, context) or ""
+    names = tuple(n.strip() for n in raw_names.split(",") if n.strip()) if raw_names.strip() else ()
+    if names and len(names) != len(paths):
+        raise QgsProcessingException(
+            f"SOURCE_NAMES has {len(names)} names ({raw_names!r}) but SEA_STATE has {len(paths)} "
+            "files: give one name per file, comma-separated, or leave it empty"
+        )
+    mode = SOURCE_MODES[alg.parameterAsEnum(parameters, SOURCE_MODE, context)]
+    depth_layer = alg.parameterAsRasterLayer(parameters, DEPTH, context)
+    depth_path = None
+    if depth_layer is not None:
+        depth_path = depth_layer.source()
+    elif parameters.get(DEPTH) not in (None, ""):
+        raise QgsProcessingException(f"DEPTH {parameters.get(DEPTH)!r} is not a readable raster")
+    departure = None
+    if parameters.get(DEPARTURE) not in (None, ""):
+        qdt = alg.parameterAsDateTime(parameters, DEPARTURE, context)
+        if qdt is None or not qdt.isValid():
+            raise QgsProcessingException(
+                f"DEPARTURE {parameters.get(DEPARTURE)!r} is not a valid date-time: use ISO 8601, "
+                "e.g. 2031-03-11T06:00:00Z (UTC)"
+            )
+        departure = adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
+    speed = alg.parameterAsDouble(parameters, SPEED_KN, context)
+    if not speed > 0:
+        raise QgsProcessingException(f"SPEED_KN must be > 0 kn, got {speed:g}: give the planned speed through the water")
+    spacing = alg.parameterAsDouble(parameters, SPACING_NM, context)
+    if not spacing > 0:
+        raise QgsProcessingException(f"SPACING_NM must be > 0 NM, got {spacing:g}")
+    gamma = alg.parameterAsDouble(parameters, GAMMA, context)
+    if not gamma >= 1.0:
+        raise QgsProcessingException(f"GAMMA must be >= 1 (1 = Pierson-Moskowitz), got {gamma:g}")
+    spread = alg.parameterAsDouble(parameters, SPREAD_S, context)
+    if not spread > 0:
+        raise QgsProcessingException(f"SPREAD_S must be > 0, got {spread:g}")
+    vessel_spec = alg.parameterAsString(parameters, VESSEL, context)
+    profile = resolve_vessel_spec(vessel_spec)
+    station = (alg.parameterAsString(parameters, STATION, context) or "").strip() or None
+    stations = _station_names(profile)
+    if station is not None and station not in stations:
+        raise QgsProcessingException(
+            f"STATION {station!r} is not on vessel {getattr(profile, 'name', vessel_spec)!r}: "
+            f"choose one of {', '.join(stations)}"
+        )
+    method = METHOD_CHOICES[alg.parameterAsEnum(parameters, METHOD, context)]
+    return PassageSettings(
+        sea_state_paths=tuple(paths),
+        source_names=names,
+        source_mode=mode,
+        depth_path=depth_path,
+        departure_utc=departure,
+        speed_kn=float(speed),
+        vessel_spec=vessel_spec,
+        profile=profile,
+        station=station,
+        spacing_nm=float(spacing),
+        gamma=float(gamma),
+        spread_s=float(spread),
+        long_crested=alg.parameterAsBoolean(parameters, LONG_CRESTED, context),
+        method=method,
+    )
+
+
+def _norm(path: str) -> str:
+    return os.path.normcase(os.path.realpath(os.path.abspath(path)))
+
+
+def file_part(source_or_uri: str) -> str:
+    """The file path of an OGR/GDAL source string (before '|' options, without ogr: prefixes)."""
+    text = str(source_or_uri or "")
+    if text.startswith("ogr:"):
+        text = text[4:]
+        if "dbname=" in text:
+            text = text.split("dbname=", 1)[1].strip().split(" ")[0].strip("'\"")
+    return text.split("|", 1)[0]
+
+
+def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[str]) -> None:
+    """Refuse outputs that would overwrite an input, or that cannot be written.
+
+    ``outputs``: (parameter name, destination path or URI); memory/temporary outputs pass.
+    """
+    ins = {_norm(file_part(p)): p for p in inputs if p and os.path.exists(file_part(p))}
+    for name, dest in outputs:
+        if not dest or str(dest).startswith(("memory:", "TEMPORARY_OUTPUT")):
+            continue
+        path = file_part(dest)
+        if _norm(path) in ins:
+            raise QgsProcessingException(
+                f"{name} {path!r} is also an input ({ins[_norm(path)]!r}): choose another output "
+                "file; inputs are never overwritten"
+            )
+        folder = os.path.dirname(os.path.abspath(path)) or "."
+        if not os.path.isdir(folder):
+            raise QgsProcessingException(f"{name}: folder {folder!r} does not exist: create it or choose another path")
+        if not os.access(folder, os.W_OK) or (os.path.exists(path) and not os.access(path, os.W_OK)):
+            raise QgsProcessingException(f"{name}: {path!r} is not writable: choose another path")

@@ -1,0 +1,111 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Processing algorithm ``seawaycomfort:describeseastate``: what a forecast file holds."""
+from __future__ import annotations
+
+import html
+import os
+from typing import Any, Dict, Optional
+
+from qgis.core import (
+    QgsProcessingAlgorithm,
+    QgsProcessingContext,
+    QgsProcessingException,
+    QgsProcessingFeedback,
+    QgsProcessingOutputString,
+    QgsProcessingParameterFile,
+    QgsProcessingParameterFileDestination,
+)
+from qgis.PyQt.QtCore import QCoreApplication
+
+from ..core.flags import CAUTION
+from ..core.validation import SeawayInputError
+from . import common
+
+INPUT = "INPUT"
+OUTPUT_REPORT = "OUTPUT_REPORT"
+DESCRIPTION = "DESCRIPTION"
+
+
+def inventory_html(title: str, text: str) -> str:
+    """A small self-contained HTML page around the inventory text (escaped)."""
+    return (
+        "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
+        f"<title>{html.escape(title)}</title>\n</head>\n<body>\n"
+        f"<h1>{html.escape(title)}</h1>\n<pre>{html.escape(text)}</pre>\n"
+        f"<p><strong>Caution.</strong> {html.escape(CAUTION)}</p>\n</body>\n</html>\n"
+    )
+
+
+class DescribeSeaStateAlgorithm(QgsProcessingAlgorithm):
+    """Lists the sea-state variables a file holds and how they were recognised."""
+
+    def tr(self, text: str) -> str:
+        return QCoreApplication.translate("DescribeSeaStateAlgorithm", text)
+
+    def name(self) -> str:
+        return "describeseastate"
+
+    def displayName(self) -> str:  # noqa: N802
+        return self.tr("Describe a sea-state file")
+
+    def group(self) -> str:
+        return self.tr("Passage planning")
+
+    def groupId(self) -> str:  # noqa: N802
+        return "passage"
+
+    def shortHelpString(self) -> str:  # noqa: N802
+        return self.tr(
+            "<p>Opens a GRIB2, NetCDF-CF or GeoTIFF sea-state file the way the passage algorithms "
+            "do and lists what it finds: each variable the plugin can use (significant wave height, "
+            "peak or mean periods, direction, wind-sea and swell partitions), how it was recognised "
+            "(CF standard name, GRIB2 parameter code, name), its units and any conversion, the grid "
+            "(size, extent, resolution, CRS), the time range and step, and anything ignored.</p>"
+            "<p>Use it to check a file before a passage run. The text goes to the log, to the "
+            "DESCRIPTION output and, if asked, to an HTML or text file.</p>"
+            f"<p><b>Caution</b>: {CAUTION}</p>"
+        )
+
+    def createInstance(self) -> "DescribeSeaStateAlgorithm":  # noqa: N802
+        return DescribeSeaStateAlgorithm()
+
+    def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
+        self.addParameter(QgsProcessingParameterFile(
+            INPUT, self.tr("Sea-state file"), QgsProcessingParameterFile.Behavior.File,
+        ))
+        self.addParameter(QgsProcessingParameterFileDestination(
+            OUTPUT_REPORT, self.tr("Description file"),
+            self.tr("HTML files (*.html);;Text files (*.txt)"), optional=True,
+        ))
+        self.addOutput(QgsProcessingOutputString(DESCRIPTION, self.tr("Description")))
+
+    def processAlgorithm(  # noqa: N802
+        self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback
+    ) -> Dict[str, Any]:
+        from ..core.seastate import describe_file
+
+        path = self.parameterAsFile(parameters, INPUT, context)
+        if not path or not os.path.isfile(path):
+            raise QgsProcessingException(f"INPUT {path!r} is not an existing file: choose a forecast file")
+        try:
+            inv = describe_file(path)
+        except SeawayInputError as exc:
+            raise QgsProcessingException(f"INPUT {path!r}: {exc}") from exc
+        except RuntimeError as exc:
+            raise QgsProcessingException(f"INPUT {path!r} could not be read: {exc}") from exc
+        text = inv.as_text().rstrip() + "\n\nCAUTION: " + CAUTION + "\n"
+        for line in text.splitlines():
+            feedback.pushInfo(line)
+        out: Dict[str, Any] = {DESCRIPTION: text}
+        dest = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
+        if dest:
+            common.check_outputs([(OUTPUT_REPORT, dest)], [path])
+            body = text if dest.lower().endswith(".txt") else inventory_html(
+                f"Sea-state file: {os.path.basename(path)}", text)
+            try:
+                with open(dest, "w", encoding="utf-8") as fh:
+                    fh.write(body)
+            except OSError as exc:
+                raise QgsProcessingException(f"OUTPUT_REPORT {dest!r} could not be written: {exc}") from exc
+            out[OUTPUT_REPORT] = dest
+        return out

@@ -1,0 +1,27 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Shared QGIS test fixtures: the Seaway Comfort provider, registered once per session.
+
+QGIS's ``addProvider`` returns False for a duplicate id AND deletes the object passed, so the
+provider is registered exactly once here and its return value is checked.
+"""
+from __future__ import annotations
+
+import pytest
+
+
+@pytest.fixture(scope="session")
+def seaway_provider(qgis_app, qgis_processing):  # noqa: ARG001 (fixtures start QGIS)
+    from qgis.core import QgsApplication
+
+    from seaway_comfort.processing.provider import PROVIDER_ID, SeawayComfortProvider
+
+    registry = QgsApplication.processingRegistry()
+    existing = registry.providerById(PROVIDER_ID)
+    if existing is not None:
+        yield existing
+        return
+    provider = SeawayComfortProvider()
+    assert registry.addProvider(provider), "addProvider refused the Seaway Comfort provider"
+    yield provider
+    if registry.providerById(PROVIDER_ID) is provider:
+        registry.removeProvider(provider)
