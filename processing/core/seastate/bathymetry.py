@@ -19,7 +19,7 @@ Sampling: the nearest cell decides the class - no data -> NaN + DEPTH_ASSUMED_DE
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Optional, Tuple
+from typing import Tuple
 
 import numpy as np
 from numpy.typing import NDArray

@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import os
 from dataclasses import dataclass, field
-from typing import Dict, List, Optional, Sequence, Tuple
+from typing import Dict, List, Optional, Tuple
 
 import numpy as np
 from numpy.typing import NDArray
@@ -149,12 +149,6 @@ class DatasetCache:
             arr = arr * layer.units.factor
         arr[bad] = np.nan
         return arr
-
-    def read_cube(self, layer: VariableLayer, steps: Sequence[int], window: Window) -> NDArray[np.float64]:
-        cube = np.empty((len(steps), window.nrows, window.ncols), dtype=np.float64)
-        for k, s in enumerate(steps):
-            cube[k] = self.read_band_window(layer, int(s), window)
-        return cube
 
     def close(self) -> None:
         self._open.clear()

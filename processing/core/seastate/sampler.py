@@ -23,21 +23,21 @@ Method, per sample:
 5. **Plausibility**: a used value outside :data:`.variables.PLAUSIBLE_RANGE` sets
    IMPLAUSIBLE_VALUE (the value is kept).
 
-Only the window around the samples (plus the search margin; split at a wrapping seam) and only the
-bracketing time steps are read.
+Only the bracketing time steps are read, and of each step only the window around the samples that
+use it (plus the search margin; split in two at a wrapping seam).
 """
 from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Optional, Tuple
+from typing import Dict, Tuple
 
 import numpy as np
 from numpy.typing import NDArray
 
 from ..flags import SampleFlag
 from ..units import FloatArray
-from .grid import EARTH_MEAN_RADIUS_KM, great_circle_km, read_window_for
+from .grid import EARTH_MEAN_RADIUS_KM, Window, great_circle_km, read_window_for
 from .layer import DatasetCache, VariableLayer
 from .variables import DIRECTION, PLAUSIBLE_RANGE
 
@@ -124,23 +124,31 @@ def sample_layer(
 
     mc, mr = _margins(layer, lat_deg[act], land_search_km)
     used = ok & (ww > 0)  # at least the nearest centre of every sample has weight >= 1/4
-    win = read_window_for(g, cc[used], rr[used], mc, mr)
+    ww = np.where(used, ww, 0.0)
     wt = w[act]
     need0 = wt < 1.0
     need1 = wt > 0.0
     s0g, s1g = i0[act], i1[act]
     steps = np.unique(np.concatenate([s0g[need0], s1g[need1]]))
-    cube = cache.read_cube(layer, steps, win)
-    s0 = np.searchsorted(steps, s0g)
-    s1 = np.searchsorted(steps, s1g)
-    s0 = np.minimum(s0, steps.size - 1)
-    s1 = np.minimum(s1, steps.size - 1)
-    # corners with zero weight may lie outside the window: clip their indices, they are masked below
-    lc = np.clip(win.local_col(cc, g.nx), 0, win.ncols - 1)
-    lr = np.clip(win.local_row(rr), 0, win.nrows - 1)
-    ww = np.where(used, ww, 0.0)
-    v0 = cube[s0[:, None], lr, lc]
-    v1 = cube[s1[:, None], lr, lc]
+    v0 = np.full(cc.shape, np.nan)
+    v1 = np.full(cc.shape, np.nan)
+    # one window per time step around the samples that use it: a long route crossing a large
+    # grid over days reads a band of cells along its track, not its whole bounding box per step
+    step_data: Dict[int, Tuple[Window, NDArray[np.float64]]] = {}
+    for s in steps:
+        sel0 = need0 & (s0g == s)
+        sel1 = need1 & (s1g == s)
+        sel = sel0 | sel1
+        u = used[sel]
+        win = read_window_for(g, cc[sel][u], rr[sel][u], mc, mr)
+        arr = cache.read_band_window(layer, int(s), win)
+        step_data[int(s)] = (win, arr)
+        for selk, vk in ((sel0, v0), (sel1, v1)):
+            if selk.any():
+                # zero-weight corners may lie outside the window: clipped here, masked below
+                lc = np.clip(win.local_col(cc[selk], g.nx), 0, win.ncols - 1)
+                lr = np.clip(win.local_row(rr[selk]), 0, win.nrows - 1)
+                vk[selk] = arr[lr, lc]
     ok0 = np.isfinite(v0) & (ww > 0)
     ok1 = np.isfinite(v1) & (ww > 0)
     is_dir = layer.kind == DIRECTION
@@ -181,15 +189,15 @@ def sample_layer(
 
     missing = np.flatnonzero(~np.isfinite(val))
     if missing.size:
-        _nearest_sea(layer, win, cube, act, missing, val, odd, flags, lon_deg, lat_deg,
-                     cf, rf, s0, s1, wt, need0, need1, land_search_km, mc, mr)
+        _nearest_sea(layer, step_data, act, missing, val, odd, flags, lon_deg, lat_deg,
+                     cf, rf, s0g, s1g, wt, need0, need1, land_search_km, mc, mr)
     values[act] = val
     flags[act[odd]] |= int(SampleFlag.IMPLAUSIBLE_VALUE)
     return LayerSample(layer.canonical, values, flags)
 
 
-def _nearest_sea(layer, win, cube, act, missing, val, odd, flags, lon_deg, lat_deg,  # type: ignore[no-untyped-def]
-                 cf, rf, s0, s1, wt, need0, need1, land_search_km, mc, mr) -> None:
+def _nearest_sea(layer, step_data, act, missing, val, odd, flags, lon_deg, lat_deg,  # type: ignore[no-untyped-def]
+                 cf, rf, s0g, s1g, wt, need0, need1, land_search_km, mc, mr) -> None:
     """Fill ``val`` at ``missing`` from the nearest cell with data within the search radius."""
     g = layer.grid
     lo, hi = PLAUSIBLE_RANGE[layer.kind]
@@ -199,27 +207,27 @@ def _nearest_sea(layer, win, cube, act, missing, val, odd, flags, lon_deg, lat_d
         if land_search_km <= 0:
             flags[k] |= int(SampleFlag.NO_SEA_DATA)
             continue
-        cn = int(np.rint(cf[j]))
-        rn = int(np.rint(rf[j]))
-        cols = cn + np.arange(-mc, mc + 1)
-        rows = rn + np.arange(-mr, mr + 1)
+        cols = int(np.rint(cf[j])) + np.arange(-mc, mc + 1)
+        rows = int(np.rint(rf[j])) + np.arange(-mr, mr + 1)
         if g.wraps:
             cols = np.unique(np.mod(cols, g.nx))
         cols = cols[(cols >= 0) & (cols < g.nx)]
-        rows = rows[(rows >= win.row0) & (rows < win.row0 + win.nrows)]
-        lcs = win.local_col(cols, g.nx)
-        keep = (lcs >= 0) & (lcs < win.ncols)
-        cols, lcs = cols[keep], lcs[keep]
-        if cols.size == 0 or rows.size == 0:
-            flags[k] |= int(SampleFlag.NO_SEA_DATA)
-            continue
+        rows = rows[(rows >= 0) & (rows < g.ny)]
         cgrid, rgrid = np.meshgrid(cols, rows)
-        lcgrid, lrgrid = np.meshgrid(lcs, rows - win.row0)
         good = np.ones(cgrid.shape, dtype=bool)
-        if need0[j]:
-            good &= np.isfinite(cube[s0[j]][lrgrid, lcgrid])
-        if need1[j]:
-            good &= np.isfinite(cube[s1[j]][lrgrid, lcgrid])
+        picks = []
+        for needed, s in ((need0[j], int(s0g[j])), (need1[j], int(s1g[j]))):
+            if not needed:
+                picks.append(None)
+                continue
+            win, arr = step_data[s]
+            lc = win.local_col(cgrid, g.nx)
+            lr = rgrid - win.row0
+            inwin = (lc >= 0) & (lc < win.ncols) & (lr >= 0) & (lr < win.nrows)
+            vals = np.full(cgrid.shape, np.nan)
+            vals[inwin] = arr[lr[inwin], lc[inwin]]
+            good &= np.isfinite(vals)
+            picks.append(vals)
         if not good.any():
             flags[k] |= int(SampleFlag.NO_SEA_DATA)
             continue
@@ -229,10 +237,8 @@ def _nearest_sea(layer, win, cube, act, missing, val, odd, flags, lon_deg, lat_d
         if not dist[best] <= land_search_km:
             flags[k] |= int(SampleFlag.NO_SEA_DATA)
             continue
-        lr_b = lrgrid[good][best]
-        lc_b = lcgrid[good][best]
-        x0 = cube[s0[j]][lr_b, lc_b] if need0[j] else 0.0
-        x1 = cube[s1[j]][lr_b, lc_b] if need1[j] else 0.0
+        x0 = picks[0][good][best] if picks[0] is not None else 0.0
+        x1 = picks[1][good][best] if picks[1] is not None else 0.0
         if (need0[j] and not lo <= x0 <= hi) or (need1[j] and not lo <= x1 <= hi):
             odd[j] = True
         if is_dir:

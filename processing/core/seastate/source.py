@@ -8,7 +8,7 @@ method is described in :mod:`.sampler`; derived quantities in :mod:`.derived`.
 from __future__ import annotations
 
 import os
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, replace
 from typing import Callable, Dict, List, Optional, Sequence, Tuple, Union
 
 import numpy as np
