@@ -636,10 +636,12 @@ def respond(
 ) -> PassageResult:
     """Motions and comfort at every sample with sea data, and the cumulative dose.
 
-    Calls :func:`.api.assess_motions` on the computed samples only (in chunks, so that
-    progress and cancel work), with the partitions when the sea state has them.
+    Calls :func:`.api.assess_motions` on the computed samples only, with the partitions when
+    the sea state has them. ``method`` None chooses once per leg as the api does (exact below
+    ``AUTO_TABLE_MIN_SAMPLES`` samples, tables from there on); the exact path runs in chunks of
+    :data:`RESPONSE_CHUNK` samples so that progress and cancel work.
     """
-    from .api import SeaPartitions, assess_motions
+    from .api import AUTO_TABLE_MIN_SAMPLES, SeaPartitions, assess_motions
     from .comfort import COMFORT_CLASS_LABELS, msdv_cumulative, vomiting_share_pct
     from .dispersion import wave_kinematics
     from .heading import encounter_period, relative_heading_deg
@@ -697,8 +699,14 @@ def respond(
     notes = list(sea.notes)
     if np.any(calm):
         notes.append(f"{int(calm.sum())} samples with Hs = 0 m: no motions computed there")
-    for start in range(0, idx.size, RESPONSE_CHUNK):
-        chunk = idx[start:start + RESPONSE_CHUNK]
+    # decide the method once for the whole leg: the table path builds its tables from the
+    # speeds and depths of one call, so it gets every sample in one call (the same numbers
+    # whatever the chunking); the exact path runs in chunks so progress and cancel work
+    chosen = method if method not in (None, "auto") else (
+        "exact" if idx.size < AUTO_TABLE_MIN_SAMPLES else "table")
+    step = RESPONSE_CHUNK if chosen == "exact" else max(idx.size, 1)
+    for start in range(0, idx.size, step):
+        chunk = idx[start:start + step]
         parts = None
         if use_parts:
             p_hs = sea.partition_hs_m[chunk].copy()
@@ -738,7 +746,7 @@ def respond(
             spread_s=spread_v,
             long_crested=bool(long_crested),
             partitions=parts,
-            method=method,
+            method=chosen,
         )
         for k in names:
             out[k][chunk] = np.asarray(getattr(res, k), dtype=float)
