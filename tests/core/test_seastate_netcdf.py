@@ -324,3 +324,45 @@ def test_progress_and_cancel(nc_global):
     assert seen[-1] == pytest.approx(1.0) and seen == sorted(seen)
     with pytest.raises(SamplingCancelled):
         src.sample([1.0], [0.0], _hours([1]), progress=lambda f: False)
+
+
+def test_explicit_direction_convention_overrides_with_warning(nc_global):
+    # the file declares coming-from (CF sea_surface_wave_from_direction = 200); the caller insists on
+    # going-to: the caller wins (documented), the contradiction is reported
+    src = open_sea_state(nc_global, direction_convention="to")
+    assert src.sample([20.0], [0.0], _hours([1])).wave_from_deg[0] == pytest.approx(20.0, abs=1e-9)
+    assert any("direction_convention='to'" in w and "ring.nc" in w for w in src.warnings)
+
+
+def test_odd_direction_values_flagged(tmp_path):
+    # directions outside 0..360 degrees are not valid compass bearings (common practice, no source)
+    f = _fields()
+    f[DIR] = np.full(f[DIR].shape, 400.0)
+    path = write_cf_netcdf(str(tmp_path / "dir400.nc"), LON, LAT, TIMES, f)
+    src = open_sea_state(path)
+    r = src.sample([20.0], [0.0], _hours([1]))
+    assert r.flags[0] & SampleFlag.IMPLAUSIBLE_VALUE
+    assert r.wave_from_deg[0] == pytest.approx(40.0, abs=1e-9)  # kept (as a unit vector), flagged
+    assert any("dir400.nc" in w and "'dir'" in w for w in src.warnings)
+
+
+def test_period_missing_where_height_present(tmp_path):
+    # Tp no-data in one region while Hs has data: the sample is not valid and says why
+    f = _fields()
+    tp = f[TP].copy()
+    tp[:, :, 10:20] = np.nan   # lon 25..47.5
+    path = write_cf_netcdf(str(tmp_path / "tpgap.nc"), LON, LAT, TIMES, {HS: f[HS], TP: tp, DIR: f[DIR]})
+    r = open_sea_state(path).sample([36.0, 100.0], [0.0, 0.0], _hours([1, 1]))
+    assert not r.valid[0] and np.isnan(r.tp_s[0]) and np.isnan(r.hs_m[0])
+    assert r.flags[0] & SampleFlag.NO_SEA_DATA
+    assert r.valid[1] and r.flags[1] == 0
+
+
+def test_describe_lists_ignored_variables(tmp_path):
+    f = _fields()
+    path = write_cf_netcdf(str(tmp_path / "mixed.nc"), LON, LAT, TIMES,
+                           {HS: f[HS], "air_temperature": f[TP]})
+    inv = describe_file(path)
+    assert [v.canonical for v in inv.variables] == ["hs"]
+    assert any(e.name == "air_temperature" and "standard_name" in e.reason for e in inv.ignored)
+    assert "Not used:" in inv.as_text()

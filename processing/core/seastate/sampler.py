@@ -135,20 +135,27 @@ def sample_layer(
     # one window per time step around the samples that use it: a long route crossing a large
     # grid over days reads a band of cells along its track, not its whole bounding box per step
     step_data: Dict[int, Tuple[Window, NDArray[np.float64]]] = {}
+    groups = []  # per bracket end: (sample indices sorted by step, their steps, target array)
+    for need, sg, target in ((need0, s0g, v0), (need1, s1g, v1)):
+        idx = np.flatnonzero(need)
+        idx = idx[np.argsort(sg[idx], kind="stable")]
+        groups.append((idx, sg[idx], target))
     for s in steps:
-        sel0 = need0 & (s0g == s)
-        sel1 = need1 & (s1g == s)
-        sel = sel0 | sel1
+        parts = []
+        for idx, sgs, target in groups:
+            a, b = np.searchsorted(sgs, [s, s + 1])
+            parts.append(idx[a:b])
+        sel = np.concatenate(parts)
         u = used[sel]
         win = read_window_for(g, cc[sel][u], rr[sel][u], mc, mr)
         arr = cache.read_band_window(layer, int(s), win)
         step_data[int(s)] = (win, arr)
-        for selk, vk in ((sel0, v0), (sel1, v1)):
-            if selk.any():
+        for k, (_, _, target) in zip(parts, groups):
+            if k.size:
                 # zero-weight corners may lie outside the window: clipped here, masked below
-                lc = np.clip(win.local_col(cc[selk], g.nx), 0, win.ncols - 1)
-                lr = np.clip(win.local_row(rr[selk]), 0, win.nrows - 1)
-                vk[selk] = arr[lr, lc]
+                lc = np.minimum(np.maximum(win.local_col(cc[k], g.nx), 0), win.ncols - 1)
+                lr = np.minimum(np.maximum(win.local_row(rr[k]), 0), win.nrows - 1)
+                target[k] = arr[lr, lc]
     ok0 = np.isfinite(v0) & (ww > 0)
     ok1 = np.isfinite(v1) & (ww > 0)
     is_dir = layer.kind == DIRECTION
