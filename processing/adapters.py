@@ -39,6 +39,12 @@ def qdatetime_from_datetime64(t: Any) -> QDateTime:
     return q
 
 
+def round_to_second(t: Any) -> np.datetime64:
+    """datetime64 rounded to the nearest whole second (half a second rounds up)."""
+    ms = int(np.datetime64(t, "ms").astype(np.int64))
+    return np.datetime64((ms + 500) // 1000, "s")
+
+
 def datetime64_from_qdatetime(q: QDateTime, *, assume_utc: bool = True) -> np.datetime64:
     """numpy datetime64[ms] (UTC) from a QDateTime.
 
@@ -115,11 +121,11 @@ def route_legs(
     """
     if source is None:
         raise QgsProcessingException("ROUTE: the route layer could not be read")
+    if source.featureCount() == 0:
+        raise QgsProcessingException("ROUTE: the route layer has no features: draw at least one line")
     crs = source.sourceCrs()
     if not crs.isValid():
         raise QgsProcessingException("ROUTE: the route layer has no valid CRS: set its CRS (e.g. EPSG:4326) and retry")
-    if source.featureCount() == 0:
-        raise QgsProcessingException("ROUTE: the route layer has no features: draw at least one line")
     dest = QgsCoordinateReferenceSystem(WGS84)
     xform = QgsCoordinateTransform(crs, dest, context.transformContext())
     fields = source.fields()
@@ -264,7 +270,8 @@ def _attributes(r: PassageResult, i: int, leg_name: str, flag_text: Sequence[str
         elif name == "leg_name":
             attrs.append(leg_name)
         elif name == "eta_utc":
-            attrs.append(qdatetime_from_datetime64(r.eta_utc[i]))
+            # to the nearest second: GeoPackage date-times keep whole seconds only
+            attrs.append(qdatetime_from_datetime64(round_to_second(r.eta_utc[i])))
         elif name == "comfort_class":
             c = int(r.comfort_class[i])
             attrs.append(c if c != NOT_COMPUTED_CLASS else _null())

@@ -117,7 +117,8 @@ def qml_path_for(dest: str) -> str:
 def save_output_style(dest: str, *, title: str, abstract: str) -> Tuple[str, List[str]]:
     """Open a written output, style it and save the style beside it (and into a GeoPackage).
 
-    Returns (QML path, warnings). Never raises for a style that cannot be stored in the file;
+    Writes '<base>.qml' (renderer and temporal settings) and '<base>.qmd' (the provenance
+    metadata; QGIS keeps layer metadata out of QML files). Returns (QML path, warnings). Never raises for a style that cannot be stored in the file;
     it reports it in the warnings instead (the QML still holds everything).
     """
     warnings: List[str] = []
@@ -129,6 +130,10 @@ def save_output_style(dest: str, *, title: str, abstract: str) -> Tuple[str, Lis
     msg, ok = layer.saveNamedStyle(qml)
     if not ok:
         warnings.append(f"style not saved to {qml!r}: {msg}")
+    qmd = qml[: -len(".qml")] + ".qmd"
+    msg, ok = layer.saveNamedMetadata(qmd)
+    if not ok:
+        warnings.append(f"metadata not saved to {qmd!r}: {msg}")
     path, _ = _file_and_layer(dest)
     if path.lower().endswith(".gpkg"):
         err = layer.saveStyleToDatabase("default", "Seaway Comfort: comfort classes", True, "")

@@ -7,6 +7,7 @@ from typing import Any, Dict, List, Optional, Tuple
 
 from qgis.core import (
     QgsCoordinateReferenceSystem,
+    QgsFeatureRequest,
     QgsFeatureSink,
     QgsProcessing,
     QgsProcessingAlgorithm,
@@ -161,6 +162,9 @@ class RouteComfortAlgorithm(QgsProcessingAlgorithm):
 
         feedback = feedback or QgsProcessingFeedback()
         settings = common.parse_passage_settings(self, parameters, context)
+        # route lines are checked by our own code with messages in passage terms (a degenerate
+        # line becomes "leg ... has no length"), so QGIS's generic validity check is not needed
+        context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
         source = self.parameterAsSource(parameters, common.ROUTE, context)
         route_layer = self.parameterAsVectorLayer(parameters, common.ROUTE, context)
         route_src = route_layer.source() if route_layer is not None else str(parameters.get(common.ROUTE))

@@ -1,0 +1,307 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""seawaycomfort:routecomfort end to end through QGIS Processing, on uniform sea fields.
+
+The numbers are compared with the core pipeline (processing/core/passage.py, whose own
+formulas are checked against published values in the core tests) called directly with the
+same inputs, and with geographiclib (WGS84 geodesics) for distances; the saved QML is read with
+Python's xml.etree; the layers with QGIS's OGR provider. Each bad input must give a
+QgsProcessingException whose text names the input and says what to fix.
+"""
+from __future__ import annotations
+
+import json
+import math
+import xml.etree.ElementTree as ET
+
+import numpy as np
+import pytest
+
+pytestmark = pytest.mark.qgis
+qgis = pytest.importorskip("qgis")
+
+from geographiclib.geodesic import Geodesic  # noqa: E402
+
+from seaway_comfort.processing.core.seastate import open_sea_state  # noqa: E402
+from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf  # noqa: E402
+from seaway_comfort.processing.core.vessel import resolve_vessel  # noqa: E402
+
+ALG = "seawaycomfort:routecomfort"
+HS = "sea_surface_wave_significant_height"
+TP = "sea_surface_wave_period_at_variance_spectral_density_maximum"
+DIR = "sea_surface_wave_from_direction"
+T0 = np.datetime64("2030-06-01T00:00", "ms")
+TIMES = T0 + np.arange(9) * np.timedelta64(3, "h")
+VESSEL = "coastal_survey_35m"
+INTERFACE_FIELDS = (
+    "leg", "seq", "eta_utc", "dist_nm", "course_deg", "hs_m", "tp_s", "wave_from_deg", "depth_m",
+    "wavelength_m", "celerity_m_s", "rel_heading_deg", "enc_period_s", "heave_rms_m", "pitch_rms_deg",
+    "roll_rms_deg", "pitch_tz_s", "vacc_rms_m_s2", "lacc_rms_m_s2", "msi_pct", "msdv_cum",
+    "comfort_class", "comfort_label", "flags", "source",
+)
+
+
+@pytest.fixture(scope="module")
+def sea(tmp_path_factory):
+    folder = tmp_path_factory.mktemp("sea")
+    lon = np.arange(-10.0, 10.01, 0.5)
+    lat = np.arange(-10.0, 20.01, 0.5)
+    shape = (TIMES.size, lat.size, lon.size)
+    path = str(folder / "uniform.nc")
+    write_cf_netcdf(path, lon, lat, TIMES, {HS: np.full(shape, 2.0), TP: np.full(shape, 8.0), DIR: np.zeros(shape)})
+    return path
+
+
+def _geojson(path, features, crs=None):
+    doc = {"type": "FeatureCollection", "features": [
+        {"type": "Feature", "properties": props, "geometry": {"type": "LineString", "coordinates": coords}}
+        for props, coords in features
+    ]}
+    if crs:
+        doc["crs"] = {"type": "name", "properties": {"name": crs}}
+    path.write_text(json.dumps(doc))
+    return str(path)
+
+
+@pytest.fixture()
+def route(tmp_path):
+    return _geojson(tmp_path / "route.geojson", [
+        ({"name": "north run"}, [[0.0, 0.0], [0.0, 0.5]]),
+        ({"name": "east run", "depart_utc": "2030-06-01T06:00:00Z", "speed_kn": 6.0}, [[1.0, 1.0], [1.4, 1.0]]),
+    ])
+
+
+def _params(route, sea, tmp_path, **over):
+    p = {
+        "ROUTE": route, "SEA_STATE": [sea], "DEPARTURE": "2030-06-01T01:00:00Z", "SPEED_KN": 10.0,
+        "VESSEL": VESSEL, "SPACING_NM": 2.0,
+        "OUTPUT_POINTS": str(tmp_path / "points.gpkg"), "OUTPUT_SEGMENTS": str(tmp_path / "segments.gpkg"),
+        "OUTPUT_REPORT": str(tmp_path / "report.html"),
+    }
+    p.update(over)
+    return p
+
+
+def _run(params, feedback=None):
+    import processing
+
+    return processing.run(ALG, params, feedback=feedback)
+
+
+def _features(path):
+    from qgis.core import QgsVectorLayer
+
+    layer = QgsVectorLayer(path, "x", "ogr")
+    assert layer.isValid(), path
+    return layer, list(layer.getFeatures())
+
+
+def _core(sea, lon, lat, departure, speed):
+    from seaway_comfort.processing.core.passage import compute_passage
+
+    src = open_sea_state(sea)
+    try:
+        return compute_passage(lon, lat, departure_utc=departure, speed_kn=speed, sea_states=[src],
+                               profile=resolve_vessel(VESSEL), spacing_nm=2.0)
+    finally:
+        src.close()
+
+
+def _num(v):
+    from qgis.PyQt.QtCore import QVariant
+
+    if v is None or (isinstance(v, QVariant) and v.isNull()):
+        return None
+    return float(v)
+
+
+def test_end_to_end_matches_core(seaway_provider, route, sea, tmp_path):
+    res = _run(_params(route, sea, tmp_path))
+    layer, feats = _features(res["OUTPUT_POINTS"])
+    names = [f.name() for f in layer.fields()]
+    for name in INTERFACE_FIELDS:
+        assert name in names, name
+    legs = {0: _core(sea, [0.0, 0.0], [0.0, 0.5], "2030-06-01T01:00:00Z", 10.0),
+            1: _core(sea, [1.0, 1.4], [1.0, 1.0], "2030-06-01T06:00:00Z", 6.0)}
+    assert len(feats) == sum(r.n for r in legs.values())
+    assert res["N_SAMPLES"] == len(feats)
+    for f in feats:
+        r = legs[int(f["leg"])]
+        i = int(f["seq"])
+        for field in ("hs_m", "tp_s", "enc_period_s", "rel_heading_deg", "wavelength_m", "heave_rms_m",
+                      "vacc_rms_m_s2", "msi_pct", "msdv_cum", "dist_nm"):
+            assert _num(f[field]) == pytest.approx(float(getattr(r, field)[i]), rel=1e-9, abs=1e-12), field
+        assert int(f["comfort_class"]) == int(r.comfort_class[i])
+        eta = f["eta_utc"]
+        # GeoPackage keeps whole seconds: the stored ETA is the core ETA rounded to the second
+        assert abs(eta.toMSecsSinceEpoch() - int(r.eta_utc[i].astype(np.int64))) <= 500
+    # leg 2 uses its own departure and speed fields: distance / 6 kn (geographiclib)
+    last = max((f for f in feats if int(f["leg"]) == 1), key=lambda f: int(f["seq"]))
+    s12 = Geodesic.WGS84.Inverse(1.0, 1.0, 1.0, 1.4)["s12"]
+    hours = (last["eta_utc"].toMSecsSinceEpoch() - int(np.datetime64("2030-06-01T06:00", "ms").astype(np.int64))) / 3.6e6
+    assert hours == pytest.approx(s12 / (6.0 * 1852.0), abs=0.5 / 3600)
+    _, segs = _features(res["OUTPUT_SEGMENTS"])
+    assert len(segs) == len(feats) - 2  # one fewer segment than samples per leg
+    text = open(res["OUTPUT_REPORT"], encoding="utf-8").read()
+    assert "north run" in text and "east run" in text
+
+
+def test_nulls_where_not_computed(seaway_provider, sea, tmp_path):
+    """Samples outside the grid (east of 10.25 E) and overtaking samples get NULL, not 0."""
+    from qgis.PyQt.QtCore import QVariant
+
+    rt = _geojson(tmp_path / "r.geojson", [({"name": "off east"}, [[9.5, 0.0], [11.0, 0.0]]),
+                                            ({"name": "fast south", "speed_kn": 30.0}, [[0.0, 1.0], [0.0, 0.5]])])
+    res = _run(_params(rt, sea, tmp_path))
+    _, feats = _features(res["OUTPUT_POINTS"])
+    off = [f for f in feats if f.geometry().asPoint().x() > 10.3]
+    assert off
+    for f in off:
+        for field in ("hs_m", "heave_rms_m", "msi_pct", "comfort_class", "comfort_label", "enc_period_s"):
+            v = f[field]
+            assert v is None or (isinstance(v, QVariant) and v.isNull()), (field, v)
+        assert "OFFGRID" in f["flags"]
+    fast = [f for f in feats if int(f["leg"]) == 1]
+    for f in fast:  # 30 kn in following seas outruns 8 s crests (c0 = 12.5 m/s)
+        assert "OUTRUN" in f["flags"]
+        assert _num(f["enc_period_s"]) is None
+        assert _num(f["heave_rms_m"]) is not None
+
+
+def test_styles_and_time_saved_beside_outputs(seaway_provider, route, sea, tmp_path):
+    from qgis.core import QgsVectorLayer
+
+    res = _run(_params(route, sea, tmp_path))
+    for key in ("OUTPUT_POINTS", "OUTPUT_SEGMENTS"):
+        path = res[key]
+        qml = path[: -len(".gpkg")] + ".qml"
+        root = ET.parse(qml).getroot()
+        renderer = root.find("renderer-v2")
+        assert renderer.get("type") == "categorizedSymbol" and renderer.get("attr") == "comfort_class"
+        cats = renderer.find("categories").findall("category")
+        assert len(cats) == 6  # five classes + not computed
+        temporal = root.find("temporal")
+        assert temporal.get("enabled") == "1" and temporal.get("startField") == "eta_utc"
+        assert temporal.get("accumulate") == "1"
+        # the GeoPackage default style restores the renderer on open (QGIS 3.22 behaviour)
+        layer = QgsVectorLayer(path, "x", "ogr")
+        assert layer.renderer().type() == "categorizedSymbol"
+        # provenance in the metadata abstract, saved as a QGIS metadata file beside the output
+        qmd = ET.parse(qml[: -len(".qml")] + ".qmd").getroot()
+        abstract = qmd.findtext("abstract")
+        assert sea in abstract and VESSEL in abstract and "Planning aid" in abstract
+        layer.loadDefaultMetadata()  # QGIS finds '<base>.qmd' as the layer's default metadata
+        assert layer.metadata().abstract() == abstract
+
+
+def _bad_route(tmp_path, kind):
+    if kind == "empty":
+        return _geojson(tmp_path / "empty.geojson", [])
+    if kind == "no_length":
+        return _geojson(tmp_path / "dot.geojson", [({"name": "dot"}, [[0.0, 0.0], [0.0, 0.0]])])
+    if kind == "metres_in_degrees":
+        return _geojson(tmp_path / "m.geojson", [({"name": "metres"}, [[500000.0, 100000.0], [510000.0, 100000.0]])])
+    if kind == "degrees_in_metres":
+        return _geojson(tmp_path / "d.geojson", [({"name": "deg"}, [[1.0, 1.0], [1.5, 1.2]])],
+                        crs="urn:ogc:def:crs:EPSG::3857")
+    raise AssertionError(kind)
+
+
+@pytest.mark.parametrize(
+    "kind, pattern",
+    [
+        ("empty", "no features"),
+        ("no_length", "zero length"),
+        ("metres_in_degrees", "not degrees"),
+        ("degrees_in_metres", "look like degrees"),
+    ],
+)
+def test_bad_routes(seaway_provider, sea, tmp_path, kind, pattern):
+    from qgis.core import QgsProcessingException
+
+    with pytest.raises(QgsProcessingException, match=pattern):
+        _run(_params(_bad_route(tmp_path, kind), sea, tmp_path))
+
+
+@pytest.mark.parametrize(
+    "over, pattern",
+    [
+        ({"DEPARTURE": "2030-06-09T00:00:00Z"}, "outside the time range"),
+        ({"SPEED_KN": 0.0}, "SPEED_KN must be > 0"),
+        ({"SPEED_KN": -2.0}, "SPEED_KN must be > 0"),
+        ({"STATION": "crow's nest"}, "STATION .crow's nest. is not on vessel"),
+        ({"VESSEL": "no_such_vessel"}, "VESSEL 'no_such_vessel'"),
+        ({"SPACING_NM": 0.0}, "SPACING_NM must be > 0"),
+        ({"SOURCE_NAMES": "a,b"}, "SOURCE_NAMES has 2 names"),
+        ({"DEPARTURE": None}, "has no departure time"),
+    ],
+)
+def test_bad_parameters(seaway_provider, route, sea, tmp_path, over, pattern):
+    from qgis.core import QgsProcessingException
+
+    params = _params(route, sea, tmp_path, **over)
+    if over.get("DEPARTURE", "x") is None:
+        params.pop("DEPARTURE")
+        route = _geojson(tmp_path / "nodep.geojson", [({"name": "no time"}, [[0.0, 0.0], [0.0, 0.5]])])
+        params["ROUTE"] = route
+    with pytest.raises(QgsProcessingException, match=pattern):
+        _run(params)
+
+
+def test_invalid_vessel_file(seaway_provider, route, sea, tmp_path):
+    from qgis.core import QgsProcessingException
+
+    bad = tmp_path / "vessel.json"
+    bad.write_text('{"format": "seaway-comfort-vessel", "name": "half a boat"}')
+    with pytest.raises(QgsProcessingException, match="VESSEL"):
+        _run(_params(route, sea, tmp_path, VESSEL=str(bad)))
+
+
+def test_outputs_never_overwrite_inputs(seaway_provider, route, sea, tmp_path):
+    from qgis.core import QgsProcessingException
+
+    with pytest.raises(QgsProcessingException, match="also an input"):
+        _run(_params(route, sea, tmp_path, OUTPUT_REPORT=sea))
+    with pytest.raises(QgsProcessingException, match="also an input"):
+        _run(_params(route, sea, tmp_path, OUTPUT_POINTS=route))
+
+
+def test_output_folder_missing(seaway_provider, route, sea, tmp_path):
+    from qgis.core import QgsProcessingException
+
+    with pytest.raises(QgsProcessingException, match="does not exist"):
+        _run(_params(route, sea, tmp_path, OUTPUT_REPORT=str(tmp_path / "nowhere" / "r.html")))
+
+
+def test_cancel_stops_the_run(seaway_provider, route, sea, tmp_path):
+    from qgis.core import QgsProcessingException, QgsProcessingFeedback
+
+    class CancelSoon(QgsProcessingFeedback):
+        calls = 0
+
+        def isCanceled(self):  # noqa: N802
+            CancelSoon.calls += 1
+            return CancelSoon.calls > 2
+
+    fb = CancelSoon()
+    with pytest.raises(QgsProcessingException, match="Cancelled"):
+        _run(_params(route, sea, tmp_path, SPACING_NM=0.2), feedback=fb)
+    assert CancelSoon.calls > 2
+    assert not (tmp_path / "points.gpkg").exists()
+
+
+def test_warning_summary_in_log(seaway_provider, sea, tmp_path):
+    from qgis.core import QgsProcessingFeedback
+
+    class Log(QgsProcessingFeedback):
+        def __init__(self):
+            super().__init__()
+            self.lines = []
+
+        def pushWarning(self, text):  # noqa: N802
+            self.lines.append(text)
+
+    rt = _geojson(tmp_path / "r.geojson", [({"name": "off east"}, [[9.5, 0.0], [11.0, 0.0]])])
+    fb = Log()
+    _run(_params(rt, sea, tmp_path), feedback=fb)
+    joined = "\n".join(fb.lines)
+    assert "OFFGRID" in joined and "outside the forecast grid" in joined
