@@ -6,7 +6,7 @@ Nothing here is real data. The sea area "Merrow Reach" with "Tarrow Island", the
 of the South Atlantic (about 24-27 S, 17-22 W) only so that the files have ordinary
 geographic coordinates. The forecast (invented dates in March 2031) holds:
 
-* a long south-westerly swell (from 225 deg) of 1.4-2.4 m and 11-13 s that builds slowly, and
+* a long south-westerly swell (from 225 deg) of 1.0-1.8 m and 11-13 s that builds slowly, and
   is sheltered to the north-east of the island;
 * a wind sea raised by a passing disturbance that crosses the area from west to east on
   the second and third day: up to about 3 m and 7-8 s, its direction veering from south
@@ -60,13 +60,15 @@ DEMO_LEGS: Tuple[Dict[str, object], ...] = (
         "name": "Port Ansel to Tarrow Island",
         "depart_utc": "2031-03-11T06:00:00Z",
         "speed_kn": 9.0,
-        "coords": ((-21.6, -24.45), (-20.7, -24.75), (-19.95, -25.05), (-19.75, -25.08)),
+        # north-east with the swell behind, over the Ansel Bank
+        "coords": ((-21.5, -26.6), (-20.4, -25.9), (-19.85, -25.58)),
     },
     {
         "name": "Tarrow Island to Cape Vell",
         "depart_utc": "2031-03-12T09:00:00Z",
         "speed_kn": 9.0,
-        "coords": ((-19.45, -25.1), (-19.05, -25.55), (-18.4, -26.05), (-17.7, -26.5)),
+        # south-east with the swell on the beam, then south-west into it
+        "coords": ((-19.25, -25.45), (-18.3, -26.0), (-18.9, -26.7)),
     },
 )
 """Two legs of the invented passage: name, departure, speed and (lon, lat) vertices."""
@@ -100,9 +102,9 @@ def demo_depth_m(lon_deg: FloatArray, lat_deg: FloatArray) -> FloatArray:
     lon2, lat2 = np.meshgrid(lon_deg, lat_deg)
     rel = _island_distance_deg(lon2, lat2)
     depth = 20.0 + 2480.0 * (1.0 - np.exp(-np.maximum(rel - 1.0, 0.0) / 1.6))
-    # a shallow bank of our own south-west of the island
+    # the Ansel Bank: a shallow bank of our own south-west of the island
     bank = np.exp(-(((lon2 + 20.4) / 0.25) ** 2 + ((lat2 + 25.9) / 0.15) ** 2))
-    depth = depth * (1.0 - 0.9 * bank)
+    depth = depth * (1.0 - 0.985 * bank)
     depth[rel <= 1.0] = 0.0
     return depth
 
@@ -131,7 +133,7 @@ def demo_fields(*, mask_land: bool = True) -> DemoFields:
     t_h = (times - times[0]).astype("timedelta64[m]").astype(float) / 60.0
     T, Y, X = np.meshgrid(t_h, lat, lon, indexing="ij")
     # swell from the south-west, slowly building, sheltered north-east of the island
-    swell_hs = 1.4 + 1.0 * (T / t_h[-1])
+    swell_hs = 1.0 + 0.8 * (T / t_h[-1])
     cx, cy = ISLAND_CENTRE_DEG
     dxe, dyn = X - cx, Y - cy
     along = (dxe + dyn) / math.sqrt(2.0)  # distance down-wave (towards NE) [deg]
