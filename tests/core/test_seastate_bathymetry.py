@@ -87,3 +87,17 @@ def test_bad_input(tmp_path):
         b.sample([0.0, 1.0], [45.0])
     with pytest.raises(SeawayInputError, match="convention"):
         write_bathymetry_geotiff(str(tmp_path / "x.tif"), LON, LAT, depth_field(), convention="up")
+
+
+def test_many_samples_in_chunks(tmp_path):
+    # more samples than one read chunk: every chunk's window must give the exact linear depth
+    path = write_bathymetry_geotiff(str(tmp_path / "many.tif"), LON, LAT, depth_field(),
+                                    convention="depth_positive_down")
+    b = open_bathymetry(path)
+    rng = np.random.default_rng(2)
+    n = 3 * b.CHUNK + 17
+    lon = rng.uniform(-5.0, 2.4, n)   # west of the land corner (lon >= 3 there)
+    lat = rng.uniform(45.0, 50.0, n)
+    s = b.sample(lon, lat)
+    np.testing.assert_allclose(s.depth_m, 100.0 + 10.0 * (lon + 5.0) + 4.0 * (lat - 45.0), atol=1e-4)
+    assert np.all(s.flags == 0)

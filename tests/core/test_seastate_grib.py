@@ -162,3 +162,12 @@ def test_describe_lists_unused_and_missing_error(tmp_path):
     assert [v.canonical for v in inv.variables] == ["hs"]
     with pytest.raises(SeawayInputError, match=r"hs_only.grb2: missing a wave period.*found: hs"):
         open_sea_state(path)
+
+
+def test_writer_refuses_missing_values(tmp_path):
+    # GDAL 3.6 GRIB writer: simple packing cannot preserve no-data (GDAL's own warning, seen here)
+    h = _grid()[0]
+    hs = np.full(h.shape, 2.0)
+    hs[0, 3, 3] = np.nan
+    with pytest.raises(SeawayInputError, match=r"variables\['hs'\] holds NaN"):
+        write_grib2(str(tmp_path / "nan.grb2"), LON, LAT, TIMES, {"hs": hs})

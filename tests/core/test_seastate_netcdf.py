@@ -366,3 +366,33 @@ def test_describe_lists_ignored_variables(tmp_path):
     assert [v.canonical for v in inv.variables] == ["hs"]
     assert any(e.name == "air_temperature" and "standard_name" in e.reason for e in inv.ignored)
     assert "Not used:" in inv.as_text()
+
+
+def test_uneven_latitudes_rejected(tmp_path):
+    # GDAL fits a geotransform to uneven coordinates with only a warning; we refuse such grids
+    from osgeo import gdal
+
+    path = write_cf_netcdf(str(tmp_path / "uneven.nc"), LON, LAT, TIMES, _fields())
+    ds = gdal.OpenEx(path, gdal.OF_MULTIDIM_RASTER | gdal.OF_UPDATE)
+    lat = LAT.copy()
+    lat[10:] += 0.7 * np.linspace(0.0, 1.0, lat.size - 10) ** 2
+    ds.GetRootGroup().OpenMDArray("lat").WriteArray(lat)
+    del ds
+    with pytest.raises(SeawayInputError, match=r"uneven.nc.*'lat' is not evenly spaced"):
+        open_sea_state(path)
+
+
+def test_combined_gap_filled_from_partitions(tmp_path):
+    # where the combined Hs is missing but partitions exist: sqrt(sum Hs_i^2) + PARTIAL_VARIABLES
+    f = _fields()
+    hs = f[HS].copy()
+    hs[:, :, 10:20] = np.nan
+    shape = hs.shape
+    path = write_cf_netcdf(str(tmp_path / "gap.nc"), LON, LAT, TIMES, {
+        HS: hs, TP: f[TP], DIR: f[DIR],
+        "sea_surface_wind_wave_significant_height": np.full(shape, 1.2),
+        "sea_surface_primary_swell_wave_significant_height": np.full(shape, 1.6)})
+    r = open_sea_state(path).sample([36.0, 100.0], [0.0, 0.0], _hours([1, 1]))
+    assert r.hs_m[0] == pytest.approx(2.0, abs=1e-6)   # sqrt(1.2^2 + 1.6^2) = 2.0 (3-4-5 triangle)
+    assert r.flags[0] & SampleFlag.PARTIAL_VARIABLES and r.valid[0]
+    assert r.hs_m[1] == pytest.approx(linear_hs(100, 0, 1), abs=2e-5) and r.flags[1] == 0

@@ -74,12 +74,25 @@ class Bathymetry:
         arr[bad] = np.nan
         return arr
 
+    CHUNK = 512
+    """Consecutive samples read together: along a route each chunk needs only a small window of a
+    fine global grid, where one bounding box of a whole ocean crossing would not fit in memory."""
+
     def sample(self, lon_deg, lat_deg) -> DepthSample:  # type: ignore[no-untyped-def]
         """Depth [m] at the given positions (degrees, WGS 84)."""
         lon = np.atleast_1d(as_float_array("lon_deg", lon_deg)).ravel()
         lat = np.atleast_1d(require_in_range("lat_deg", lat_deg, -90.0, 90.0, unit="deg")).ravel()
         if lat.size != lon.size:
             raise SeawayInputError(f"lat_deg has {lat.size} values but lon_deg has {lon.size}")
+        depth = np.full(lon.size, np.nan)
+        flags = np.zeros(lon.size, dtype=np.int64)
+        for a in range(0, lon.size, self.CHUNK):
+            part = self._sample_chunk(lon[a:a + self.CHUNK], lat[a:a + self.CHUNK])
+            depth[a:a + self.CHUNK] = part.depth_m
+            flags[a:a + self.CHUNK] = part.flags
+        return DepthSample(depth, flags)
+
+    def _sample_chunk(self, lon: FloatArray, lat: FloatArray) -> DepthSample:
         n = lon.size
         depth = np.full(n, np.nan)
         flags = np.zeros(n, dtype=np.int64)

@@ -17,7 +17,7 @@ import numpy as np
 from ..validation import SeawayInputError
 from .discovery import Discovery, resolve_going_to
 from .grid import GridGeometry
-from .layer import VariableLayer, grid_from_dataset, open_gdal
+from .layer import VariableLayer, gdal, grid_from_dataset, open_gdal
 from .timeaxis import decode_cf_time, require_increasing
 from .variables import CF_STANDARD_NAMES, canonical_kind, unit_conversion
 
@@ -116,7 +116,13 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
     times = decode_cf_time(raw, units, calendar, where=f"{where} time axis {tdim!r}")
     times_s = times.astype(np.int64)
     require_increasing(times_s, where=where)
+    if ds.GetMetadata("GEOLOCATION"):
+        raise SeawayInputError(
+            f"{where}: the grid is curvilinear (2-D latitude/longitude arrays); only regular "
+            "grids are read - regrid the file first (e.g. gdalwarp)"
+        )
     grid: GridGeometry = grid_from_dataset(ds, where=where)
+    _check_regular_axes(path, var, grid, where)
     extra_nd: Tuple[float, ...] = ()
     band_md = ds.GetRasterBand(1).GetMetadata() or {}
     mv = band_md.get("missing_value")
@@ -132,3 +138,35 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
         bands=tuple((gdal_name, b) for b in range(1, ds.RasterCount + 1)), notes=notes,
         extra_nodata=extra_nd,
     )
+
+
+def _check_regular_axes(path: str, var: str, grid: GridGeometry, where: str) -> None:
+    """Error unless the 1-D x/y coordinates are evenly spaced with GDAL's cell size.
+
+    GDAL fits a geotransform even to uneven coordinates (e.g. Gaussian latitudes) and only warns;
+    sampling through it would shift values silently. Longitude steps are taken modulo 360.
+    """
+    try:
+        mds = gdal.OpenEx(path, gdal.OF_MULTIDIM_RASTER)
+        arr = mds.GetRootGroup().OpenMDArray(var)
+        dims = arr.GetDimensions()
+    except (RuntimeError, AttributeError):
+        return  # no multidimensional view (e.g. netCDF-3 through another path): nothing to check
+    if arr is None or len(dims) < 2:
+        return
+    rx, ry = grid.resolution()
+    for dim, cell in ((dims[-1], rx), (dims[-2], ry)):
+        iv = dim.GetIndexingVariable()
+        if iv is None:
+            continue
+        c = np.asarray(iv.ReadAsArray(), dtype=float).ravel()
+        if c.size < 2:
+            continue
+        d = np.diff(c)
+        d = np.mod(d + 180.0, 360.0) - 180.0 if grid.is_geographic else d
+        step = float(np.median(np.abs(d)))
+        if np.max(np.abs(np.abs(d) - step)) > 1e-3 * step or abs(step - cell) > 1e-3 * cell:
+            raise SeawayInputError(
+                f"{where}: coordinate {dim.GetName()!r} is not evenly spaced (steps "
+                f"{np.min(np.abs(d)):g} to {np.max(np.abs(d)):g}); only regular grids are read"
+            )

@@ -268,6 +268,15 @@ class SeaStateSource:
         if combined:
             hs = s["hs"].values.copy()
             consulted["hs"].append("hs")
+            if parts:
+                from_parts = hs_m_from_partitions(p_hs)
+                fill = ~np.isfinite(hs) & np.isfinite(from_parts)
+                if fill.any():
+                    hs[fill] = from_parts[fill]
+                    partial |= fill
+                    notes.append(f"combined Hs missing at {int(fill.sum())} samples: "
+                                 "sqrt(sum of partition Hs^2) used")
+                consulted["hs"] += [f"{p}_hs" for p in parts]
         else:
             hs = hs_m_from_partitions(p_hs)
             consulted["hs"] += [f"{p}_hs" for p in parts]

@@ -228,6 +228,11 @@ def write_grib2(
         if data.shape != (t_s.size, lat.size, lon.size):
             raise SeawayInputError(f"variables[{name!r}] has shape {data.shape}, expected "
                                    f"({t_s.size}, {lat.size}, {lon.size})")
+        if not np.all(np.isfinite(data)):
+            raise SeawayInputError(
+                f"variables[{name!r}] holds NaN/inf: GRIB2 simple packing as written by GDAL 3.6 "
+                "cannot keep missing values (complex packing failed here); fill them or write NetCDF"
+            )
         for i in range(t_s.size):
             b += 1
             arr = data[i][::-1] if flip else data[i]
