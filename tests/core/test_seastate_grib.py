@@ -171,3 +171,30 @@ def test_writer_refuses_missing_values(tmp_path):
     hs[0, 3, 3] = np.nan
     with pytest.raises(SeawayInputError, match=r"variables\['hs'\] holds NaN"):
         write_grib2(str(tmp_path / "nan.grb2"), LON, LAT, TIMES, {"hs": hs})
+
+
+@pytest.mark.parametrize("fmt", ["grib2", "netcdf_jump"])
+def test_regional_grid_across_antimeridian(tmp_path, fmt):
+    # a Pacific grid 150E..150W; the field is linear in the eastward distance from 150E, so a route
+    # crossing 180 must see it continue smoothly (the grid's own 360-degree window, not a wrap)
+    from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+
+    lon = np.arange(150.0, 210.01, 1.0)
+    lat = np.arange(10.0, -10.01, -1.0)
+    h, la, lo = np.meshgrid(HOURS[:2], lat, lon, indexing="ij")
+    hs = 1.0 + 0.01 * (lo - 150.0)
+    if fmt == "grib2":
+        path = write_grib2(str(tmp_path / "pac.grb2"), lon, lat, TIMES[:2],
+                           {"hs": hs, "tp": 0 * h + 9.0, "dir": 0 * h + 90.0})
+    else:  # longitudes written in -180..180, jumping from 180 to -179 inside the file
+        path = write_cf_netcdf(str(tmp_path / "pac.nc"), np.where(lon > 180, lon - 360, lon), lat, TIMES[:2], {
+            "sea_surface_wave_significant_height": hs,
+            "sea_surface_wave_period_at_variance_spectral_density_maximum": 0 * h + 9.0,
+            "sea_surface_wave_from_direction": 0 * h + 90.0})
+    src = open_sea_state(path)
+    assert not src.inventory().variables[0].grid.global_wrap
+    qlon = np.array([179.5, -179.5, 175.0, -155.0, 151.0, -140.0])
+    r = src.sample(qlon, np.zeros(6), _at(np.zeros(6)))
+    east = np.mod(qlon - 150.0, 360.0)
+    np.testing.assert_allclose(r.hs_m[:5], 1.0 + 0.01 * east[:5], atol=PACK)
+    assert r.flags[5] & SampleFlag.OUTSIDE_GRID  # 140W lies east of the grid's 150W edge

@@ -41,10 +41,13 @@ def _wgs84_wkt() -> str:
     return srs.ExportToWkt()
 
 
-def _regular(name: str, v: np.ndarray) -> float:
+def _regular(name: str, v: np.ndarray, *, modulo_360: bool = False) -> float:
+    """The constant step of a coordinate (longitudes may jump by 360 at the antimeridian)."""
     if v.ndim != 1 or v.size < 2:
         raise SeawayInputError(f"{name} must be a 1-D array of at least 2 values, got shape {v.shape}")
     d = np.diff(v)
+    if modulo_360:
+        d = np.mod(d + 180.0, 360.0) - 180.0
     if not np.allclose(d, d[0], rtol=1e-6, atol=1e-9) or d[0] == 0:
         raise SeawayInputError(f"{name} must be regularly spaced, got steps {d[:5]}...")
     return float(d[0])
@@ -92,7 +95,7 @@ def write_cf_netcdf(
         lon = np.mod(lon, 360.0)
         order = np.argsort(lon, kind="stable")
         lon = lon[order]
-    _regular("lon_deg", lon)
+    _regular("lon_deg", lon, modulo_360=True)
     _regular("lat_deg", lat)
     unit_word, _, ref = time_units.partition(" since ")
     factor = {"seconds": 1, "minutes": 60, "hours": 3600, "days": 86400}.get(unit_word.strip())
@@ -172,8 +175,9 @@ def write_cf_netcdf(
     return path
 
 
-def _mem_dataset(lon: np.ndarray, lat: np.ndarray, nbands: int, wkt: str, gdt: int = 0):  # type: ignore[no-untyped-def]
-    dx = _regular("lon_deg", lon)
+def _mem_dataset(lon: np.ndarray, lat: np.ndarray, nbands: int, wkt: str, gdt: int = 0,  # type: ignore[no-untyped-def]
+                 geographic: bool = True):
+    dx = _regular("lon_deg", lon, modulo_360=geographic)
     dy = _regular("lat_deg", lat)
     mem = gdal.GetDriverByName("MEM").Create("", lon.size, lat.size, nbands, gdt or gdal.GDT_Float64)
     mem.SetProjection(wkt)
@@ -271,7 +275,8 @@ def write_geotiff_stack(
         raise SeawayInputError(f"values has shape {data.shape}, expected (nt, {ys.size}, {xs.size})")
     srs = osr.SpatialReference()
     srs.SetFromUserInput(crs)
-    mem = _mem_dataset(xs, ys, data.shape[0], srs.ExportToWkt(), gdal.GDT_Float32)
+    mem = _mem_dataset(xs, ys, data.shape[0], srs.ExportToWkt(), gdal.GDT_Float32,
+                       geographic=bool(srs.IsGeographic()))
     if variable in CF_STANDARD_NAMES:
         std = variable
     else:
