@@ -1,0 +1,208 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Where the chunks run: in this process, in a local process pool, or on a Dask cluster.
+
+Every backend maps :func:`.chunks.run_chunk` over the chunk tasks and returns the results in
+CHUNK ORDER; the reduction (:func:`.monthly.reduce_chunks`) sorts by chunk index and adds
+integers, so all backends give identical results.
+
+* :class:`SerialBackend` - one chunk after another in this process.
+* :class:`LocalPoolBackend` - :class:`concurrent.futures.ProcessPoolExecutor` with ``workers``
+  processes ("spawn" start method: no state of a host application such as QGIS is forked into
+  the workers; the interpreter is the Python executable found by :func:`python_executable`).
+* :class:`DaskBackend` - ``dask.distributed``: a user-supplied scheduler address
+  (``tcp://host:8786``) or, when none is given, a :class:`distributed.LocalCluster` of
+  ``workers`` processes (or threads with ``processes=False``). Dask is imported only here and
+  only when this backend is used; the workers need this package importable (a remote
+  cluster: install the plugin's folder on the workers' Python path) and numpy/scipy/pyproj/GDAL
+  but never QGIS. An unreachable scheduler raises :class:`..validation.SeawayInputError`; with
+  ``fallback_local=True`` the local pool is used instead and the fallback is stated in the
+  result's notes.
+
+Progress: ``progress(fraction) -> bool`` after each finished chunk; False cancels the rest
+(:class:`ClimateCancelled`).
+"""
+from __future__ import annotations
+
+import os
+import shutil
+import sys
+from dataclasses import dataclass, field
+from typing import Callable, List, Optional, Sequence
+
+from ..validation import SeawayInputError
+from .chunks import ChunkResult, ChunkTask, run_chunk
+
+__all__ = ["ClimateCancelled", "SerialBackend", "LocalPoolBackend", "DaskBackend", "make_backend",
+           "python_executable", "dask_available"]
+
+Progress = Callable[[float], Optional[bool]]
+
+
+class ClimateCancelled(Exception):
+    """The progress callback asked to stop."""
+
+
+def _tick(progress: Optional[Progress], done: int, total: int) -> None:
+    if progress is not None and progress(done / max(total, 1)) is False:
+        raise ClimateCancelled("seasonal climate computation cancelled")
+
+
+def dask_available() -> bool:
+    """True when ``dask.distributed`` can be imported."""
+    try:
+        import distributed  # noqa: F401
+    except Exception:
+        return False
+    return True
+
+
+def python_executable() -> str:
+    """A Python interpreter for worker processes.
+
+    ``sys.executable`` unless it is not a Python (inside QGIS it may be the QGIS binary); then
+    ``<exec_prefix>/bin/python3.X`` or ``python3`` on PATH.
+    """
+    exe = sys.executable or ""
+    base = os.path.basename(exe).lower()
+    if base.startswith("python"):
+        return exe
+    ver = f"python{sys.version_info.major}.{sys.version_info.minor}"
+    for cand in (os.path.join(sys.exec_prefix, "bin", ver), os.path.join(sys.exec_prefix, "python.exe"),
+                 os.path.join(sys.exec_prefix, "bin", "python3")):
+        if os.path.isfile(cand):
+            return cand
+    found = shutil.which(ver) or shutil.which("python3")
+    if not found:
+        raise SeawayInputError("no Python interpreter found for worker processes; use workers=1")
+    return found
+
+
+@dataclass(frozen=True)
+class SerialBackend:
+    """Run every chunk in this process."""
+
+    name: str = "serial"
+
+    def map(self, tasks: Sequence[ChunkTask], progress: Optional[Progress] = None) -> List[ChunkResult]:
+        out: List[ChunkResult] = []
+        for k, t in enumerate(tasks):
+            out.append(run_chunk(t))
+            _tick(progress, k + 1, len(tasks))
+        return out
+
+
+@dataclass(frozen=True)
+class LocalPoolBackend:
+    """A local process pool of ``workers`` processes (spawned, see module docstring)."""
+
+    workers: int = 2
+    name: str = "local"
+
+    def __post_init__(self) -> None:
+        if not isinstance(self.workers, int) or self.workers < 1:
+            raise SeawayInputError(f"workers must be a whole number >= 1, got {self.workers!r}")
+
+    def map(self, tasks: Sequence[ChunkTask], progress: Optional[Progress] = None) -> List[ChunkResult]:
+        if self.workers == 1 or len(tasks) <= 1:
+            return SerialBackend().map(tasks, progress)
+        import multiprocessing as mp
+        from concurrent.futures import ProcessPoolExecutor, as_completed
+
+        ctx = mp.get_context("spawn")
+        ctx.set_executable(python_executable())
+        results: List[Optional[ChunkResult]] = [None] * len(tasks)
+        with ProcessPoolExecutor(max_workers=min(self.workers, len(tasks)), mp_context=ctx) as ex:
+            futs = {ex.submit(run_chunk, t): k for k, t in enumerate(tasks)}
+            done = 0
+            try:
+                for f in as_completed(futs):
+                    results[futs[f]] = f.result()
+                    done += 1
+                    _tick(progress, done, len(tasks))
+            except BaseException:
+                for f in futs:
+                    f.cancel()
+                raise
+        return [r for r in results if r is not None]
+
+
+@dataclass(frozen=True)
+class DaskBackend:
+    """``dask.distributed`` cluster (module docstring). ``address`` None = a LocalCluster."""
+
+    address: Optional[str] = None
+    workers: int = 2
+    processes: bool = True
+    threads_per_worker: int = 1
+    fallback_local: bool = False
+    connect_timeout_s: float = 10.0
+    name: str = "dask"
+    notes: List[str] = field(default_factory=list, compare=False)
+
+    def _client(self):  # type: ignore[no-untyped-def]
+        try:
+            from distributed import Client, LocalCluster
+        except Exception as exc:
+            raise SeawayInputError(
+                f"the Dask backend needs the Python package 'distributed' (dask.distributed), which is "
+                f"not importable here ({exc}); install it or use the local backend"
+            ) from None
+        if self.address:
+            try:
+                client = Client(self.address, timeout=f"{float(self.connect_timeout_s)}s")
+            except (OSError, TimeoutError, ValueError) as exc:
+                raise SeawayInputError(
+                    f"the Dask scheduler at {self.address!r} cannot be reached "
+                    f"({type(exc).__name__}: {exc}); check the address (tcp://host:port) and that the "
+                    "scheduler runs"
+                ) from None
+            return client, None
+        cluster = LocalCluster(n_workers=int(self.workers), threads_per_worker=int(self.threads_per_worker),
+                               processes=bool(self.processes), dashboard_address=None)
+        return Client(cluster), cluster
+
+    def map(self, tasks: Sequence[ChunkTask], progress: Optional[Progress] = None) -> List[ChunkResult]:
+        try:
+            client, cluster = self._client()
+        except SeawayInputError as exc:
+            if not (self.fallback_local and self.address):
+                raise
+            self.notes.append(f"{exc}; computed on the local process pool instead (fallback requested)")
+            return LocalPoolBackend(workers=max(1, int(self.workers))).map(tasks, progress)
+        try:
+            from distributed import as_completed
+
+            futs = [client.submit(run_chunk, t, pure=False) for t in tasks]
+            pos = {f.key: k for k, f in enumerate(futs)}
+            results: List[Optional[ChunkResult]] = [None] * len(tasks)
+            done = 0
+            try:
+                for f in as_completed(futs):
+                    results[pos[f.key]] = f.result()
+                    done += 1
+                    _tick(progress, done, len(tasks))
+            except BaseException:
+                client.cancel(futs)
+                raise
+            return [r for r in results if r is not None]
+        finally:
+            client.close()
+            if cluster is not None:
+                cluster.close()
+
+
+def make_backend(kind: str = "local", *, workers: int = 2, scheduler: Optional[str] = None,
+                 fallback_local: bool = False, processes: bool = True):  # type: ignore[no-untyped-def]
+    """Backend by name: "serial", "local" (process pool) or "dask" (scheduler address or a
+    LocalCluster). A scheduler address implies "dask"."""
+    k = (kind or "local").lower()
+    if scheduler:
+        k = "dask"
+    if k == "serial":
+        return SerialBackend()
+    if k == "local":
+        return LocalPoolBackend(workers=int(workers))
+    if k == "dask":
+        return DaskBackend(address=scheduler or None, workers=int(workers), fallback_local=bool(fallback_local),
+                           processes=bool(processes))
+    raise SeawayInputError(f"backend must be 'serial', 'local' or 'dask', got {kind!r}")
