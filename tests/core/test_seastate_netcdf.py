@@ -396,3 +396,20 @@ def test_combined_gap_filled_from_partitions(tmp_path):
     assert r.hs_m[0] == pytest.approx(2.0, abs=1e-6)   # sqrt(1.2^2 + 1.6^2) = 2.0 (3-4-5 triangle)
     assert r.flags[0] & SampleFlag.PARTIAL_VARIABLES and r.valid[0]
     assert r.hs_m[1] == pytest.approx(linear_hs(100, 0, 1), abs=2e-5) and r.flags[1] == 0
+
+
+def test_directions_weighted_circular_mean(tmp_path):
+    # unequal weights in space and time: reference = arg(sum_k w_k exp(i theta_k)), the weighted
+    # mean direction (Mardia & Jupp 2000, s.2.2.1, from memory), evaluated with numpy complex numbers
+    h, la, lo = np.meshgrid(HOURS, LAT, LON, indexing="ij")
+    col_even = (np.round(lo / 2.5) % 2) == 0
+    dirs = np.where(col_even, 350.0, 40.0)
+    dirs = np.where(h >= 3.0, np.where(col_even, 300.0, 80.0), dirs)  # steps 1.. differ from step 0
+    path = write_cf_netcdf(str(tmp_path / "wdir.nc"), LON, LAT, TIMES,
+                           {HS: np.full(h.shape, 2.0), TP: np.full(h.shape, 9.0), DIR: dirs})
+    fx, wt = 0.3, 0.25                      # 30 % of the way to the odd column, 25 % of the way to 3 h
+    r = open_sea_state(path).sample([2.5 * 4 + fx * 2.5], [0.0], _hours([wt * 3.0]))
+    z = np.exp(1j * np.radians([350.0, 40.0, 300.0, 80.0]))
+    w = np.array([(1 - fx) * (1 - wt), fx * (1 - wt), (1 - fx) * wt, fx * wt])
+    want = np.degrees(np.angle(np.sum(w * z))) % 360.0
+    assert r.wave_from_deg[0] == pytest.approx(want, abs=1e-9)

@@ -27,7 +27,7 @@ from ..validation import SeawayInputError
 
 EARTH_MEAN_RADIUS_KM = 6371.0088
 """Mean Earth radius R1 = (2a + b)/3 of WGS 84 [km] (Moritz 2000, Geodetic Reference System 1980,
-J. Geodesy 74, 128-133), used for search distances only."""
+J. Geodesy 74, 128-133; value from memory), used for search distances only."""
 
 
 @dataclass(frozen=True)
@@ -182,7 +182,8 @@ def great_circle_km(lon1: FloatArray, lat1: FloatArray, lon2: FloatArray, lat2: 
     """Haversine distance on a sphere of radius :data:`EARTH_MEAN_RADIUS_KM` [km].
 
     d = 2 R asin(sqrt(sin^2(dphi/2) + cos phi1 cos phi2 sin^2(dlambda/2))) (Sinnott 1984,
-    "Virtues of the haversine", Sky & Telescope 68(2), 159). Used only for land-search radii.
+    "Virtues of the haversine", Sky & Telescope 68(2), 159; citation from memory). Used only for
+    land-search radii; the tests check the nearest cell against geographiclib's WGS 84 geodesics.
     """
     p1, p2 = np.radians(lat1), np.radians(lat2)
     dphi = p2 - p1

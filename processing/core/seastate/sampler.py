@@ -1,7 +1,7 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Space-time sampling of one sea-state layer at route samples (lon, lat, UTC time).
 
-Method, per sample:
+Method, per sample (section and equation numbers of the cited books are from memory):
 
 1. **Space**: bilinear interpolation between the four surrounding cell centres, in the grid's
    centre-index coordinates (:mod:`.grid`), with weights ``(1-fx)(1-fy), fx(1-fy), (1-fx)fy,
