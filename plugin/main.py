@@ -2,11 +2,33 @@
 """The QGIS plugin object: registers the Processing provider, menus and toolbar."""
 from __future__ import annotations
 
-from typing import Any, List, Optional
+import importlib
+from pathlib import Path
+from typing import Any, Callable, List, Optional
 
 from qgis.core import QgsApplication
+from qgis.PyQt.QtCore import QCoreApplication, QTranslator
+from qgis.PyQt.QtGui import QIcon
+from qgis.PyQt.QtWidgets import QAction, QMessageBox
 
-from ..processing.provider import SeawayComfortProvider
+from ..processing.core.flags import CAUTION
+from ..processing.provider import PROVIDER_ID, SeawayComfortProvider
+from .translation import install_translator, remove_translator
+
+ICON_PATH = Path(__file__).resolve().parent / "icons" / "seaway_comfort.svg"
+ROUTE_COMFORT_ALG = f"{PROVIDER_ID}:routecomfort"
+DESCRIBE_SEASTATE_ALG = f"{PROVIDER_ID}:describeseastate"
+
+
+def qgis_processing_module() -> Any:
+    """QGIS's own ``processing`` package (``execAlgorithmDialog`` lives there), imported late.
+
+    Imported by name through importlib, only when a menu entry is used: a plain
+    ``import processing`` statement anywhere in our package is forbidden by the layering and
+    Qt6 guards (it must never be confused with our own ``processing`` subpackage, which is only
+    reached by relative imports).
+    """
+    return importlib.import_module("processing")
 
 
 class SeawayComfortPlugin:
@@ -16,11 +38,22 @@ class SeawayComfortPlugin:
     ``qgis_process`` calls ``initProcessing`` only, with ``iface`` None.
     """
 
+    MENU = "&Seaway Comfort"
+
     def __init__(self, iface: Optional[Any]) -> None:
         self.iface = iface
         self.provider: Optional[SeawayComfortProvider] = None
-        self.actions: List[Any] = []
+        self.actions: List[QAction] = []
+        self.toolbar_actions: List[QAction] = []
+        self.translator: Optional[QTranslator] = None
+        self.vessel_dialog: Optional[Any] = None
 
+    @staticmethod
+    def tr(text: str) -> str:
+        """Translate ``text`` in this class's context (pylupdate5 files it under the class name)."""
+        return QCoreApplication.translate("SeawayComfortPlugin", text)
+
+    # ------------------------------------------------------------------ lifecycle
     def initProcessing(self) -> None:  # noqa: N802 (QGIS API name)
         if self.provider is not None:
             return
@@ -31,14 +64,101 @@ class SeawayComfortPlugin:
 
     def initGui(self) -> None:  # noqa: N802
         self.initProcessing()
+        if self.translator is None:
+            self.translator = install_translator()
+        if self.iface is None:
+            return
+        icon = QIcon(str(ICON_PATH))
+        self._add_action(
+            self.tr("Passage comfort along a route..."),
+            lambda: self.open_algorithm_dialog(ROUTE_COMFORT_ALG),
+            icon=icon,
+            tip=self.tr("Predict motions, comfort and guidance flags along a route from "
+                        "sea-state forecasts"),
+            toolbar=True,
+        )
+        self._add_action(
+            self.tr("Describe a forecast file..."),
+            lambda: self.open_algorithm_dialog(DESCRIBE_SEASTATE_ALG),
+            tip=self.tr("List the variables, grid and time steps of a sea-state file"),
+        )
+        self._add_action(
+            self.tr("Vessel profiles..."),
+            lambda: self.open_vessel_manager(),
+            tip=self.tr("Create, check and edit the vessel profiles the calculations use"),
+        )
 
     def unload(self) -> None:
+        if self.vessel_dialog is not None:
+            self.vessel_dialog.close()
+            self.vessel_dialog.deleteLater()
+            self.vessel_dialog = None
         for action in self.actions:
             if self.iface is not None:
-                self.iface.removePluginMenu("&Seaway Comfort", action)
-                self.iface.removeToolBarIcon(action)
+                self.iface.removePluginMenu(self.MENU, action)
+                if action in self.toolbar_actions:
+                    self.iface.removeToolBarIcon(action)
             action.deleteLater()
         self.actions = []
+        self.toolbar_actions = []
+        remove_translator(self.translator)
+        self.translator = None
         if self.provider is not None:
             QgsApplication.processingRegistry().removeProvider(self.provider)
             self.provider = None
+
+    # ------------------------------------------------------------------ slots
+    def open_algorithm_dialog(self, algorithm_id: str) -> bool:
+        """Open the Processing dialog of ``algorithm_id``; False (with a message) if not there."""
+        registry = QgsApplication.processingRegistry()
+        if registry.algorithmById(algorithm_id) is None:
+            self.show_message(
+                self.tr("Seaway Comfort"),
+                self.tr("The Processing algorithm {0} is not available. Check that the "
+                        "Seaway Comfort plugin is enabled and the Processing plugin is active "
+                        "(Plugins > Manage and Install Plugins).").format(algorithm_id),
+            )
+            return False
+        try:
+            qgis_processing = qgis_processing_module()
+        except ImportError as exc:
+            self.show_message(
+                self.tr("Seaway Comfort"),
+                self.tr("QGIS's Processing framework could not be loaded: {0}").format(exc),
+            )
+            return False
+        qgis_processing.execAlgorithmDialog(algorithm_id)
+        return True
+
+    def open_vessel_manager(self) -> None:
+        """Show the vessel-profile manager (modal)."""
+        from .vessel_manager import VesselManagerDialog
+
+        parent = self.iface.mainWindow() if self.iface is not None else None
+        if self.vessel_dialog is None:
+            self.vessel_dialog = VesselManagerDialog(parent=parent)
+        else:
+            self.vessel_dialog.reload()
+        self.vessel_dialog.exec()
+
+    def show_message(self, title: str, text: str) -> None:
+        """Warn the user (a separate method so tests can capture it)."""
+        parent = self.iface.mainWindow() if self.iface is not None else None
+        QMessageBox.warning(parent, title, text + "\n\n" + CAUTION)
+
+    # ------------------------------------------------------------------ helpers
+    def _add_action(self, text: str, slot: Callable[[], Any], *, icon: Optional[QIcon] = None,
+                    tip: str = "", toolbar: bool = False) -> QAction:
+        parent = self.iface.mainWindow()
+        action = QAction(icon, text, parent) if icon is not None else QAction(text, parent)
+        action.setObjectName("seaway_comfort_" + str(len(self.actions)))
+        if tip:
+            action.setStatusTip(tip)
+            action.setToolTip(tip)
+        action.triggered.connect(lambda _checked=False: slot())
+        self.iface.addPluginToMenu(self.MENU, action)
+        if toolbar:
+            self.iface.addToolBarIcon(action)
+            self.toolbar_actions.append(action)
+        self.actions.append(action)
+        return action
