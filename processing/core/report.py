@@ -186,10 +186,14 @@ def _leg_plot_png(leg: LegReport, labels: Sequence[str]) -> Optional[bytes]:
     ax2b.plot(hours, r.msi_pct, color="#c4572a", linestyle=":", label="MSI [%]")
     ax2b.set_ylabel("MSI 2 h [%]")
     cls = r.comfort_class
-    colours = [COMFORT_PALETTE[c] if c >= 0 else NOT_COMPUTED_COLOUR for c in cls]
-    widths = np.diff(np.append(hours, hours[-1] + (hours[-1] - hours[-2])))
-    ax3.bar(hours, np.where(cls >= 0, cls + 1, 0.4), width=widths, align="edge",
-            color=colours, edgecolor="none")
+    # one bar per run of equal class (a leg of 500 samples has a few dozen runs at most)
+    edges = np.append(hours, hours[-1] + (hours[-1] - hours[-2]))
+    starts = np.flatnonzero(np.concatenate(([True], cls[1:] != cls[:-1])))
+    ends = np.append(starts[1:], cls.size)
+    run_cls = cls[starts]
+    ax3.bar(edges[starts], np.where(run_cls >= 0, run_cls + 1, 0.4), width=edges[ends] - edges[starts],
+            align="edge", edgecolor="none",
+            color=[COMFORT_PALETTE[c] if c >= 0 else NOT_COMPUTED_COLOUR for c in run_cls])
     ax3.set_yticks(range(1, len(labels) + 1))
     ax3.set_yticklabels(labels, fontsize=7)
     ax3.set_ylabel("comfort")
