@@ -316,3 +316,50 @@ def test_summary_helpers(uniform_source, profile):
     assert s.worst_index is not None and r.comfort_class[s.worst_index] == r.comfort_class.max()
     assert s.flag_counts == r.flag_counts()
     assert s.distance_nm == pytest.approx(Geodesic.WGS84.Inverse(0, 0, 1, 0)["s12"] / 1852.0, abs=1e-6)
+
+
+def test_partitions_reach_the_response(tmp_path, profile):
+    """Wind sea + swell partitions go to the response as SeaPartitions (api called directly
+    gives the same numbers); a partition missing at a cell counts as absent (Hs 0, the api's
+    convention), never as a NaN sample."""
+    from seaway_comfort.processing.core.api import SeaPartitions, assess_motions
+
+    lon = np.arange(-2.0, 2.01, 0.5)
+    lat = np.arange(-2.0, 2.01, 0.5)
+    shape = (STEPS, lat.size, lon.size)
+    wind_hs = np.full(shape, 1.0)
+    wind_hs[:, :, lon < 0] = np.nan  # no wind sea west of 0 E
+    fields = {
+        HS: np.full(shape, math.sqrt(1.0 + 1.5**2)), TP: np.full(shape, 11.0), DIR: np.zeros(shape),
+        "sea_surface_wind_wave_significant_height": wind_hs,
+        "sea_surface_wind_wave_period_at_variance_spectral_density_maximum": np.full(shape, 5.0),
+        "sea_surface_wind_wave_from_direction": np.full(shape, 90.0),
+        "sea_surface_primary_swell_wave_significant_height": np.full(shape, 1.5),
+        "sea_surface_primary_swell_wave_period_at_variance_spectral_density_maximum": np.full(shape, 11.0),
+        "sea_surface_primary_swell_wave_from_direction": np.zeros(shape),
+    }
+    path = str(tmp_path / "parts.nc")
+    write_cf_netcdf(path, lon, lat, TIMES, fields)
+    src = open_sea_state(path)
+    try:
+        r = passage.compute_passage([-1.0, 1.0], [0.5, 0.5], departure_utc=T0, speed_kn=8.0, sea_states=[src],
+                                    profile=profile, spacing_nm=10.0, gamma=2.0, spread_s=5.0)
+    finally:
+        src.close()
+    assert r.computed.all(), r.flag_text()
+    assert r.partition_names == ("wind", "swell1")
+    n = r.n
+    east = r.lon_deg > 0.01
+    west = r.lon_deg < -0.51  # bilinear weights reach one cell (0.5 deg) into the gap
+    assert east.any() and west.any()
+    p_hs = np.column_stack([np.where(r.lon_deg > 0.0, 1.0, 0.0), np.full(n, 1.5)])
+    keep = east | west  # leave out samples whose interpolation cells straddle the wind-sea edge
+    parts = SeaPartitions(hs_m=p_hs[keep], tp_s=np.column_stack([np.full(n, 5.0), np.full(n, 11.0)])[keep],
+                          wave_from_deg=np.column_stack([np.full(n, 90.0), np.zeros(n)])[keep],
+                          gamma=np.array([2.0, 2.0]), spread_s=np.array([5.0, 5.0]), names=("wind", "swell1"))
+    direct = assess_motions(profile, course_deg=r.course_deg[keep], speed_m_s=np.full(keep.sum(), 8.0 * KNOT_M_S),
+                            partitions=parts)
+    for field in ("heave_rms_m", "roll_rms_deg", "vacc_rms_m_s2", "msi_pct"):
+        np.testing.assert_allclose(getattr(r, field)[keep], getattr(direct, field), rtol=1e-9, err_msg=field)
+    # the peak-component kinematics use the combined Tp (11 s, deep water: L0 = g T^2 / 2 pi)
+    np.testing.assert_allclose(r.wavelength_m, G_STANDARD_M_S2 * 11.0**2 / (2 * math.pi), rtol=1e-9)

@@ -305,3 +305,58 @@ def test_warning_summary_in_log(seaway_provider, sea, tmp_path):
     _run(_params(rt, sea, tmp_path), feedback=fb)
     joined = "\n".join(fb.lines)
     assert "OFFGRID" in joined and "outside the forecast grid" in joined
+
+
+def test_multipart_and_compare_mode(seaway_provider, sea, tmp_path):
+    """A MultiLineString gives one leg per part; compare mode gives one result per source."""
+    doc = {"type": "FeatureCollection", "features": [{"type": "Feature", "properties": {"name": "two parts"},
+           "geometry": {"type": "MultiLineString", "coordinates": [[[0.0, 0.0], [0.0, 0.3]], [[1.0, 0.0], [1.3, 0.0]]]}}]}
+    rt = tmp_path / "multi.geojson"
+    rt.write_text(json.dumps(doc))
+    res = _run(_params(str(rt), sea, tmp_path, SEA_STATE=[sea, sea], SOURCE_NAMES="first,second", SOURCE_MODE=1))
+    _, feats = _features(res["OUTPUT_POINTS"])
+    names = {f["leg_name"] for f in feats}
+    assert names == {"two parts (1) [first]", "two parts (1) [second]", "two parts (2) [first]", "two parts (2) [second]"}
+    assert {f["source"] for f in feats} == {"first", "second"}
+    one = [f for f in feats if f["leg_name"] == "two parts (1) [first]"]
+    two = [f for f in feats if f["leg_name"] == "two parts (1) [second]"]
+    assert [_num(f["msi_pct"]) for f in one] == [_num(f["msi_pct"]) for f in two]  # same file twice
+
+
+def test_post_processor_styles_loaded_outputs(seaway_provider, route, sea, tmp_path, qgis_new_project):
+    """runAndLoadResults loads the outputs and the post-processor styles them (QGIS platform
+    notes s.5: post-processors run only when outputs are loaded)."""
+    import processing
+    from qgis.core import QgsProject
+
+    processing.runAndLoadResults(ALG, _params(route, sea, tmp_path, OUTPUT_POINTS="TEMPORARY_OUTPUT",
+                                              OUTPUT_SEGMENTS=str(tmp_path / "seg_loaded.gpkg")))
+    layers = list(QgsProject.instance().mapLayers().values())
+    assert len(layers) == 2
+    for layer in layers:
+        assert layer.renderer().type() == "categorizedSymbol"
+        assert layer.temporalProperties().isActive()
+        assert "Planning aid" in layer.metadata().abstract()
+
+
+def test_vessel_from_user_profile_folder(seaway_provider, route, sea, tmp_path):
+    """VESSEL may name a profile stored in <QGIS settings dir>/seaway_comfort/vessels."""
+    import shutil
+
+    from seaway_comfort.processing.algorithms.common import user_vessel_dir
+    from seaway_comfort.processing.core.vessel import BUILTIN_DIR
+
+    folder = user_vessel_dir()
+    folder.mkdir(parents=True, exist_ok=True)
+    target = folder / "pytest_own_boat.json"
+    data = json.loads((BUILTIN_DIR / f"{VESSEL}.json").read_text())
+    data["name"] = "pytest_own_boat"
+    target.write_text(json.dumps(data))
+    try:
+        res = _run(_params(route, sea, tmp_path, VESSEL="pytest_own_boat"))
+        text = open(res["OUTPUT_REPORT"], encoding="utf-8").read()
+        assert "pytest_own_boat" in text
+    finally:
+        target.unlink()
+        if not any(folder.iterdir()):
+            shutil.rmtree(folder)
