@@ -124,9 +124,31 @@ def iso2631_wf_weighting(freq_hz: ArrayLike) -> FloatArray:
 
 
 def iso2631_wf_weighting_squared(freq_hz: ArrayLike) -> FloatArray:
-    """|Wf(f)|**2 (for weighting a spectrum inside the integral)."""
-    w = iso2631_wf_weighting(freq_hz)
-    return w * w
+    """|Wf(f)|**2, evaluated in real arithmetic (for weighting a spectrum inside the integral).
+
+    Same filter as :func:`iso2631_wf_weighting`, using |b - w**2 + j a w|**2 =
+    (b - w**2)**2 + a**2 w**2 for each second-order factor (w = 2 pi f).
+    """
+    f = require_nonnegative("freq_hz", freq_hz)
+    return _wf2_unchecked(2.0 * math.pi * f)
+
+
+def _wf2_unchecked(w: FloatArray) -> FloatArray:
+    """|Wf|**2 at angular frequency w = 2 pi f [rad/s] (no validation; used by response)."""
+    w1, w2, w4, w5, w6 = (2.0 * math.pi * _WF[k] for k in ("f1", "f2", "f4", "f5", "f6"))
+    q = 1.0 / math.sqrt(2.0)
+    x = w * w
+
+    def quad(wn: float, qn: float) -> FloatArray:
+        d = wn * wn - x
+        return d * d + (wn / qn) ** 2 * x
+
+    hh = x * x / quad(w1, q)
+    hl = w2**4 / quad(w2, q)
+    d4 = 1.0 - x / (w4 * w4)
+    ht = 1.0 / (d4 * d4 + x / (_WF["q4"] * w4) ** 2)
+    hs = quad(w5, _WF["q5"]) / quad(w6, _WF["q6"])
+    return np.asarray(hh * hl * ht * hs, dtype=float)
 
 
 def msdv_m_s15(aw_rms_m_s2: ArrayLike, duration_s: ArrayLike) -> FloatArray:

@@ -46,7 +46,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Optional
+from typing import Optional, Tuple
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -143,31 +143,34 @@ def jmo_heave_pitch(
     k = require_positive("k_rad_m", k_rad_m)
     U = require_nonnegative("speed_m_s", speed_m_s)
     c = cos_deg(as_float_array("rel_heading_deg", rel_heading_deg))
-    Beff = cb * B0 if breadth == "block" else B0
     omega_e = omega - k * U * c
+    heave, pitch = _jmo_core(omega, k, c, omega_e, L, cb * B0 if breadth == "block" else B0, T, kappa)
+    return HeavePitchTransfer(
+        heave_m_per_m=np.asarray(heave, dtype=float),
+        pitch_rad_per_m=np.asarray(pitch, dtype=float),
+        omega_e_rad_s=np.asarray(omega_e, dtype=float),
+    )
+
+
+def _jmo_core(omega: FloatArray, k: FloatArray, c: FloatArray, omega_e: FloatArray,
+              L: float, Beff: float, T: float, kappa: str) -> Tuple[FloatArray, FloatArray]:
+    """Unchecked JMO evaluation (inputs validated by the caller); c = cos mu."""
     alpha = omega_e / omega
     a2 = alpha * alpha
-    x = 0.5 * k * Beff * a2
     kta2 = k * T * a2
-    e2 = np.exp(-2.0 * kta2)
-    sinc2 = np.sinc(x / math.pi) ** 2
-    q3 = k * Beff * alpha * sinc2 * e2  # = A**2 / (k B alpha**3)
+    sinc2 = np.sinc((0.5 / math.pi) * k * Beff * a2) ** 2
+    q3 = (k * Beff) * alpha * sinc2 * np.exp(-2.0 * kta2)  # = A**2 / (k B alpha**3)
     q2 = q3 * alpha  # = A**2 / (k B alpha**2)
     one_kt = 1.0 - k * T
     f = np.sqrt(one_kt * one_kt + q3 * q3)
     ke = k * np.abs(c)
     kap = np.exp(-k * T) if kappa == "k" else np.exp(-ke * T)
     sigma = 0.5 * ke * L
-    kf = kap * f
-    F = kf * np.sinc(sigma / math.pi)
-    G = kf * (6.0 / L) * sigma * _cube_ratio(sigma)
     d = 1.0 - 2.0 * kta2
-    eta = 1.0 / np.sqrt(d * d + q2 * q2)
-    return HeavePitchTransfer(
-        heave_m_per_m=np.asarray(eta * np.abs(F), dtype=float),
-        pitch_rad_per_m=np.asarray(eta * np.abs(G), dtype=float),
-        omega_e_rad_s=np.asarray(omega_e, dtype=float),
-    )
+    eta_kf = kap * f / np.sqrt(d * d + q2 * q2)
+    heave = eta_kf * np.abs(np.sinc(sigma / math.pi))
+    pitch = eta_kf * (6.0 / L) * np.abs(sigma * _cube_ratio(sigma))
+    return heave, pitch
 
 
 def effective_slope_factor(
@@ -215,11 +218,27 @@ def roll_transfer_rad_per_m(
     tr = _scalar_pos("roll_period_s", roll_period_s)
     zeta = _scalar_pos("damping_ratio", damping_ratio)
     k = require_positive("k_rad_m", k_rad_m)
-    we = np.abs(as_float_array("omega_e_rad_s", omega_e_rad_s))
-    r = effective_slope_factor(k, rel_heading_deg, beam_m, draught_m, slope_reduction)
-    q = we * (tr / (2.0 * math.pi))
-    den = np.sqrt((1.0 - q * q) ** 2 + (2.0 * zeta * q) ** 2)
-    return np.asarray(r * k * _sin_deg_abs(rel_heading_deg) / den, dtype=float)
+    we = as_float_array("omega_e_rad_s", omega_e_rad_s)
+    if slope_reduction not in _SLOPE:
+        raise SeawayInputError(f"slope_reduction must be one of {_SLOPE}, got {slope_reduction!r}")
+    B = _scalar_pos("beam_m", beam_m)
+    T = _scalar_pos("draught_m", draught_m)
+    sa = _sin_deg_abs(as_float_array("rel_heading_deg", rel_heading_deg))
+    return np.asarray(_roll_core(k, sa, we, tr, zeta, B, T, slope_reduction), dtype=float)
+
+
+def _roll_core(k: FloatArray, abs_sin: FloatArray, omega_e: FloatArray, tr: float, zeta: float,
+               B: float, T: float, mode: str) -> FloatArray:
+    """Unchecked roll evaluation (inputs validated by the caller)."""
+    q = omega_e * (tr / (2.0 * math.pi))
+    q2 = q * q
+    den = np.sqrt((1.0 - q2) ** 2 + (4.0 * zeta * zeta) * q2)
+    slope = k * abs_sin
+    if mode != "none":
+        slope = slope * (3.0 * _cube_ratio((0.5 * B) * slope))
+        if mode == "beam_draught":
+            slope = slope * np.exp(-k * T)
+    return slope / den
 
 
 def imo_roll_period_s(beam_m: ArrayLike, draught_m: ArrayLike, length_wl_m: ArrayLike, gm_m: ArrayLike) -> FloatArray:
@@ -277,7 +296,7 @@ class ClosedFormTransfer:
 
     Common interface with :class:`.rao_table.TableTransfer`: ``evaluate(omega, k, mu, U,
     omega_e)`` returns :class:`MotionTransfer`; ``validity(U)`` returns the per-sample mask;
-    ``coverage_fraction`` is None (no frequency range limit).
+    ``covered(omega)`` is None (no frequency range limit).
     """
 
     length_m: float
@@ -315,9 +334,19 @@ class ClosedFormTransfer:
         return MotionTransfer(hp.heave_m_per_m, hp.pitch_rad_per_m,
                               np.broadcast_to(roll, hp.heave_m_per_m.shape))
 
+    def evaluate_grid(self, omega_rad_s: FloatArray, k_rad_m: FloatArray, rel_heading_deg: FloatArray,
+                      cos_mu: FloatArray, abs_sin_mu: FloatArray, omega_e_rad_s: FloatArray) -> MotionTransfer:
+        """Unchecked fast path for :mod:`.response` (validated inputs, broadcasting shapes)."""
+        beff = self.block_coeff * self.beam_m if self.breadth == "block" else self.beam_m
+        heave, pitch = _jmo_core(omega_rad_s, k_rad_m, cos_mu, omega_e_rad_s, self.length_m, beff,
+                                 self.draught_m, self.kappa)
+        roll = _roll_core(k_rad_m, abs_sin_mu, omega_e_rad_s, self.roll_period_s,
+                          self.roll_damping_ratio, self.beam_m, self.draught_m, self.slope_reduction)
+        return MotionTransfer(heave, pitch, roll)
+
     def validity(self, speed_m_s: ArrayLike) -> NDArray[np.bool_]:
         return jmo_validity_mask(speed_m_s, self.length_m, self.beam_m, self.draught_m, g_m_s2=self.g_m_s2)
 
-    def coverage_fraction(self, omega_rad_s: FloatArray) -> Optional[FloatArray]:
+    def covered(self, omega_rad_s: FloatArray) -> Optional[NDArray[np.bool_]]:
         """Closed form covers every frequency: None."""
         return None

@@ -13,6 +13,7 @@ from seaway_comfort.processing.core.comfort import (
     COMFORT_CLASS_LABELS,
     comfort_class,
     iso2631_wf_weighting,
+    iso2631_wf_weighting_squared,
     msdv_cumulative,
     msdv_m_s15,
     msi_percent,
@@ -106,3 +107,9 @@ def test_bad_inputs():
         msi_percent(1.0, 0.0)
     with pytest.raises(SeawayInputError, match="omega_e_rad_s"):
         msi_percent(1.0, float("nan"))
+
+
+def test_wf_squared_real_form_equals_complex_filter():
+    # algebraic identity |b - w^2 + j a w|^2 = (b - w^2)^2 + a^2 w^2 (common practice, no source)
+    f = np.geomspace(0.005, 5.0, 200)
+    np.testing.assert_allclose(iso2631_wf_weighting_squared(f), iso2631_wf_weighting(f) ** 2, rtol=1e-12)

@@ -1,0 +1,196 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Spectral response in the encounter domain (integration over absolute frequency)."""
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+
+from seaway_comfort.processing.core.comfort import mean_abs_from_rms, msdv_m_s15, msi_percent, vomiting_share_pct
+from seaway_comfort.processing.core.numerics import trapezoid_weights
+from seaway_comfort.processing.core.response import motion_response, unit_moments
+from seaway_comfort.processing.core.spectra import FrequencyGrid
+from seaway_comfort.processing.core.transfer import ClosedFormTransfer
+from seaway_comfort.processing.core.validation import SeawayInputError
+from seaway_comfort.processing.core.vessel import Station, builtin_profile
+
+G = 9.81
+# methods.md s.4.6 [D]: vessel A (L 12, B0 4, T 1, Cb 0.45), long-crested JONSWAP Hs 1.5, Tp 6,
+# gamma 3.3 (DNV A_gamma normalisation), U 4 m/s, trapezoid on omega in [0.1, 6.0] with 59 001
+# points, g 9.81; accelerations at x = 0 and x = 4.8 m with the quadrature rule; MSI with
+# mean|a| = sqrt(2/pi) sigma_a (Lloyd 1989 form). Reproduced there by a second implementation.
+_OM = np.linspace(0.1, 6.0, 59001)
+GRID = FrequencyGrid(_OM, trapezoid_weights(_OM))
+STATIONS = [Station("mid", 0.0), Station("fwd", 4.8)]
+
+
+def _vessel_a(kappa: str, slope: str = "beam_draught") -> ClosedFormTransfer:
+    return ClosedFormTransfer(12.0, 4.0, 1.0, 0.45, 4.1129, 0.1, kappa=kappa, slope_reduction=slope, g_m_s2=G)
+
+
+def _run(tr, mu, speed=4.0):
+    return motion_response(tr, STATIONS, hs_m=1.5, tp_s=6.0, wave_from_deg=mu - 180.0, course_deg=0.0,
+                           speed_m_s=speed, long_crested=True, g_m_s2=G, frequency_grid=GRID,
+                           normalise_spectrum=False)
+
+
+ROWS_KE = [  # mu, heave, pitch deg, sa0, wz0, msi0, sa48, wz48, msi48 (kappa = exp(-ke T))
+    (180, 0.4626, 4.116, 1.4971, 2.0279, 21.61, 2.1080, 2.1792, 29.77),
+    (135, 0.4728, 3.218, 1.4361, 2.0252, 20.37, 1.8423, 2.1512, 25.61),
+    (90, 0.4602, 0.0, 1.0252, 2.0491, 11.26, 1.0252, 2.0491, 11.26),
+    (45, 0.3053, 1.816, 0.1711, 0.7632, None, None, None, None),
+    (0, 0.2661, 2.099, 0.0938, 0.6000, None, None, None, None),
+]
+ROWS_K = [  # recommended kappa = exp(-kT)
+    (135, 0.4528, 3.038, 1.3528, 2.0088, 18.92, 1.7255, 2.1312, 23.86),
+    (90, 0.3862, 0.0, 0.7248, 1.7324, 8.74, 0.7248, 1.7324, 8.74),
+    (45, 0.2941, 1.717, 0.1641, 0.7607, None, 0.1875, 0.7722, None),
+]
+
+
+def _half_unit(v: float) -> float:
+    """Half a unit of the last printed digit of a table value (methods.md default tolerance)."""
+    s = f"{v}"
+    dec = len(s.split(".")[1]) if "." in s else 0
+    return 0.5 * 10 ** (-dec) + 1e-12
+
+
+@pytest.mark.parametrize("kappa, row", [("ke", r) for r in ROWS_KE] + [("k", r) for r in ROWS_K])
+def test_integrated_responses_methods_4_6(kappa, row):
+    mu, heave, pitch, sa0, wz0, msi0, sa48, wz48, msi48 = row
+    r = _run(_vessel_a(kappa), mu)
+    assert r.heave_rms_m[0] == pytest.approx(heave, abs=_half_unit(heave))
+    assert r.pitch_rms_deg[0] == pytest.approx(pitch, abs=_half_unit(pitch))
+    assert r.vacc_rms_m_s2[0, 0] == pytest.approx(sa0, abs=_half_unit(sa0))
+    assert r.vacc_omega_rad_s[0, 0] == pytest.approx(wz0, abs=_half_unit(wz0))
+    if msi0 is not None:
+        m = msi_percent(mean_abs_from_rms(r.vacc_rms_m_s2[0, 0]), r.vacc_omega_rad_s[0, 0])
+        assert float(m) == pytest.approx(msi0, abs=_half_unit(msi0))
+    if sa48 is not None:
+        assert r.vacc_rms_m_s2[0, 1] == pytest.approx(sa48, abs=_half_unit(sa48))
+        assert r.vacc_omega_rad_s[0, 1] == pytest.approx(wz48, abs=_half_unit(wz48))
+    if msi48 is not None:
+        m = msi_percent(mean_abs_from_rms(r.vacc_rms_m_s2[0, 1]), r.vacc_omega_rad_s[0, 1])
+        assert float(m) == pytest.approx(msi48, abs=_half_unit(msi48))
+    assert np.all(np.isfinite(r.heave_tz_s)) and r.flags[0] == 0
+
+
+@pytest.mark.parametrize("kappa, mu, aw, msdv, vomit", [
+    ("ke", 180, 0.9877, 83.81, 27.9), ("ke", 90, 0.7407, 62.85, 21.0),
+    ("k", 135, 0.9139, 77.55, 25.8), ("k", 90, 0.5778, 49.03, 16.3),
+])
+def test_wf_weighted_acceleration_and_dose(kappa, mu, aw, msdv, vomit):
+    # methods.md s.4.6 [D]: ISO 2631-1 Wf at |omega_e|/2pi inside the integral; MSDV(2 h) and
+    # Km = 1/3 (ISO 2631-1:1997 Annex D).
+    r = _run(_vessel_a(kappa), mu)
+    a = r.vacc_wf_rms_m_s2[0, 0]
+    assert a == pytest.approx(aw, abs=_half_unit(aw))
+    d = float(msdv_m_s15(a, 7200.0))
+    assert d == pytest.approx(msdv, abs=0.01)
+    assert float(vomiting_share_pct(d)) == pytest.approx(vomit, abs=0.06)
+
+
+def test_simple_roll_irregular():
+    # methods.md s.4.6 [D]: simple roll model (r = 1), vessel A at zero speed in beam seas,
+    # same spectrum: roll sigma = 10.15 deg.
+    r = _run(_vessel_a("k", "none"), 90, speed=0.0)
+    assert r.roll_rms_deg[0] == pytest.approx(10.15, abs=0.005)
+    # lateral specific force at z = 0 is g * roll (common practice, no source: g*phi term)
+    assert r.lacc_rms_m_s2[0, 0] == pytest.approx(G * math.radians(r.roll_rms_deg[0]), rel=1e-12)
+
+
+@pytest.mark.parametrize("mu, m2e", [(180.0, 0.78806), (90.0, 0.25335), (0.0, 0.08189)])
+def test_wave_encounter_moments_methods_3_3(mu, m2e):
+    # methods.md s.3.3 [D]: wave elevation (H = 1), JONSWAP Hs 2, Tp 8, gamma 3.3, U 5 m/s, deep
+    # water, trapezoid on [0.05, 8.0] rad/s with 400 001 points, g 9.80665: m0 0.25058 and m2e.
+    om = np.linspace(0.05, 8.0, 400001)
+    fg = FrequencyGrid(om, trapezoid_weights(om))
+    tr = ClosedFormTransfer(12.0, 4.0, 1.0, 0.45, 4.1129, 0.1)
+    um = unit_moments(tr, np.array([[8.0]]), np.array([[mu]]), np.array([5.0]), None, np.array([3.3]),
+                      np.array([0.0]), long_crested=True, frequency_grid=fg, normalise_spectrum=False,
+                      g_m_s2=9.80665)
+    assert um.m[0, 0, 3, 0] * 4.0 == pytest.approx(0.25058, abs=5e-6)
+    assert um.m[0, 0, 3, 1] * 4.0 == pytest.approx(m2e, abs=5e-6)
+
+
+def test_variance_scales_with_hs_squared_and_periods_do_not():
+    # linear seakeeping superposition (PNA vol. III ch. 8): sigma proportional to Hs.
+    p = builtin_profile("coastal_survey_35m")
+    tr = ClosedFormTransfer.from_profile(p)
+    hs = np.array([0.5, 1.0, 3.0])
+    r = motion_response(tr, p.stations, hs_m=hs, tp_s=7.0, wave_from_deg=30.0, course_deg=200.0, speed_m_s=4.0)
+    for f in ("heave_rms_m", "pitch_rms_deg", "roll_rms_deg"):
+        np.testing.assert_allclose(getattr(r, f) / hs, getattr(r, f)[1], rtol=1e-12)
+    np.testing.assert_allclose(r.vacc_rms_m_s2 / hs[:, None], np.broadcast_to(r.vacc_rms_m_s2[1], (3, 4)), rtol=1e-12)
+    np.testing.assert_allclose(r.heave_tz_s, r.heave_tz_s[1], rtol=1e-12)
+
+
+def test_partitions_add_variances():
+    # independent seas: variances add (PNA vol. III ch. 8).
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    kw = dict(course_deg=40.0, speed_m_s=3.0, gamma=[3.3, 5.0], spread_s=[4.0, 10.0])
+    both = motion_response(tr, p.stations, hs_m=[[1.0, 0.7]], tp_s=[[5.0, 10.0]], wave_from_deg=[[0.0, 250.0]], **kw)
+    a = motion_response(tr, p.stations, hs_m=[[1.0, 0.0]], tp_s=[[5.0, 10.0]], wave_from_deg=[[0.0, 250.0]], **kw)
+    b = motion_response(tr, p.stations, hs_m=[[0.0, 0.7]], tp_s=[[5.0, 10.0]], wave_from_deg=[[0.0, 250.0]], **kw)
+    for f in ("heave_rms_m", "roll_rms_deg", "vacc_rms_m_s2", "lacc_rms_m_s2", "vacc_wf_rms_m_s2"):
+        np.testing.assert_allclose(getattr(both, f) ** 2, getattr(a, f) ** 2 + getattr(b, f) ** 2, rtol=1e-12)
+
+
+def test_zero_speed_head_equals_following():
+    # common practice, no source: at U = 0 a fore-aft symmetric box responds alike to head and
+    # following seas (short-crested, symmetric spreading).
+    p = builtin_profile("ocean_research_70m")
+    tr = ClosedFormTransfer.from_profile(p)
+    r = motion_response(tr, p.stations, hs_m=2.0, tp_s=[9.0, 9.0], wave_from_deg=[0.0, 180.0], course_deg=0.0, speed_m_s=0.0)
+    np.testing.assert_allclose(r.heave_rms_m[0], r.heave_rms_m[1], rtol=1e-10)
+    np.testing.assert_allclose(r.pitch_rms_deg[0], r.pitch_rms_deg[1], rtol=1e-10)
+
+
+def test_long_waves_heave_tends_to_wave_sigma():
+    # heave RAO -> 1 in long waves (JMO 2004 long-wave limit): heave sigma -> Hs/4.
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    r = motion_response(tr, p.stations, hs_m=2.0, tp_s=40.0, wave_from_deg=0.0, course_deg=0.0, speed_m_s=0.0)
+    assert r.heave_rms_m[0] == pytest.approx(0.5, rel=0.01)
+
+
+def test_calm_and_zero_motions_are_finite():
+    # module docstring rules: calm -> zero RMS, finite periods; pitch in long-crested beam seas
+    # is zero and reports the waves' encounter period.
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    r = motion_response(tr, p.stations, hs_m=[0.0, 1.0], tp_s=6.0, wave_from_deg=270.0, course_deg=0.0,
+                        speed_m_s=2.0, long_crested=True)
+    assert r.heave_rms_m[0] == 0.0 and r.vacc_rms_m_s2[0, 0] == 0.0
+    assert r.pitch_rms_deg[1] == 0.0
+    for f in ("heave_tz_s", "pitch_tz_s", "roll_tz_s"):
+        assert np.all(np.isfinite(getattr(r, f))) and np.all(getattr(r, f) > 0)
+    assert np.all(np.isfinite(r.vacc_omega_rad_s)) and np.all(r.vacc_omega_rad_s > 0)
+
+
+def test_validity_flag_for_high_froude_number():
+    # transfer.py documented range Fn <= 0.4: 12 m hull at 6 m/s has Fn 0.55.
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    r = motion_response(tr, p.stations, hs_m=1.0, tp_s=6.0, wave_from_deg=0.0, course_deg=0.0, speed_m_s=[2.0, 6.0])
+    assert r.flags[0] == 0 and r.flags[1] == 512  # SampleFlag.OUTSIDE_VALIDITY
+
+
+@pytest.mark.parametrize("arg", ["hs_m", "tp_s", "wave_from_deg", "course_deg", "speed_m_s", "depth_m"])
+def test_nan_inputs_raise_naming_the_argument(arg):
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    kw = dict(hs_m=[1.0, 1.0], tp_s=[6.0, 6.0], wave_from_deg=[0.0, 0.0], course_deg=[0.0, 0.0],
+              speed_m_s=[1.0, 1.0], depth_m=[20.0, 20.0])
+    kw[arg] = [1.0, float("nan")]
+    with pytest.raises(SeawayInputError, match=arg):
+        motion_response(tr, p.stations, **kw)
+
+
+def test_negative_hs_raises():
+    p = builtin_profile("harbour_workboat_12m")
+    with pytest.raises(SeawayInputError, match="hs_m must be >= 0"):
+        motion_response(ClosedFormTransfer.from_profile(p), p.stations, hs_m=-1.0, tp_s=6.0,
+                        wave_from_deg=0.0, course_deg=0.0, speed_m_s=1.0)
