@@ -180,9 +180,9 @@ def effective_slope_factor(
     draught_m: float,
     mode: str = "beam_draught",
 ) -> FloatArray:
-    """Effective wave-slope reduction r for roll (dimensionless, 0 < r <= 1).
+    """Effective wave-slope reduction r for roll (dimensionless, 0 <= r <= 1).
 
-    "beam_draught": r = 3 (sin y - y cos y)/y**3 exp(-k T), y = k |sin mu| B/2 (beam average of
+    "beam_draught": r = |3 (sin y - y cos y)/y**3| exp(-k T), y = k |sin mu| B/2 (beam average of
     the slope of a cosine wave, and the exp(-kT) pressure decay; our documented choice after
     Lloyd 1989 ch. 9); "beam": without exp(-kT); "none": r = 1.
     """
@@ -193,7 +193,7 @@ def effective_slope_factor(
         return np.ones(np.broadcast_shapes(k.shape, np.shape(rel_heading_deg)))
     B = _scalar_pos("beam_m", beam_m)
     y = 0.5 * k * _sin_deg_abs(rel_heading_deg) * B
-    r = 3.0 * _cube_ratio(y)
+    r = np.abs(3.0 * _cube_ratio(y))  # amplitude: the beam average changes sign for y > 4.49
     if mode == "beam_draught":
         r = r * np.exp(-k * _scalar_pos("draught_m", draught_m))
     return np.asarray(r, dtype=float)
@@ -235,7 +235,7 @@ def _roll_core(k: FloatArray, abs_sin: FloatArray, omega_e: FloatArray, tr: floa
     den = np.sqrt((1.0 - q2) ** 2 + (4.0 * zeta * zeta) * q2)
     slope = k * abs_sin
     if mode != "none":
-        slope = slope * (3.0 * _cube_ratio((0.5 * B) * slope))
+        slope = slope * np.abs(3.0 * _cube_ratio((0.5 * B) * slope))
         if mode == "beam_draught":
             slope = slope * np.exp(-k * T)
     return slope / den

@@ -146,3 +146,13 @@ def test_bad_inputs():
         jmo_heave_pitch(np.array([np.nan]), K[:1], 180, 1.0, **A)
     with pytest.raises(SeawayInputError, match="speed_m_s"):
         jmo_heave_pitch(W, K, 180, -1.0, **A)
+
+
+def test_slope_factor_is_an_amplitude():
+    # 3(sin y - y cos y)/y^3 changes sign at y = 4.4934 (first root of tan y = y, a standard
+    # result; common practice, no source): the reduction factor must stay >= 0.
+    k = np.array([2 * 4.0 / 4.0, 2 * 6.0 / 4.0])  # y = 4 and 6 for B = 4 at beam seas
+    r = effective_slope_factor(k, 90, 4.0, 1.0, "beam")
+    assert np.all(r >= 0) and r[1] == pytest.approx(abs(3 * (np.sin(6) - 6 * np.cos(6)) / 216), rel=1e-12)
+    roll = roll_transfer_rad_per_m(k, 90, np.sqrt(9.81 * k), 4.0, 0.1, 4.0, 1.0)
+    assert np.all(roll >= 0)

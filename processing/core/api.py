@@ -1,0 +1,353 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""One-call facade: motions, comfort indices, criteria and guidance flags at one station.
+
+Pipeline: sea state(s) -> encounter with the vessel -> spectral motion response
+(:mod:`.response`, or the tabulated fast path :mod:`.tables`) -> MSI (:mod:`.comfort`),
+NORDFORSK criteria (:mod:`.criteria`), comfort class, IMO MSC.1/Circ.1228 flags
+(:mod:`.safety`).
+
+Every result carries :data:`.flags.CAUTION`: a planning aid, not a substitute for the
+master's judgement, official forecasts and warnings, or local rules and regulations.
+
+Example (QGIS Python console or a notebook; inside QGIS the package is the installed plugin,
+e.g. ``import seaway_comfort``)::
+
+    import numpy as np
+    from seaway_comfort.processing.core.api import assess_motions
+    from seaway_comfort.processing.core.vessel import builtin_profile
+
+    boat = builtin_profile("harbour_workboat_12m")
+    res = assess_motions(boat, hs_m=[0.8, 1.2, 1.6], tp_s=[5.0, 6.0, 7.0],
+                         wave_from_deg=[250.0, 260.0, 270.0], course_deg=90.0,
+                         speed_m_s=3.5, station="wheelhouse")
+    print(res.vacc_rms_m_s2, res.msi_pct, res.comfort_class, res.flags)
+    print(res.caution)
+"""
+from __future__ import annotations
+
+import math
+from collections import OrderedDict
+from dataclasses import dataclass, field
+from typing import Any, Dict, Optional, Tuple
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from .comfort import mean_abs_from_rms, comfort_class as _comfort_class, msi_percent
+from .criteria import evaluate_criteria
+from .flags import CAUTION, SampleFlag
+from .heading import relative_heading_deg
+from .rao_table import TableTransfer, load_rao_table
+from .response import MotionResponse, combine_quantities, motion_response, prepare_sea, validity_flags
+from .safety import circ1228_flags
+from .tables import ResponseTableSet, build_response_table_set
+from .transfer import ClosedFormTransfer
+from .units import G_STANDARD_M_S2, FloatArray
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .vessel import VesselProfile
+
+__all__ = ["SeaPartitions", "MotionAssessment", "assess_motions", "transfer_model", "AUTO_TABLE_MIN_SAMPLES"]
+
+AUTO_TABLE_MIN_SAMPLES = 2000
+"""method=None uses the exact path below this many samples and the tables from it on."""
+_TABLE_CACHE: "OrderedDict[Any, ResponseTableSet]" = OrderedDict()
+_TABLE_CACHE_SIZE = 8
+
+
+@dataclass(frozen=True)
+class SeaPartitions:
+    """Sea-state partitions for n samples: hs_m, tp_s, wave_from_deg (n, p) [m, s, deg true
+    "from"]; gamma, spread_s (p,) JONSWAP gamma and cos-2s exponent; names (p,) labels.
+    hs_m = 0 marks an absent partition."""
+
+    hs_m: FloatArray
+    tp_s: FloatArray
+    wave_from_deg: FloatArray
+    gamma: FloatArray
+    spread_s: FloatArray
+    names: Tuple[str, ...]
+
+    def __post_init__(self) -> None:
+        hs, tp, wf = prepare_sea(self.hs_m, self.tp_s, self.wave_from_deg)
+        p = hs.shape[1]
+        gam = np.atleast_1d(as_float_array("gamma", self.gamma)).astype(float)
+        spr = np.atleast_1d(require_nonnegative("spread_s", self.spread_s)).astype(float)
+        if gam.shape != (p,) or spr.shape != (p,) or len(self.names) != p:
+            raise SeawayInputError(
+                f"SeaPartitions: {p} partitions in hs_m, but gamma {gam.shape}, spread_s {spr.shape}, "
+                f"names {len(self.names)}"
+            )
+        if np.any(gam < 1.0):
+            raise SeawayInputError(f"SeaPartitions gamma must be >= 1, got {gam[gam < 1][0]!r}")
+        for k, v in (("hs_m", hs), ("tp_s", tp), ("wave_from_deg", wf), ("gamma", gam), ("spread_s", spr)):
+            object.__setattr__(self, k, v)
+        object.__setattr__(self, "names", tuple(str(x) for x in self.names))
+
+
+@dataclass(frozen=True)
+class MotionAssessment:
+    """Results at one station for n samples ((n,) arrays unless stated).
+
+    heave_rms_m, pitch_rms_deg, roll_rms_deg: RMS motions; *_tz_s: mean zero-crossing
+    encounter periods; vacc_rms_m_s2 / lacc_rms_m_s2: RMS vertical acceleration / lateral
+    specific force at the station; vacc_wf_rms_m_s2: ISO 2631-1 Wf-weighted RMS vertical
+    acceleration (accumulate MSDV with :func:`.comfort.msdv_cumulative`); vacc_omega_rad_s:
+    mean encounter frequency sqrt(m2/m0) of the vertical acceleration (used for MSI);
+    msi_pct: motion sickness incidence for ``exposure_h``; comfort_class: int64 0..4
+    (:data:`.comfort.COMFORT_CLASS_LABELS`); flags: int64 SampleFlag mask; criteria_margin:
+    criterion -> 1 - value/limit; roll_period_s: natural roll period used; station, task,
+    method ("exact" or "table"); caution: the planning-aid caution text.
+    """
+
+    heave_rms_m: FloatArray
+    pitch_rms_deg: FloatArray
+    roll_rms_deg: FloatArray
+    heave_tz_s: FloatArray
+    pitch_tz_s: FloatArray
+    roll_tz_s: FloatArray
+    vacc_rms_m_s2: FloatArray
+    lacc_rms_m_s2: FloatArray
+    vacc_wf_rms_m_s2: FloatArray
+    vacc_omega_rad_s: FloatArray
+    msi_pct: FloatArray
+    comfort_class: NDArray[np.int64]
+    flags: NDArray[np.int64]
+    criteria_margin: Dict[str, FloatArray]
+    roll_period_s: float
+    station: str
+    method: str
+    task: str = ""
+    exposure_h: float = 2.0
+    caution: str = field(default=CAUTION)
+
+
+def transfer_model(profile: VesselProfile, *, g_m_s2: float = G_STANDARD_M_S2) -> Any:
+    """The profile's transfer model: its RAO table when one is set, else the closed form."""
+    path = profile.rao_table_path()
+    if path is not None:
+        return TableTransfer(load_rao_table(path))
+    return ClosedFormTransfer.from_profile(profile, g_m_s2=g_m_s2)
+
+
+def _vec(name: str, v: ArrayLike, n: int, *, nonneg: bool = False) -> FloatArray:
+    a = require_nonnegative(name, v) if nonneg else as_float_array(name, v)
+    a = np.atleast_1d(a).reshape(-1)
+    if a.size not in (1, n):
+        raise SeawayInputError(f"{name} has {a.size} values, expected 1 or {n} (one per sample)")
+    return np.ascontiguousarray(np.broadcast_to(a, (n,)), dtype=float)
+
+
+def _table_set(profile: VesselProfile, transfer: Any, speeds: FloatArray, depths: Optional[FloatArray],
+               gamma: float, spread: float, long_crested: bool, n_freq: int, n_dir: int) -> ResponseTableSet:
+    key = (profile, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
+           gamma, spread, long_crested, n_freq, n_dir)
+    hit = _TABLE_CACHE.get(key)
+    if hit is not None:
+        _TABLE_CACHE.move_to_end(key)
+        return hit
+    ts = build_response_table_set(transfer, profile.stations, speeds, depths, gamma=gamma, spread_s=spread,
+                                  long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
+    _TABLE_CACHE[key] = ts
+    while len(_TABLE_CACHE) > _TABLE_CACHE_SIZE:
+        _TABLE_CACHE.popitem(last=False)
+    return ts
+
+
+SPEED_NODES = 8
+"""Tables are built at the call's distinct speeds when there are at most SPEED_NODES of them,
+else at SPEED_NODES speeds spread over the range (linear interpolation in speed: roll near its
+resonance is sensitive to speed, see the test report)."""
+DEEP_KH = math.pi
+"""Table path: a sample counts as deep water when k h >= pi at 0.6 times the lowest peak
+frequency of its partitions (tanh(pi) = 0.996); shallower samples use the exact path."""
+
+
+def _speed_nodes(u: FloatArray) -> FloatArray:
+    uniq = np.unique(u)
+    if uniq.size <= SPEED_NODES:
+        return uniq
+    return np.linspace(uniq[0], uniq[-1], SPEED_NODES)
+
+
+def _needs_depth(depth: Optional[FloatArray], hs: FloatArray, tp: FloatArray, g: float) -> NDArray[np.bool_]:
+    """True where finite depth matters (see DEEP_KH)."""
+    n = hs.shape[0]
+    if depth is None:
+        return np.zeros(n, dtype=bool)
+    tmax = np.where(hs > 0, tp, 0.0).max(axis=1)
+    tmax = np.where(tmax > 0, tmax, tp.max(axis=1))
+    k_low = (0.6 * 2.0 * math.pi / tmax) ** 2 / g
+    return np.isfinite(depth) & (k_low * np.where(np.isfinite(depth), depth, 0.0) < DEEP_KH)
+
+
+_RESP_FIELDS = ("heave_rms_m", "pitch_rms_deg", "roll_rms_deg", "heave_tz_s", "pitch_tz_s", "roll_tz_s",
+                "vacc_rms_m_s2", "vacc_omega_rad_s", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "flags")
+
+
+def _merge(n: int, parts: Any, names: Tuple[str, ...], method: str) -> MotionResponse:
+    """Assemble a MotionResponse from (index, response) parts covering 0..n-1."""
+    kw: Dict[str, Any] = {}
+    for f in _RESP_FIELDS:
+        first = getattr(parts[0][1], f)
+        arr = np.zeros((n,) + first.shape[1:], dtype=first.dtype)
+        for idx, r in parts:
+            arr[idx] = getattr(r, f)
+        kw[f] = arr
+    return MotionResponse(station_names=names, method=method, **kw)
+
+
+def assess_motions(
+    profile: VesselProfile,
+    *,
+    hs_m: Optional[ArrayLike] = None,
+    tp_s: Optional[ArrayLike] = None,
+    wave_from_deg: Optional[ArrayLike] = None,
+    course_deg: ArrayLike,
+    speed_m_s: ArrayLike,
+    depth_m: Optional[ArrayLike] = None,
+    station: Optional[str] = None,
+    gamma: float = 3.3,
+    spread_s: float = 4.0,
+    long_crested: bool = False,
+    partitions: Optional[SeaPartitions] = None,
+    method: Optional[str] = None,
+    n_freq: int = 48,
+    n_dir: int = 24,
+    exposure_h: float = 2.0,
+) -> MotionAssessment:
+    """Motions, comfort and guidance flags of ``profile`` at one station for n samples.
+
+    Parameters
+    ----------
+    profile : the vessel (:mod:`.vessel`).
+    hs_m, tp_s, wave_from_deg : (n,) combined sea [m, s, deg true the waves come FROM];
+        scalars broadcast. Ignored (may be None) when ``partitions`` is given.
+    course_deg : (n,) course/heading through the water [deg true, going TO].
+    speed_m_s : (n,) speed through the water [m/s] >= 0.
+    depth_m : (n,) depth [m] (> 0; inf = deep) or None for deep water.
+    station : station name (None = the profile's first station).
+    gamma, spread_s, long_crested : JONSWAP gamma, cos-2s exponent, one direction only.
+    partitions : :class:`SeaPartitions` replacing the combined sea.
+    method : "exact" (spectral integration per sample), "table" (tabulated per unit Hs,
+        interpolated; deep-water tables at the call's speeds, samples where the depth matters
+        (DEEP_KH) go through the exact path), or None: exact below AUTO_TABLE_MIN_SAMPLES
+        samples, else table. Tables are cached per vessel/speeds/spectrum shape (first call
+        per configuration costs about 1 s per speed and shape on one core).
+    n_freq, n_dir : spectral grid (defaults 48 x 24).
+    exposure_h : MSI exposure [h] (2 h: O'Hanlon & McCauley 1974; else McCauley et al. 1976,
+        coefficients from memory).
+
+    NaN or inf anywhere in the inputs raises SeawayInputError naming the argument: mask samples
+    without sea data before calling. Unknown station: SeawayInputError listing the stations.
+    """
+    if not isinstance(profile, VesselProfile):
+        raise SeawayInputError(f"profile must be a VesselProfile, got {type(profile).__name__}")
+    st = profile.station(station)
+    if partitions is not None:
+        if not isinstance(partitions, SeaPartitions):
+            raise SeawayInputError(f"partitions must be SeaPartitions, got {type(partitions).__name__}")
+        hs, tp, wf = partitions.hs_m, partitions.tp_s, partitions.wave_from_deg
+        gam, spr = partitions.gamma, partitions.spread_s
+    else:
+        for name, v in (("hs_m", hs_m), ("tp_s", tp_s), ("wave_from_deg", wave_from_deg)):
+            if v is None:
+                raise SeawayInputError(f"{name} is required when partitions is not given")
+        hs = np.atleast_1d(require_nonnegative("hs_m", hs_m)).reshape(-1)
+        n0 = max(hs.size, np.size(tp_s), np.size(wave_from_deg), np.size(course_deg), np.size(speed_m_s))
+        hs = _vec("hs_m", hs, n0, nonneg=True)[:, None]
+        tp = _vec("tp_s", require_positive("tp_s", tp_s), n0)[:, None]
+        wf = _vec("wave_from_deg", wave_from_deg, n0)[:, None]
+        gam = np.array([float(as_float_array("gamma", gamma))])
+        spr = np.array([float(require_nonnegative("spread_s", spread_s))])
+    n = hs.shape[0]
+    course = _vec("course_deg", course_deg, n)
+    speed = _vec("speed_m_s", speed_m_s, n, nonneg=True)
+    depth = None
+    if depth_m is not None:
+        depth = _vec("depth_m", require_positive("depth_m", depth_m, allow_inf=True), n)
+    if method is None or method == "auto":
+        method = "exact" if n < AUTO_TABLE_MIN_SAMPLES else "table"
+    if method not in ("exact", "table"):
+        raise SeawayInputError(f"method must be 'exact', 'table' or None, got {method!r}")
+    if np.any(gam < 1.0):
+        raise SeawayInputError(f"gamma must be >= 1, got {gam[gam < 1][0]!r}")
+    transfer = transfer_model(profile)
+    stations = (st,)
+    if method == "exact":
+        r: MotionResponse = motion_response(
+            transfer, stations, hs_m=hs, tp_s=tp, wave_from_deg=wf, course_deg=course, speed_m_s=speed,
+            depth_m=depth, gamma=gam, spread_s=spr, long_crested=long_crested, n_freq=n_freq, n_dir=n_dir,
+        )
+    else:
+        shallow = _needs_depth(depth, hs, tp, G_STANDARD_M_S2)
+        parts = []
+        deep_idx = np.flatnonzero(~shallow)
+        if deep_idx.size:
+            mu = relative_heading_deg(course[deep_idx, None], wf[deep_idx])
+            # one table set per distinct (gamma, spread) partition shape
+            shapes = sorted(set(zip(gam.tolist(), spr.tolist())))
+            rs = []
+            for g_, s_ in shapes:
+                cols = [i for i in range(hs.shape[1]) if gam[i] == g_ and spr[i] == s_]
+                ts = _table_set(profile, transfer, _speed_nodes(speed[deep_idx]), None, g_, s_,
+                                bool(long_crested), n_freq, n_dir)
+                rs.append((cols, ts))
+            if len(rs) == 1:
+                rd = rs[0][1].lookup(hs[deep_idx], tp[deep_idx], mu, speed[deep_idx])
+            else:
+                rd = _multi_shape_lookup(rs, hs[deep_idx], tp[deep_idx], mu, speed[deep_idx], None)
+            parts.append((deep_idx, rd))
+        sh_idx = np.flatnonzero(shallow)
+        if sh_idx.size:
+            assert depth is not None
+            rsh = motion_response(
+                transfer, stations, hs_m=hs[sh_idx], tp_s=tp[sh_idx], wave_from_deg=wf[sh_idx],
+                course_deg=course[sh_idx], speed_m_s=speed[sh_idx], depth_m=depth[sh_idx], gamma=gam,
+                spread_s=spr, long_crested=long_crested, n_freq=n_freq, n_dir=n_dir,
+            )
+            parts.append((sh_idx, rsh))
+        r = _merge(n, parts, (st.name,), "table")
+    tr_s = profile.natural_roll_period_s
+    safety = circ1228_flags(profile.length_wl_m, tr_s, speed, course, hs, tp, wf, depth)
+    vacc = r.vacc_rms_m_s2[:, 0]
+    lacc = r.lacc_rms_m_s2[:, 0]
+    crit = evaluate_criteria(st.task, vacc, lacc, r.roll_rms_deg)
+    msi = msi_percent(mean_abs_from_rms(vacc), r.vacc_omega_rad_s[:, 0], exposure_h)
+    msi2 = msi if exposure_h == 2.0 else msi_percent(mean_abs_from_rms(vacc), r.vacc_omega_rad_s[:, 0], 2.0)
+    cls = _comfort_class(msi2, crit.usage)
+    flags = r.flags | safety.mask
+    flags = flags | np.where(crit.exceeded, int(SampleFlag.CRITERIA_EXCEEDED), 0).astype(np.int64)
+    return MotionAssessment(
+        heave_rms_m=r.heave_rms_m, pitch_rms_deg=r.pitch_rms_deg, roll_rms_deg=r.roll_rms_deg,
+        heave_tz_s=r.heave_tz_s, pitch_tz_s=r.pitch_tz_s, roll_tz_s=r.roll_tz_s,
+        vacc_rms_m_s2=vacc, lacc_rms_m_s2=lacc, vacc_wf_rms_m_s2=r.vacc_wf_rms_m_s2[:, 0],
+        vacc_omega_rad_s=r.vacc_omega_rad_s[:, 0], msi_pct=msi, comfort_class=cls,
+        flags=flags.astype(np.int64), criteria_margin=crit.margins, roll_period_s=float(tr_s),
+        station=st.name, method=method, task=st.task, exposure_h=float(exposure_h),
+    )
+
+
+def _inv_depth(depth: Optional[FloatArray], n: int) -> FloatArray:
+    if depth is None:
+        return np.zeros(n)
+    return np.where(np.isinf(depth), 0.0, 1.0 / np.where(np.isinf(depth), 1.0, depth))
+
+
+def _multi_shape_lookup(rs: Any, hs: FloatArray, tp: FloatArray, mu: FloatArray, speed: FloatArray,
+                        depth: Optional[FloatArray]) -> MotionResponse:
+    """Partitions of different spectrum shapes: each shape group through its own tables; the
+    per-unit quantities of all partitions are then summed with Hs**2 (linear superposition)."""
+    n = hs.shape[0]
+    inv = _inv_depth(depth, n)
+    qs, os_, offs, hss = [], [], [], []
+    valid = np.ones(n, dtype=bool)
+    names: Tuple[str, ...] = ()
+    for cols, ts in rs:
+        q, o, off, v = ts.quantities(tp[:, cols], mu[:, cols], speed, inv)
+        qs.append(q); os_.append(o); offs.append(off); hss.append(hs[:, cols])
+        valid &= v
+        names = ts.tables[0][0].station_names
+    hsc = np.concatenate(hss, axis=1)
+    flags = validity_flags(valid, hsc, np.concatenate(os_, axis=1))
+    flags[(np.concatenate(offs, axis=1) & (hsc > 0)).any(axis=1)] |= int(SampleFlag.OUTSIDE_VALIDITY)
+    return combine_quantities(np.concatenate(qs, axis=1), hsc, names, flags=flags, method="table")

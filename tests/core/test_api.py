@@ -1,0 +1,114 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""The one-call facade assess_motions."""
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from seaway_comfort.processing.core.api import MotionAssessment, SeaPartitions, assess_motions
+from seaway_comfort.processing.core.comfort import COMFORT_CLASS_LABELS, mean_abs_from_rms, msi_percent
+from seaway_comfort.processing.core.criteria import NORDFORSK_TASKS
+from seaway_comfort.processing.core.flags import CAUTION, SampleFlag
+from seaway_comfort.processing.core.units import KNOT_M_S
+from seaway_comfort.processing.core.validation import SeawayInputError
+from seaway_comfort.processing.core.vessel import builtin_profile
+
+BOAT = builtin_profile("harbour_workboat_12m")
+
+
+def test_docstring_example_runs_and_carries_the_caution():
+    res = assess_motions(BOAT, hs_m=[0.8, 1.2, 1.6], tp_s=[5.0, 6.0, 7.0], wave_from_deg=[250.0, 260.0, 270.0],
+                         course_deg=90.0, speed_m_s=3.5, station="wheelhouse")
+    assert isinstance(res, MotionAssessment)
+    assert res.caution == CAUTION and "not a substitute" in res.caution
+    assert res.method == "exact" and res.station == "wheelhouse"
+    for f in ("heave_rms_m", "vacc_rms_m_s2", "msi_pct", "vacc_omega_rad_s", "vacc_wf_rms_m_s2"):
+        v = getattr(res, f)
+        assert v.shape == (3,) and np.all(np.isfinite(v))
+    assert res.comfort_class.dtype == np.int64 and res.flags.dtype == np.int64
+    assert set(res.criteria_margin) == {"vertical_acceleration", "lateral_acceleration", "roll"}
+    assert np.all(np.diff(res.heave_rms_m) > 0)  # higher sea, more heave (common practice, no source)
+
+
+def test_msi_and_class_are_composed_from_the_motions():
+    # MSI of the Lloyd (1989) form fed with mean|a| = sqrt(2/pi) sigma_a (comfort.py docstring).
+    res = assess_motions(BOAT, hs_m=[0.5, 1.5, 3.0], tp_s=5.0, wave_from_deg=90.0, course_deg=270.0, speed_m_s=3.0)
+    m = msi_percent(mean_abs_from_rms(res.vacc_rms_m_s2), res.vacc_omega_rad_s)
+    np.testing.assert_allclose(res.msi_pct, m, rtol=1e-12)
+    lim = NORDFORSK_TASKS[BOAT.stations[0].task]
+    np.testing.assert_allclose(res.criteria_margin["roll"], 1 - res.roll_rms_deg / lim.roll_rms_deg, rtol=1e-12)
+    assert 0 <= res.comfort_class.min() and res.comfort_class.max() < len(COMFORT_CLASS_LABELS)
+    assert res.comfort_class[2] == 4  # 3 m head sea at 3 m/s on a 12 m boat exceeds the limits
+    assert res.flags[2] & int(SampleFlag.CRITERIA_EXCEEDED)
+
+
+def test_surf_riding_flag_in_following_sea():
+    # IMO MSC.1/Circ.1228 4.2.1 via safety.py: L 11.6 m -> limit 1.8 sqrt(11.6) = 6.13 kn at alpha 180.
+    res = assess_motions(BOAT, hs_m=1.0, tp_s=8.0, wave_from_deg=180.0, course_deg=0.0,
+                         speed_m_s=[5.0 * KNOT_M_S, 7.0 * KNOT_M_S])
+    assert not res.flags[0] & int(SampleFlag.SURF_RIDING)
+    assert res.flags[1] & int(SampleFlag.SURF_RIDING)
+
+
+def test_station_selection():
+    a = assess_motions(BOAT, hs_m=1.0, tp_s=6.0, wave_from_deg=0.0, course_deg=0.0, speed_m_s=2.0)
+    assert a.station == BOAT.stations[0].name
+    with pytest.raises(SeawayInputError, match="known stations: wheelhouse, aft_deck, forward_berth"):
+        assess_motions(BOAT, hs_m=1.0, tp_s=6.0, wave_from_deg=0.0, course_deg=0.0, speed_m_s=2.0, station="galley")
+
+
+@pytest.mark.parametrize("arg", ["hs_m", "tp_s", "wave_from_deg", "course_deg", "speed_m_s", "depth_m"])
+def test_nan_raises_naming_argument(arg):
+    kw = dict(hs_m=[1.0, 1.0], tp_s=[6.0, 6.0], wave_from_deg=[0.0, 0.0], course_deg=[0.0, 0.0],
+              speed_m_s=[1.0, 1.0], depth_m=[30.0, 30.0])
+    kw[arg] = [1.0, float("nan")]
+    with pytest.raises(SeawayInputError, match=arg):
+        assess_motions(BOAT, **kw)
+
+
+def test_bad_method_and_lengths():
+    with pytest.raises(SeawayInputError, match="method"):
+        assess_motions(BOAT, hs_m=1.0, tp_s=6.0, wave_from_deg=0.0, course_deg=0.0, speed_m_s=1.0, method="fast")
+    with pytest.raises(SeawayInputError, match="has 2 values, expected 1 or 3"):
+        assess_motions(BOAT, hs_m=[1.0, 2.0], tp_s=6.0, wave_from_deg=0.0, course_deg=[0.0, 1.0, 2.0], speed_m_s=1.0)
+
+
+def test_partitions_with_an_absent_partition_equal_the_single_sea():
+    n = 4
+    hs = np.array([0.5, 1.0, 1.5, 2.0])
+    single = assess_motions(BOAT, hs_m=hs, tp_s=6.0, wave_from_deg=30.0, course_deg=100.0, speed_m_s=2.5,
+                            gamma=3.3, spread_s=4.0)
+    parts = SeaPartitions(np.c_[hs, np.zeros(n)], np.c_[np.full(n, 6.0), np.full(n, 11.0)],
+                          np.c_[np.full(n, 30.0), np.full(n, 200.0)], [3.3, 5.0], [4.0, 12.0], ("wind", "swell"))
+    both = assess_motions(BOAT, partitions=parts, course_deg=100.0, speed_m_s=2.5)
+    np.testing.assert_allclose(both.vacc_rms_m_s2, single.vacc_rms_m_s2, rtol=1e-12)
+    np.testing.assert_allclose(both.roll_tz_s, single.roll_tz_s, rtol=1e-12)
+    with pytest.raises(SeawayInputError, match="gamma"):
+        SeaPartitions(np.ones((2, 2)), np.ones((2, 2)) * 5, np.zeros((2, 2)), [3.3], [4.0, 4.0], ("a", "b"))
+
+
+def test_table_method_agrees_with_exact():
+    # brief's check through the facade: constant speed, two partition shapes, 1 %.
+    rng = np.random.default_rng(11)
+    n = 120
+    parts = SeaPartitions(rng.uniform(0.2, 2.5, (n, 2)), rng.uniform(3.0, 13.0, (n, 2)), rng.uniform(0, 360, (n, 2)),
+                          [3.3, 5.0], [4.0, 12.0], ("wind", "swell"))
+    co = rng.uniform(0, 360, n)
+    a = assess_motions(BOAT, partitions=parts, course_deg=co, speed_m_s=3.0, method="exact")
+    b = assess_motions(BOAT, partitions=parts, course_deg=co, speed_m_s=3.0, method="table")
+    assert b.method == "table"
+    for f in ("heave_rms_m", "roll_rms_deg", "vacc_rms_m_s2", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "msi_pct"):
+        x, y = getattr(a, f), getattr(b, f)
+        assert np.max(np.abs(y - x) / (np.abs(x) + 0.01 * np.abs(x).max())) < 0.01, f
+    np.testing.assert_array_equal(a.flags, b.flags)
+
+
+def test_table_method_uses_exact_path_where_depth_matters():
+    # DEEP_KH rule (api.py): 5 m of water under a 10 s swell is shallow, so the table path must
+    # give the exact finite-depth result there; 500 m is deep.
+    kw = dict(hs_m=[1.0, 1.0], tp_s=[10.0, 10.0], wave_from_deg=[0.0, 0.0], course_deg=[0.0, 0.0], speed_m_s=[2.0, 2.0],
+              depth_m=[5.0, 500.0])
+    a = assess_motions(BOAT, method="exact", **kw)
+    b = assess_motions(BOAT, method="table", **kw)
+    assert b.heave_rms_m[0] == a.heave_rms_m[0]
+    assert b.heave_rms_m[1] == pytest.approx(a.heave_rms_m[1], rel=0.01)

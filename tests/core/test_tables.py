@@ -1,0 +1,97 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Response tables (fast path) against the exact spectral path."""
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from seaway_comfort.processing.core.heading import relative_heading_deg
+from seaway_comfort.processing.core.response import motion_response
+from seaway_comfort.processing.core.tables import build_response_table, build_response_table_set
+from seaway_comfort.processing.core.transfer import ClosedFormTransfer
+from seaway_comfort.processing.core.validation import SeawayInputError
+from seaway_comfort.processing.core.vessel import builtin_profile
+
+FIELDS = ("heave_rms_m", "pitch_rms_deg", "roll_rms_deg", "heave_tz_s", "pitch_tz_s", "roll_tz_s",
+          "vacc_rms_m_s2", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "vacc_omega_rad_s")
+
+
+def _rel_err(a, b):
+    """|b - a| relative to the larger of |a| and 1 % of the largest |a| of the set (so that
+    nearly vanishing values, e.g. roll in near-head seas, do not dominate)."""
+    a = np.asarray(a); b = np.asarray(b)
+    return np.max(np.abs(b - a) / (np.abs(a) + 0.01 * np.abs(a).max()))
+
+
+def _random_sea(n, p, seed):
+    rng = np.random.default_rng(seed)
+    return (rng.uniform(0.3, 4.0, (n, p)), rng.uniform(3.0, 16.0, (n, p)), rng.uniform(0, 360, (n, p)),
+            rng.uniform(0, 360, n))
+
+
+@pytest.mark.parametrize("name", ["harbour_workboat_12m", "ocean_research_70m"])
+def test_table_agrees_with_exact_within_one_percent(name):
+    # The brief's acceptance check: table path within 1 % of the exact path on random samples
+    # (short-crested, 2 partitions). Linear superposition (PNA vol. III ch. 8) makes the
+    # per-unit-Hs^2 table exact apart from the bilinear interpolation.
+    p = builtin_profile(name)
+    tr = ClosedFormTransfer.from_profile(p)
+    tab = build_response_table(tr, p.stations, 3.0)
+    hs, tp, wf, co = _random_sea(300, 2, 7)
+    ex = motion_response(tr, p.stations, hs_m=hs, tp_s=tp, wave_from_deg=wf, course_deg=co, speed_m_s=3.0)
+    tl = tab.lookup(hs, tp, relative_heading_deg(co[:, None], wf))
+    assert tl.method == "table" and tl.station_names == ex.station_names
+    for f in FIELDS:
+        assert _rel_err(getattr(ex, f), getattr(tl, f)) < 0.01, f
+    np.testing.assert_array_equal(tl.flags, ex.flags)
+
+
+def test_long_crested_heave_and_acceleration_within_three_percent():
+    # Documented limit (tables.py docstring): long-crested roll/pitch near special headings can be
+    # off by more; heave and vertical acceleration stay within a few percent.
+    p = builtin_profile("coastal_survey_35m")
+    tr = ClosedFormTransfer.from_profile(p)
+    tab = build_response_table(tr, p.stations, 4.0, long_crested=True)
+    hs, tp, wf, co = _random_sea(200, 1, 3)
+    ex = motion_response(tr, p.stations, hs_m=hs, tp_s=tp, wave_from_deg=wf, course_deg=co, speed_m_s=4.0, long_crested=True)
+    tl = tab.lookup(hs, tp, relative_heading_deg(co[:, None], wf))
+    for f in ("heave_rms_m", "vacc_rms_m_s2", "vacc_wf_rms_m_s2"):
+        assert _rel_err(getattr(ex, f), getattr(tl, f)) < 0.03, f
+
+
+def test_lookup_is_linear_in_hs_and_flags_tp_off_grid():
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    tab = build_response_table(tr, p.stations, 2.0, tp_grid_s=np.geomspace(3.0, 15.0, 30),
+                               heading_grid_deg=np.arange(0.0, 181.0, 10.0))
+    r = tab.lookup([0.5, 1.0, 2.0, 1.0, 0.0], [7.0, 7.0, 7.0, 20.0, 7.0], [130.0, 130.0, 130.0, 130.0, 130.0])
+    np.testing.assert_allclose(r.heave_rms_m[:3] / np.array([0.5, 1.0, 2.0]), r.heave_rms_m[1], rtol=1e-12)
+    np.testing.assert_array_equal(r.flags, [0, 0, 0, 512, 0])  # Tp 20 s is outside 3..15 s
+    assert r.heave_rms_m[4] == 0.0 and np.isfinite(r.heave_tz_s[4])
+
+
+def test_speed_set_matches_single_tables_at_nodes():
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    kw = dict(tp_grid_s=np.geomspace(3.0, 15.0, 40), heading_grid_deg=np.arange(0.0, 181.0, 5.0))
+    ts = build_response_table_set(tr, p.stations, [1.0, 3.0], **kw)
+    single = build_response_table(tr, p.stations, 3.0, **kw)
+    a = ts.lookup([1.0], [6.0], [150.0], [3.0])
+    b = single.lookup([1.0], [6.0], [150.0])
+    np.testing.assert_allclose(a.vacc_rms_m_s2, b.vacc_rms_m_s2, rtol=1e-12)
+    # speeds outside the set are flagged
+    c = ts.lookup([1.0], [6.0], [150.0], [4.0])
+    assert c.flags[0] == 512
+    with pytest.raises(SeawayInputError, match="strictly increasing"):
+        build_response_table_set(tr, p.stations, [3.0, 1.0], **kw)
+
+
+def test_bad_grids():
+    p = builtin_profile("harbour_workboat_12m")
+    tr = ClosedFormTransfer.from_profile(p)
+    with pytest.raises(SeawayInputError, match="heading_grid_deg must run from 0 to 180"):
+        build_response_table(tr, p.stations, 1.0, heading_grid_deg=[0.0, 90.0])
+    with pytest.raises(SeawayInputError, match="tp_grid_s"):
+        build_response_table(tr, p.stations, 1.0, tp_grid_s=[5.0, 4.0])
+    with pytest.raises(SeawayInputError, match="speed_m_s"):
+        build_response_table(tr, p.stations, float("nan"))
