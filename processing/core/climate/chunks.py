@@ -104,7 +104,9 @@ def run_chunk(task: ChunkTask) -> ChunkResult:
     """Classify the chunk's steps and return its partial sums (runs in any process)."""
     s = task.setup
     nd = task.b - task.a
-    sc = classify_steps(s, 0, task.c - task.a)
+    from .hindcast import process_reader
+
+    sc = classify_steps(s, 0, task.c - task.a, reader=process_reader())
     n = s.n
     own = slice(0, nd)
     cls = sc.comfort_class

@@ -406,24 +406,43 @@ def point_weights(grid: object, lon_deg: Sequence[float], lat_deg: Sequence[floa
 
 
 class _Reader:
-    """Keeps GDAL datasets open and remembers each dataset's scale/offset/no-data."""
+    """Keeps up to ``max_open`` GDAL datasets open (least recently used closed first) and
+    remembers each dataset's scale/offset/no-data."""
 
-    def __init__(self) -> None:
+    def __init__(self, max_open: int = 32) -> None:
         self._ds: Dict[str, object] = {}
         self._meta: Dict[str, Tuple[Optional[float], float, float]] = {}
+        self._max = int(max_open)
+
+    @staticmethod
+    def _stamp(name: str) -> Tuple[int, int]:
+        plain = name
+        if name.upper().startswith(("NETCDF:", "HDF5:")):
+            plain = name.split(":", 1)[1].rsplit(":", 1)[0].strip('"')
+        try:
+            st = os.stat(plain)
+        except OSError:
+            return (-1, -1)
+        return (int(st.st_mtime_ns), int(st.st_size))
 
     def get(self, name: str):  # type: ignore[no-untyped-def]
-        ds = self._ds.get(name)
-        if ds is None:
-            from ..seastate.layer import open_gdal
+        """The open dataset (reopened when the file changed on disk since it was opened)."""
+        stamp = self._stamp(name)
+        entry = self._ds.pop(name, None)
+        if entry is not None and entry[1] == stamp:  # type: ignore[index]
+            self._ds[name] = entry  # most recently used last
+            return entry[0]  # type: ignore[index]
+        from ..seastate.layer import open_gdal
 
-            ds = open_gdal(name, what="hindcast file")
-            band = ds.GetRasterBand(1)
-            nd = band.GetNoDataValue()
-            sc = band.GetScale()
-            of = band.GetOffset()
-            self._ds[name] = ds
-            self._meta[name] = (nd, 1.0 if sc is None else float(sc), 0.0 if of is None else float(of))
+        while len(self._ds) >= self._max:
+            self._ds.pop(next(iter(self._ds)))
+        ds = open_gdal(name, what="hindcast file")
+        band = ds.GetRasterBand(1)
+        nd = band.GetNoDataValue()
+        sc = band.GetScale()
+        of = band.GetOffset()
+        self._ds[name] = (ds, stamp)
+        self._meta[name] = (nd, 1.0 if sc is None else float(sc), 0.0 if of is None else float(of))
         return ds
 
     def read(self, name: str, bands: NDArray[np.int64], pw: PointWeights) -> FloatArray:
@@ -448,6 +467,17 @@ class _Reader:
 
     def close(self) -> None:
         self._ds.clear()
+
+
+_PROCESS_READER: Optional[_Reader] = None
+
+
+def process_reader() -> _Reader:
+    """One reader per process, shared by the chunks that run in it (files opened once)."""
+    global _PROCESS_READER
+    if _PROCESS_READER is None:
+        _PROCESS_READER = _Reader()
+    return _PROCESS_READER
 
 
 def _cube(reader: _Reader, var: VariableSteps, pw: PointWeights, a: int, b: int) -> Tuple[FloatArray, List[int]]:
