@@ -28,7 +28,7 @@ from ..flags import SampleFlag
 from ..units import FloatArray
 from ..validation import SeawayInputError, as_float_array, require_in_range
 from .grid import read_window_for
-from .layer import grid_from_dataset, open_gdal
+from .layer import gdal_call, grid_from_dataset, open_gdal
 from .variables import HEIGHT, unit_conversion
 
 CONVENTIONS = ("auto", "depth_positive_down", "elevation_positive_up")
@@ -120,7 +120,8 @@ class Bathymetry:
         cc, rr = np.clip(cc, 0, g.nx - 1), np.clip(rr, 0, g.ny - 1)
         win = read_window_for(g, np.concatenate([cc[ok], cn]), np.concatenate([rr[ok], rn]), 0, 0)
         band = self._ds.GetRasterBand(1)
-        parts = [np.asarray(band.ReadAsArray(x, win.row0, xs, win.nrows)) for x, xs in win.col_runs]
+        parts = [np.asarray(gdal_call(f"bathymetry {self.path}: GDAL could not read", band.ReadAsArray,
+                                      x, win.row0, xs, win.nrows)) for x, xs in win.col_runs]
         arr = self._depth(parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1), band)
         near = arr[win.local_row(rn), win.local_col(cn, g.nx)]
         v = arr[win.local_row(rr), win.local_col(cc, g.nx)]
@@ -179,7 +180,8 @@ def _auto_convention(ds, md: dict) -> Tuple[str, str]:  # type: ignore[no-untype
         return "elevation_positive_up", f"standard_name {std}"
     band = ds.GetRasterBand(1)
     bx, by = min(ds.RasterXSize, 512), min(ds.RasterYSize, 512)
-    raw = np.asarray(band.ReadAsArray(0, 0, ds.RasterXSize, ds.RasterYSize, buf_xsize=bx, buf_ysize=by))
+    raw = np.asarray(gdal_call("bathymetry: GDAL could not read an overview of the values", band.ReadAsArray,
+                               0, 0, ds.RasterXSize, ds.RasterYSize, buf_xsize=bx, buf_ysize=by))
     vals = raw.astype(float)
     good = np.isfinite(vals)
     nd = band.GetNoDataValue()

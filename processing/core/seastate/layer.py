@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import os
 from dataclasses import dataclass, field
-from typing import Dict, List, Optional, Tuple
+from typing import Any, Callable, Dict, List, Optional, Tuple
 
 import numpy as np
 from numpy.typing import NDArray
@@ -31,12 +31,33 @@ except ImportError as _exc:  # pragma: no cover - exercised only without GDAL
     _GDAL_IMPORT_ERROR: Optional[ImportError] = _exc
 else:
     _GDAL_IMPORT_ERROR = None
-    gdal.UseExceptions()
+# GDAL's exception mode is process-wide and shared with QGIS and other plugins, so this package
+# never switches it: every call goes through gdal_call(), which works in either mode.
 
 
 def require_gdal() -> None:
     if gdal is None:
         raise SeawayInputError(f"GDAL's Python bindings (osgeo) are not available: {_GDAL_IMPORT_ERROR}")
+
+
+def gdal_call(what: str, fn: Callable[..., Any], *args: Any, **kwargs: Any) -> Any:
+    """Call a GDAL function quietly; None, a failure code or a GDAL exception -> SeawayInputError.
+
+    ``what`` names the file and the action for the message. Integer results are GDAL error codes
+    (CE_None = 0 is success).
+    """
+    require_gdal()
+    gdal.ErrorReset()
+    gdal.PushErrorHandler("CPLQuietErrorHandler")
+    try:
+        out = fn(*args, **kwargs)
+    except RuntimeError as exc:
+        raise SeawayInputError(f"{what}: {exc}") from None
+    finally:
+        gdal.PopErrorHandler()
+    if out is None or (isinstance(out, int) and not isinstance(out, bool) and out != 0):
+        raise SeawayInputError(f"{what}: {gdal.GetLastErrorMsg() or 'GDAL reported a failure'}")
+    return out
 
 
 def open_gdal(name: str, *, what: str) -> "gdal.Dataset":
@@ -47,13 +68,7 @@ def open_gdal(name: str, *, what: str) -> "gdal.Dataset":
         plain = name.split(":", 1)[1].rsplit(":", 1)[0].strip('"')
     if not os.path.exists(plain):
         raise SeawayInputError(f"{what} {plain!r} does not exist")
-    try:
-        ds = gdal.Open(name, gdal.GA_ReadOnly)
-    except RuntimeError as exc:
-        raise SeawayInputError(f"GDAL cannot open {what} {name!r}: {exc}") from None
-    if ds is None:
-        raise SeawayInputError(f"GDAL cannot open {what} {name!r}: {gdal.GetLastErrorMsg()}")
-    return ds
+    return gdal_call(f"GDAL cannot open {what} {name!r}", gdal.Open, name, gdal.GA_ReadOnly)
 
 
 def grid_from_dataset(ds: "gdal.Dataset", *, where: str) -> GridGeometry:
@@ -125,12 +140,8 @@ class DatasetCache:
         band = self.get(name).GetRasterBand(bandno)
         parts: List[NDArray[np.float64]] = []
         for xoff, xsize in window.col_runs:
-            raw = band.ReadAsArray(xoff, window.row0, xsize, window.nrows)
-            if raw is None:
-                raise SeawayInputError(
-                    f"{layer.file} variable {layer.file_variable!r}: GDAL could not read band "
-                    f"{bandno}: {gdal.GetLastErrorMsg()}"
-                )
+            raw = gdal_call(f"{layer.file} variable {layer.file_variable!r}: GDAL could not read band {bandno}",
+                            band.ReadAsArray, xoff, window.row0, xsize, window.nrows)
             parts.append(np.asarray(raw))
         raw = parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1)
         self.bytes_read += raw.nbytes

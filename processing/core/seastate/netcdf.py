@@ -17,7 +17,7 @@ import numpy as np
 from ..validation import SeawayInputError
 from .discovery import Discovery, resolve_going_to
 from .grid import GridGeometry
-from .layer import VariableLayer, gdal, grid_from_dataset, open_gdal
+from .layer import VariableLayer, gdal, gdal_call, grid_from_dataset, open_gdal
 from .timeaxis import decode_cf_time, require_increasing
 from .variables import CF_STANDARD_NAMES, canonical_kind, unit_conversion
 
@@ -147,19 +147,22 @@ def _check_regular_axes(path: str, var: str, grid: GridGeometry, where: str) -> 
     sampling through it would shift values silently. Longitude steps are taken modulo 360.
     """
     try:
-        mds = gdal.OpenEx(path, gdal.OF_MULTIDIM_RASTER)
-        arr = mds.GetRootGroup().OpenMDArray(var)
+        mds = gdal_call(f"{where}: multidimensional view", gdal.OpenEx, path, gdal.OF_MULTIDIM_RASTER)
+        arr = gdal_call(f"{where}: array", mds.GetRootGroup().OpenMDArray, var)
         dims = arr.GetDimensions()
-    except (RuntimeError, AttributeError):
-        return  # no multidimensional view (e.g. netCDF-3 through another path): nothing to check
-    if arr is None or len(dims) < 2:
+    except SeawayInputError:
+        return  # no multidimensional view of this variable: nothing more to check
+    if len(dims) < 2:
         return
     rx, ry = grid.resolution()
     for dim, cell in ((dims[-1], rx), (dims[-2], ry)):
         iv = dim.GetIndexingVariable()
         if iv is None:
             continue
-        c = np.asarray(iv.ReadAsArray(), dtype=float).ravel()
+        try:
+            c = np.asarray(gdal_call(f"{where}: coordinate {dim.GetName()!r}", iv.ReadAsArray), dtype=float).ravel()
+        except SeawayInputError:
+            continue
         if c.size < 2:
             continue
         d = np.diff(c)

@@ -18,7 +18,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from ..validation import SeawayInputError, as_float_array
-from .layer import gdal, osr, require_gdal
+from .layer import gdal, gdal_call, osr, require_gdal
 from .timeaxis import as_utc_seconds
 from .variables import CF_STANDARD_NAMES, canonical_kind
 
@@ -105,7 +105,7 @@ def write_cf_netcdf(
     tvals = (t_s - ref_s) / factor
 
     drv = gdal.GetDriverByName("netCDF")
-    ds = drv.CreateMultiDimensional(path)
+    ds = gdal_call(f"cannot create NetCDF file {path!r}", drv.CreateMultiDimensional, path)
     rg = ds.GetRootGroup()
     nt, ny, nx = t_s.size, lat.size, lon.size
     dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, nt)
@@ -135,10 +135,12 @@ def write_cf_netcdf(
         sf = scale_factor.get(std) if isinstance(scale_factor, Mapping) else scale_factor
         ao = add_offset.get(std, 0.0) if isinstance(add_offset, Mapping) else add_offset
         if sf is not None:
-            v = rg.CreateMDArray(name, [dt, dy, dx], gdal.ExtendedDataType.Create(gdal.GDT_Int16))
+            v = gdal_call(f"{path}: cannot create variable {name!r}", rg.CreateMDArray, name, [dt, dy, dx],
+                          gdal.ExtendedDataType.Create(gdal.GDT_Int16))
             fill = -32767.0
         else:
-            v = rg.CreateMDArray(name, [dt, dy, dx], gdal.ExtendedDataType.Create(gdal.GDT_Float32))
+            v = gdal_call(f"{path}: cannot create variable {name!r}", rg.CreateMDArray, name, [dt, dy, dx],
+                          gdal.ExtendedDataType.Create(gdal.GDT_Float32))
             fill = float(fill_value)
         if std in CF_STANDARD_NAMES:
             _attr(v, "standard_name", std)
@@ -169,7 +171,8 @@ def write_cf_netcdf(
                 out = packed.astype(np.int16)
             else:
                 out = np.where(np.isfinite(step), step, fill).astype(np.float32)
-            v.WriteArray(np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
+            gdal_call(f"{path}: cannot write {name!r} step {i}", v.WriteArray,
+                      np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
         del v
     del rg, ds
     return path
@@ -243,7 +246,8 @@ def write_grib2(
             mem.GetRasterBand(b).WriteArray(arr)
             opts.append(f"BAND_{b}_PDS_TEMPLATE_ASSEMBLED_VALUES={cat} {num} 2 0 0 0 0 1 "
                         f"{int(round(hours[i]))} {ltype} 0 {lval} 255 0 0")
-    gdal.GetDriverByName("GRIB").CreateCopy(path, mem, options=opts)
+    gdal_call(f"cannot write GRIB2 file {path!r}", gdal.GetDriverByName("GRIB").CreateCopy, path, mem,
+              options=opts)
     return path
 
 
@@ -274,7 +278,7 @@ def write_geotiff_stack(
     if data.shape[1:] != (ys.size, xs.size):
         raise SeawayInputError(f"values has shape {data.shape}, expected (nt, {ys.size}, {xs.size})")
     srs = osr.SpatialReference()
-    srs.SetFromUserInput(crs)
+    gdal_call(f"crs {crs!r} is not a CRS GDAL knows", srs.SetFromUserInput, crs)
     mem = _mem_dataset(xs, ys, data.shape[0], srs.ExportToWkt(), gdal.GDT_Float32,
                        geographic=bool(srs.IsGeographic()))
     if variable in CF_STANDARD_NAMES:
@@ -298,7 +302,7 @@ def write_geotiff_stack(
             band.SetUnitType(units)
         if write_times and t_s is not None:
             band.SetDescription(f"{np.datetime64(int(t_s[i]), 's')}Z")
-    gdal.GetDriverByName("GTiff").CreateCopy(path, mem)
+    gdal_call(f"cannot write GeoTIFF {path!r}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem)
     return path
 
 
@@ -330,5 +334,5 @@ def write_bathymetry_geotiff(
     band.SetUnitType(units)
     if write_positive:
         mem.SetMetadataItem("positive", "down" if convention == "depth_positive_down" else "up")
-    gdal.GetDriverByName("GTiff").CreateCopy(path, mem)
+    gdal_call(f"cannot write GeoTIFF {path!r}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem)
     return path
