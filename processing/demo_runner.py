@@ -8,7 +8,7 @@
 2. run ``seawaycomfort:describeseastate`` and ``seawaycomfort:routecomfort`` through
    ``/usr/bin/qgis_process.bin`` with an isolated QGIS profile in ``<dir>/.qgis-profile``;
 3. write ``<dir>/seaway_demo.qgz`` with the styled point and segment layers (their QML styles
-   applied) and the bathymetry, and print a short summary and the paths.
+   applied), the invented island and the bathymetry, and print a short summary and the paths.
 """
 from __future__ import annotations
 
@@ -70,8 +70,28 @@ def run_qgis_process(alg: str, params: Sequence[str], env: Dict[str, str], *, ti
     return json.loads(proc.stdout[start:])
 
 
-def write_project(out_dir: Path, points: str, segments: str, bathymetry: str, report: str) -> str:
+def _style_depth(layer: object) -> None:
+    """Depth in blues, light for shallow water, dark for deep (QGIS's built-in 'Blues' ramp)."""
+    from qgis.core import QgsColorRampShader, QgsRasterShader, QgsSingleBandPseudoColorRenderer, QgsStyle
+
+    ramp = QgsStyle.defaultStyle().colorRamp("Blues")
+    if ramp is None:
+        return
+    shader_fn = QgsColorRampShader(0.0, 2500.0, ramp)
+    shader_fn.classifyColorRamp(8)
+    shader = QgsRasterShader()
+    shader.setRasterShaderFunction(shader_fn)
+    renderer = QgsSingleBandPseudoColorRenderer(layer.dataProvider(), 1, shader)
+    renderer.setClassificationMin(0.0)
+    renderer.setClassificationMax(2500.0)
+    layer.setRenderer(renderer)
+    layer.setOpacity(0.55)  # keep the dark comfort classes readable on deep water
+
+
+def write_project(out_dir: Path, points: str, segments: str, bathymetry: str, report: str,
+                  land: str = "") -> str:
     """A QGIS project with the styled outputs (QML applied) and the bathymetry underneath."""
+    from qgis.PyQt.QtGui import QColor
     from qgis.core import (
         QgsApplication,
         QgsCoordinateReferenceSystem,
@@ -94,7 +114,13 @@ def write_project(out_dir: Path, points: str, segments: str, bathymetry: str, re
         layers = []
         depth = QgsRasterLayer(bathymetry, "Depth (invented bathymetry, m)", "gdal")
         if depth.isValid():
+            _style_depth(depth)
             layers.append(depth)
+        if land and os.path.exists(land):
+            island = QgsVectorLayer(land, "Land (invented)", "ogr")
+            if island.isValid():
+                island.renderer().symbol().setColor(QColor("#d8c9a3"))
+                layers.append(island)
         for path, name in ((segments, "Passage segments"), (points, "Passage samples")):
             layer = QgsVectorLayer(path, name, "ogr")
             if not layer.isValid():
@@ -155,7 +181,7 @@ def main(argv: Optional[List[str]] = None) -> int:
             f"OUTPUT_SEGMENTS={segments}",
             f"OUTPUT_REPORT={report}",
         ], env)
-        project = write_project(out, points, segments, scen.bathymetry_path, report)
+        project = write_project(out, points, segments, scen.bathymetry_path, report, scen.land_path)
     except Exception as exc:  # noqa: BLE001 - the demo reports any failure and exits non-zero
         print(f"demo failed: {exc}", file=sys.stderr)
         return 1

@@ -91,6 +91,17 @@ def _island_distance_deg(lon2: FloatArray, lat2: FloatArray) -> FloatArray:
     return np.hypot(dx, lat2 - cy) / r
 
 
+def island_outline(n: int = 90) -> Tuple[Tuple[float, float], ...]:
+    """Closed outline of Tarrow Island as (lon, lat) pairs: the curve where the scaled distance of
+    :func:`_island_distance_deg` equals 1 (first and last points equal, RFC 7946 s.3.1.6)."""
+    cx, cy = ISLAND_CENTRE_DEG
+    coslat = math.cos(math.radians(cy))
+    ang = np.linspace(0.0, 2.0 * math.pi, n, endpoint=False)
+    r = ISLAND_RADIUS_DEG * (1.0 + 0.18 * np.cos(3.0 * ang) + 0.08 * np.sin(5.0 * ang))
+    pts = [(float(cx + r_i * math.cos(a) / coslat), float(cy + r_i * math.sin(a))) for a, r_i in zip(ang, r)]
+    return tuple(pts + [pts[0]])
+
+
 def land_mask(lon_deg: FloatArray, lat_deg: FloatArray) -> np.ndarray:
     """True on Tarrow Island (grid of lon x lat given as 1-D axes; shape (ny, nx))."""
     lon2, lat2 = np.meshgrid(lon_deg, lat_deg)
@@ -174,6 +185,7 @@ class DemoScenario:
     grib_path: str
     bathymetry_path: str
     route_path: str
+    land_path: str
     vessel: str
     legs: Tuple[Dict[str, object], ...]
     forecast_start_utc: np.datetime64
@@ -199,6 +211,15 @@ def _route_geojson(path: str) -> None:
         json.dump(doc, fh, indent=1)
 
 
+def _land_geojson(path: str) -> None:
+    doc = {"type": "FeatureCollection", "name": "merrow_reach_land", "features": [{
+        "type": "Feature", "properties": {"name": "Tarrow Island (invented)"},
+        "geometry": {"type": "Polygon", "coordinates": [[list(p) for p in island_outline()]]},
+    }]}
+    with open(path, "w", encoding="utf-8") as fh:
+        json.dump(doc, fh)
+
+
 def build_demo_scenario(folder: str) -> DemoScenario:
     """Write the demo files into ``folder`` (created if needed) and describe them."""
     from .seastate import writers
@@ -213,7 +234,8 @@ def build_demo_scenario(folder: str) -> DemoScenario:
     grb = os.path.join(folder, "merrow_reach_forecast.grib2")
     tif = os.path.join(folder, "merrow_reach_depth.tif")
     route = os.path.join(folder, "merrow_reach_route.geojson")
-    for old in (nc, grb, tif, route):
+    land = os.path.join(folder, "merrow_reach_land.geojson")
+    for old in (nc, grb, tif, route, land):
         # fresh files every time (GDAL's GRIB writer fails on an existing file)
         if os.path.exists(old):
             os.remove(old)
@@ -241,12 +263,14 @@ def build_demo_scenario(folder: str) -> DemoScenario:
     writers.write_bathymetry_geotiff(tif, f.lon_deg, f.lat_deg, demo_depth_m(f.lon_deg, f.lat_deg),
                                      convention="depth_positive_down", write_positive=True)
     _route_geojson(route)
+    _land_geojson(land)
     return DemoScenario(
         folder=folder,
         netcdf_path=nc,
         grib_path=grb,
         bathymetry_path=tif,
         route_path=route,
+        land_path=land,
         vessel=DEMO_VESSEL,
         legs=DEMO_LEGS,
         forecast_start_utc=f.times_utc[0],
