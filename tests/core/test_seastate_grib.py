@@ -198,3 +198,15 @@ def test_regional_grid_across_antimeridian(tmp_path, fmt):
     east = np.mod(qlon - 150.0, 360.0)
     np.testing.assert_allclose(r.hs_m[:5], 1.0 + 0.01 * east[:5], atol=PACK)
     assert r.flags[5] & SampleFlag.OUTSIDE_GRID  # 140W lies east of the grid's 150W edge
+
+
+def test_dominant_partition_without_period_falls_back(tmp_path):
+    # the most energetic partition (swell1) has no period in the file: the next partition that has
+    # one gives Tp, and the sample says so (PARTIAL_VARIABLES); direction still from swell1
+    f = partitions_only()
+    del f["swell1_tp"]
+    path = write_grib2(str(tmp_path / "nop.grb2"), LON, LAT, TIMES, f)
+    r = open_sea_state(path).sample([10.0], [-55.0], _at([3.0]))  # wind 0.25 m, swell1 1.8 m, swell2 1.0 m
+    assert r.tp_s[0] == pytest.approx(15.0, abs=PACK)     # swell2's period (next most energetic)
+    assert r.wave_from_deg[0] == pytest.approx(300.0, abs=PACK)
+    assert r.flags[0] & SampleFlag.PARTIAL_VARIABLES and r.valid[0]

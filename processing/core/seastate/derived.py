@@ -6,7 +6,8 @@
   Hs; Holthuijsen, Waves in Oceanic and Coastal Waters, 2007, s.4.2). A partition that is
   no-data where others have data counts as absent (no energy).
 * Peak period and direction from partitions: those of the most energetic partition (largest
-  Hs_i) (common practice, no source).
+  Hs_i) (common practice, no source); where that partition has no period (or direction) the
+  next most energetic one that has it is used and the sample flagged PARTIAL_VARIABLES.
 * Peak period from a mean period for a JONSWAP spectrum with gamma = 3.3:
   ``Tp = Tm01 / 0.8343``, ``Tp = Tm02 / 0.7774``, ``Tp = Tm-1,0 / 0.9033``. The ratios are the
   JONSWAP moments of DNV-RP-C205 (2010) s.3.5.5 (their fits give Tz/Tp = 0.7776 and

@@ -243,12 +243,12 @@ class SeaStateSource:
             flags |= ls.flags & keep
             if np.any(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)):
                 layer = self._layers[c]
-                msg = (f"{layer.file} variable {layer.file_variable!r} ({c}): implausible values at "
-                       f"{int(np.count_nonzero(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)))} samples; "
-                       f"check the file's units (units read: {layer.units.unit_in!r})")
-                notes.append(msg)
-                if msg not in self.warnings:
-                    self.warnings.append(msg)
+                warn = (f"{layer.file} variable {layer.file_variable!r} ({c}): implausible values; "
+                        f"check the file's units (units read: {layer.units.unit_in!r})")
+                count = int(np.count_nonzero(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)))
+                notes.append(f"{warn} - at {count} samples")
+                if warn not in self.warnings:
+                    self.warnings.append(warn)
         nc = int(NOT_COMPUTED_FLAGS)
         parts = self.partitions
         nan2 = np.full((n, len(parts)), np.nan)
@@ -259,9 +259,17 @@ class SeaStateSource:
                     arr[:, j] = s[f"{p}_{q}"].values
         dom, has_part = dominant_partition(p_hs)
         rows = np.arange(n)
-        dom_tp = np.where(has_part, p_tp[rows, dom] if parts else np.nan, np.nan)
-        dom_dir = np.where(has_part, p_dir[rows, dom] if parts else np.nan, np.nan)
         partial = np.zeros(n, dtype=bool)
+        # Tp / direction of the most energetic partition that has one (a weaker one: PARTIAL)
+        dom_tp = np.full(n, np.nan)
+        dom_dir = np.full(n, np.nan)
+        weaker_tp = np.zeros(n, dtype=bool)
+        weaker_dir = np.zeros(n, dtype=bool)
+        for target, values, weaker in ((dom_tp, p_tp, weaker_tp), (dom_dir, p_dir, weaker_dir)):
+            if parts:
+                d2, ok2 = dominant_partition(np.where(np.isfinite(values), p_hs, np.nan))
+                target[ok2] = values[rows[ok2], d2[ok2]]
+                weaker |= ok2 & (d2 != dom)
         combined = "hs" in s
         consulted: Dict[str, List[str]] = {"hs": [], "tp": [], "dir": []}
 
@@ -298,6 +306,7 @@ class SeaStateSource:
         fill = ~np.isfinite(tp) & np.isfinite(dom_tp)
         if fill.any():
             tp[fill] = dom_tp[fill]
+            partial |= fill & weaker_tp
             if combined or "tp" in s:
                 partial |= fill
                 notes.append(f"Tp of the most energetic partition used at {int(fill.sum())} samples")
@@ -309,6 +318,7 @@ class SeaStateSource:
         fill = ~np.isfinite(wdir) & np.isfinite(dom_dir)
         if fill.any():
             wdir[fill] = dom_dir[fill]
+            partial |= fill & weaker_dir
             if combined or "dir" in s:
                 partial |= fill
                 notes.append(f"direction of the most energetic partition used at {int(fill.sum())} samples")
