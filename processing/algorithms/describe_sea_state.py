@@ -36,6 +36,19 @@ def inventory_html(title: str, text: str) -> str:
     )
 
 
+def summary_lines(inv: Any) -> str:
+    """Two opening lines: which combined-sea quantities and which partitions the file holds."""
+    from ..core.seastate.variables import COMBINED, PARTITIONS
+
+    names = [v.canonical for v in inv.variables if getattr(v, "used", True)]
+    combined = [c for c in COMBINED if c in names]
+    parts = [p for p in PARTITIONS if any(n.startswith(p + "_") for n in names)]
+    return (
+        f"Combined sea: {', '.join(combined) if combined else 'none (built from the partitions)'}\n"
+        f"Partitions: {', '.join(parts) if parts else 'none'}\n\n"
+    )
+
+
 class DescribeSeaStateAlgorithm(QgsProcessingAlgorithm):
     """Lists the sea-state variables a file holds and how they were recognised."""
 
@@ -93,7 +106,9 @@ class DescribeSeaStateAlgorithm(QgsProcessingAlgorithm):
             raise QgsProcessingException(f"INPUT {path!r}: {exc}") from exc
         except RuntimeError as exc:
             raise QgsProcessingException(f"INPUT {path!r} could not be read: {exc}") from exc
-        text = inv.as_text().rstrip() + "\n\nCAUTION: " + CAUTION + "\n"
+        text = summary_lines(inv) + inv.as_text().rstrip() + "\n"
+        if CAUTION not in text:
+            text += "\nCAUTION: " + CAUTION + "\n"
         for line in text.splitlines():
             feedback.pushInfo(line)
         out: Dict[str, Any] = {DESCRIPTION: text}
