@@ -413,3 +413,16 @@ def test_directions_weighted_circular_mean(tmp_path):
     w = np.array([(1 - fx) * (1 - wt), fx * (1 - wt), (1 - fx) * wt, fx * wt])
     want = np.degrees(np.angle(np.sum(w * z))) % 360.0
     assert r.wave_from_deg[0] == pytest.approx(want, abs=1e-9)
+
+
+def test_two_candidates_in_one_file_first_by_preference(tmp_path):
+    # both a coming-from and a going-to direction: the coming-from one is used, and the choice is
+    # reported (our documented preference order)
+    f = _fields()
+    path = write_cf_netcdf(str(tmp_path / "both.nc"), LON, LAT, TIMES, {
+        HS: f[HS], TP: f[TP], DIR: f[DIR], "sea_surface_wave_to_direction": np.full(f[DIR].shape, 0.0)},
+        var_names={"sea_surface_wave_to_direction": "dir_to"})
+    src = open_sea_state(path)
+    assert src.layer("dir").file_variable == "dir"
+    assert any("'dir'" in w and "'dir_to'" in w and "is used" in w for w in src.warnings)
+    assert src.sample([20.0], [0.0], _hours([1])).wave_from_deg[0] == pytest.approx(200.0, abs=1e-9)
