@@ -269,7 +269,7 @@ class RouteComfortAlgorithm(QgsProcessingAlgorithm):
             source_names=tuple(s.name for s in sources),
             bathymetry=settings.depth_path or "",
             route=route_src,
-            vessel=f"{vessel_name} ({settings.vessel_spec})",
+            vessel=vessel_name if str(settings.vessel_spec) == str(vessel_name) else f"{vessel_name} ({settings.vessel_spec})",
             station=results[0][1].station_name if results else (settings.station or ""),
             departure_utc=(str(settings.departure_utc.astype("datetime64[m]")).replace("T", " ") + " UTC")
             if settings.departure_utc is not None else "per route feature",

@@ -233,6 +233,9 @@ METHOD_NOTES: Tuple[str, ...] = (
     "(frequency weighting Wf), accumulated along the passage.",
     "Guidance flags after IMO MSC.1/Circ.1228 (2007); they do not replace the ship's "
     "stability information.",
+    "Comfort classes (smooth, steady, lively, taxing, punishing) are this tool's own five-step "
+    "summary of the MSI and of how close the station's seakeeping criteria are to their limits; "
+    "they are not taken from a standard.",
 )
 
 
@@ -283,7 +286,8 @@ def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
             "Worst sample",
             f"#{int(r.seq[worst])} at {_fmt_time(r.eta_utc[worst])}, {_fmt(r.dist_nm[worst], 1)} NM: "
             f"{r.comfort_label[worst]}, Hs {_fmt(r.hs_m[worst])} m, vertical acc. "
-            f"{_fmt(r.vacc_rms_m_s2[worst])} m/s2 RMS, roll {_fmt(r.roll_rms_deg[worst], 1)} deg RMS",
+            f"{_fmt(r.vacc_rms_m_s2[worst])} m/s2 RMS, lateral acc. {_fmt(r.lacc_rms_m_s2[worst])} m/s2 RMS, "
+            f"roll {_fmt(r.roll_rms_deg[worst], 1)} deg RMS, MSI {_fmt(r.msi_pct[worst], 1)} %",
         ))
     parts.append(_table(("Item", "Value"), rows))
     parts.append("<h3>Time in each comfort class</h3>")
