@@ -28,7 +28,7 @@ from qgis.core import (
     QgsProcessingParameterRasterLayer,
     QgsProcessingParameterString,
 )
-from qgis.PyQt.QtCore import QCoreApplication
+from qgis.PyQt.QtCore import QCoreApplication, QDateTime
 
 from ..core.validation import SeawayInputError
 
@@ -182,7 +182,7 @@ def resolve_vessel_spec(spec: str) -> Any:
         stored = sorted(p.stem for p in user_vessel_dir().glob("*.json")) if user_vessel_dir().is_dir() else []
         extra = f"; profiles in your QGIS profile folder: {', '.join(stored)}" if stored else ""
         raise QgsProcessingException(f"VESSEL {text!r}: {exc}{extra}") from exc
-    except (OSError, ValueError) as exc:
+    except (OSError, ValueError, KeyError, TypeError) as exc:
         raise QgsProcessingException(f"VESSEL {text!r} could not be read as a vessel profile: {exc}") from exc
 
 
@@ -217,7 +217,10 @@ def parse_passage_settings(
     elif parameters.get(DEPTH) not in (None, ""):
         raise QgsProcessingException(f"DEPTH {parameters.get(DEPTH)!r} is not a readable raster")
     departure = None
-    if parameters.get(DEPARTURE) not in (None, ""):
+    raw_dep = parameters.get(DEPARTURE)
+    if isinstance(raw_dep, QDateTime) and not raw_dep.isValid():
+        raw_dep = None  # the dialog's "not set" value
+    if raw_dep not in (None, ""):
         qdt = alg.parameterAsDateTime(parameters, DEPARTURE, context)
         if qdt is None or not qdt.isValid():
             raise QgsProcessingException(
