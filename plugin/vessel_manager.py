@@ -121,6 +121,7 @@ class VesselManagerDialog(QDialog):
         self.setObjectName("SeawayComfortVesselManager")
         self.setWindowTitle(self.tr("Seaway Comfort: vessel profiles"))
         self._build()
+        self._mark_clean()
         self.reload()
 
     def tr(self, text: str) -> str:  # noqa: D401 - Qt naming
@@ -307,8 +308,10 @@ class VesselManagerDialog(QDialog):
                 target_row = self.profile_list.count() - 1
         self.profile_list.blockSignals(False)
         if self.profile_list.count():
+            self.profile_list.blockSignals(True)
             self.profile_list.setCurrentRow(target_row)
-            self._on_current_item_changed(self.profile_list.currentItem(), None)
+            self.profile_list.blockSignals(False)
+            self._load_item(self.profile_list.currentItem())
         else:
             self.new_profile()
 
@@ -324,9 +327,18 @@ class VesselManagerDialog(QDialog):
                 return True
         return False
 
-    def _on_current_item_changed(self, current: Optional[QListWidgetItem], _previous: Any) -> None:
+    def _on_current_item_changed(self, current: Optional[QListWidgetItem],
+                                 previous: Optional[QListWidgetItem]) -> None:
         if current is None:
             return
+        if not self.confirm_discard():
+            self.profile_list.blockSignals(True)
+            self.profile_list.setCurrentItem(previous)
+            self.profile_list.blockSignals(False)
+            return
+        self._load_item(current)
+
+    def _load_item(self, current: QListWidgetItem) -> None:
         kind, key = tuple(current.data(Qt.ItemDataRole.UserRole))
         self.clear_message()
         try:
@@ -342,6 +354,7 @@ class VesselManagerDialog(QDialog):
             self._kind, self._current_path = KIND_BROKEN, Path(key)
             self._update_state()
             self.show_error(str(exc))
+        self._mark_clean()
 
     # ================================================================== form
     def set_profile(self, profile: VesselProfile, *, kind: str = KIND_NEW,
@@ -359,6 +372,46 @@ class VesselManagerDialog(QDialog):
         for station in profile.stations:
             self.add_station_row(station)
         self._update_state()
+        self._mark_clean()
+
+    # ================================================================== unsaved changes
+    def _snapshot(self) -> Tuple[Any, ...]:
+        """The raw state of the form (no parsing), to notice unsaved edits."""
+        cells = []
+        for row in range(self.station_table.rowCount()):
+            items = [self.station_table.item(row, col) for col in range(4)]
+            combo = self.station_table.cellWidget(row, 4)
+            cells.append(tuple(i.text() if i is not None else "" for i in items)
+                         + (combo.currentData() if isinstance(combo, QComboBox) else None,))
+        return (self.name_edit.text(), self.description_edit.toPlainText(),
+                tuple(spin.value() for spin in self.spins.values()), tuple(cells))
+
+    def _mark_clean(self) -> None:
+        self._clean_snapshot = self._snapshot()
+
+    def has_unsaved_changes(self) -> bool:
+        """True when the form of an editable profile was changed since it was loaded or saved."""
+        if self.is_read_only():
+            return False
+        return self._snapshot() != getattr(self, "_clean_snapshot", None)
+
+    def confirm_discard(self) -> bool:
+        """True when there is nothing unsaved, or the user agrees to discard it."""
+        if not self.has_unsaved_changes():
+            return True
+        return self.ask(self.tr("Discard changes?"),
+                        self.tr("The profile {0!r} has unsaved changes. Discard them?")
+                        .format(self.name_edit.text()))
+
+    def reject(self) -> None:  # Close button, Esc
+        if self.confirm_discard():
+            super().reject()
+
+    def closeEvent(self, event: Any) -> None:  # noqa: N802 (Qt API name)
+        if self.confirm_discard():
+            event.accept()
+        else:
+            event.ignore()
 
     def add_station_row(self, station: Station) -> None:
         row = self.station_table.rowCount()
@@ -564,12 +617,15 @@ class VesselManagerDialog(QDialog):
         except (SeawayInputError, OSError) as exc:
             self.show_error(str(exc))
             return None
+        self._mark_clean()
         self.reload(select=(KIND_USER, str(path)))
         self.show_info(self.tr("Saved {0!r} to {1}").format(profile.name, path))
         return path
 
     def new_profile(self) -> None:
         """Start an unsaved profile from a neutral template (the name must be filled in)."""
+        if not self.confirm_discard():
+            return
         template = VesselProfile(
             name="new", length_wl_m=10.0, beam_m=3.5, draught_m=1.0, block_coeff=0.45,
             gm_m=0.8, roll_damping_ratio=0.10, service_speed_kn=8.0,
@@ -581,6 +637,7 @@ class VesselManagerDialog(QDialog):
         self.profile_list.blockSignals(False)
         self.set_profile(template, kind=KIND_NEW)
         self.name_edit.clear()
+        self._mark_clean()
         self.name_edit.setFocus()
         self.show_info(self.tr("Fill in the name and your vessel's particulars, then Save."))
 
@@ -619,6 +676,7 @@ class VesselManagerDialog(QDialog):
         except (SeawayInputError, OSError) as exc:
             self.show_error(str(exc))
             return False
+        self._mark_clean()  # the deleted profile's edits go with it
         self.reload()
         self.show_info(self.tr("Deleted {0}").format(path))
         return True

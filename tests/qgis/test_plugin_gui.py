@@ -8,6 +8,7 @@ module; translations are compiled with Qt's own ``lrelease``.
 from __future__ import annotations
 
 import json
+import os
 import shutil
 import subprocess
 from pathlib import Path
@@ -214,7 +215,8 @@ def test_init_gui_follows_qgis_locale(qgis_app, qgis_iface, compiled_de: Path, m
     plugin = plugin_main.SeawayComfortPlugin(iface)
     try:
         plugin.initGui()
-        assert plugin.translator is not None
+        installed = plugin.translator  # keep it alive: Qt removes a translator it destroys
+        assert installed is not None
         assert [a.text() for _, a in iface.menu][2] == "Schiffsprofile..."
     finally:
         plugin.unload()
@@ -225,6 +227,7 @@ def test_init_gui_follows_qgis_locale(qgis_app, qgis_iface, compiled_de: Path, m
             settings.setValue("locale/userLocale", old)
     assert plugin.translator is None
     assert plugin_main.SeawayComfortPlugin.tr("Vessel profiles...") == "Vessel profiles..."
+    assert installed.translate("SeawayComfortPlugin", "Vessel profiles...") == "Schiffsprofile..."
 
 
 # ---------------------------------------------------------------------- vessel manager
@@ -244,6 +247,7 @@ def dialog(qgis_app, qgis_parent, tmp_path: Path):
     dlg.answers, dlg.asked = answers, asked  # type: ignore[attr-defined]
     dlg.show()
     yield dlg
+    dlg.ask = lambda title, question: True  # type: ignore[method-assign]
     dlg.close()
     dlg.deleteLater()
     _flush_deletes()
@@ -404,3 +408,150 @@ def test_default_store_is_in_qgis_profile(qgis_app):
 
     expected = Path(QgsApplication.qgisSettingsDirPath()) / "seaway_comfort" / "vessels"
     assert default_store().folder == expected
+
+
+def test_unsaved_edits_are_not_lost_silently(dialog):
+    _editable(dialog)
+    dialog.name_edit.setText("Work in progress")
+    dialog.spins["draught_m"].setValue(1.9)
+    assert dialog.has_unsaved_changes()
+    row_before = dialog.profile_list.currentRow()
+    # Switching to another profile asks; "no" keeps the edits and the selection.
+    dialog.answers.append(False)
+    dialog.profile_list.setCurrentRow(1)
+    assert dialog.asked and "unsaved changes" in dialog.asked[-1]
+    assert dialog.profile_list.currentRow() == row_before
+    assert dialog.name_edit.text() == "Work in progress"
+    # Closing asks too; "no" keeps the dialog open.
+    dialog.answers.append(False)
+    dialog.reject()
+    assert dialog.isVisible() and len(dialog.asked) == 2
+    # "yes" on switching discards the edits and loads the other profile.
+    dialog.answers.append(True)
+    dialog.profile_list.setCurrentRow(1)
+    assert dialog.current_kind() == "builtin"
+    assert dialog.name_edit.text() == builtin_profile_names()[1]
+    assert not dialog.has_unsaved_changes()
+
+
+def test_saved_profile_is_clean(dialog):
+    _editable(dialog)
+    dialog.name_edit.setText("Clean after save")
+    assert dialog.has_unsaved_changes()
+    assert dialog.save() is not None
+    assert not dialog.has_unsaved_changes()
+    dialog.profile_list.setCurrentRow(0)  # no question: the fixture would fail on one
+    assert dialog.asked == []
+
+
+def test_vessel_manager_slot_opens_dialog_on_the_qgis_store(qgis_app, qgis_iface, monkeypatch):
+    from seaway_comfort.plugin import vessel_manager
+
+    opened = []
+    monkeypatch.setattr(vessel_manager.VesselManagerDialog, "exec",
+                        lambda self: opened.append(self.store.folder) or 0)
+    plugin = plugin_main.SeawayComfortPlugin(qgis_iface)
+    plugin.open_vessel_manager()
+    plugin.open_vessel_manager()  # reopened: the same dialog, list reloaded
+    expected = Path(QgsApplication.qgisSettingsDirPath()) / "seaway_comfort" / "vessels"
+    assert opened == [expected, expected]
+    dlg = plugin.vessel_dialog
+    assert dlg is not None and dlg.parent() is qgis_iface.mainWindow()
+    plugin.unload()
+    _flush_deletes()
+    assert plugin.vessel_dialog is None
+
+
+# ---------------------------------------------------------------------- real desktop (Xvfb)
+_DESKTOP_SCRIPT = r'''
+import json
+from qgis.PyQt.QtCore import QTimer
+from qgis.core import QgsApplication, QgsProject
+from qgis.utils import iface, plugins, unloadPlugin
+
+OUT = {out!r}
+report = {{}}
+
+
+def ours_in_menu():
+    names = []
+    for action in iface.pluginMenu().actions():
+        if action.menu() is not None and "Seaway Comfort" in action.text():
+            names += [a.text() for a in action.menu().actions()]
+    return names
+
+
+def ours_in_toolbar():
+    return [a.text() for a in iface.pluginToolBar().actions() if "Passage comfort" in a.text()]
+
+
+def step1():
+    plugin = plugins.get("seaway_comfort")
+    report["loaded"] = plugin is not None
+    report["menu"] = ours_in_menu()
+    report["toolbar"] = ours_in_toolbar()
+    report["provider"] = QgsApplication.processingRegistry().providerById("seawaycomfort") is not None
+    iface.mainWindow().resize(1280, 900)
+    QTimer.singleShot(1500, step2)
+    QTimer.singleShot(200, lambda: plugin.actions[2].trigger())  # modal vessel manager
+
+
+def step2():
+    QgsApplication.primaryScreen().grabWindow(0).save(OUT + "/desktop.png")
+    dialog = plugins["seaway_comfort"].vessel_dialog
+    report["dialog_visible"] = bool(dialog is not None and dialog.isVisible())
+    report["dialog_items"] = dialog.item_labels() if dialog is not None else []
+    if dialog is not None:
+        dialog.reject()
+    QTimer.singleShot(300, step3)
+
+
+def step3():
+    report["unloaded"] = unloadPlugin("seaway_comfort")
+    report["menu_after"] = ours_in_menu()
+    report["toolbar_after"] = ours_in_toolbar()
+    report["provider_after"] = (
+        QgsApplication.processingRegistry().providerById("seawaycomfort") is not None)
+    with open(OUT + "/report.json", "w") as f:
+        json.dump(report, f)
+    QgsProject.instance().clear()
+    iface.actionExit().trigger()
+
+
+QTimer.singleShot(3000, step1)
+'''
+
+
+def test_desktop_qgis_under_xvfb(package_parent: Path, tmp_path: Path):
+    """Real QGIS desktop: menu + toolbar entries, the dialog opens, unload leaves nothing."""
+    xvfb, qgis_bin = shutil.which("xvfb-run"), "/usr/bin/qgis.bin"
+    if xvfb is None or not Path(qgis_bin).exists():
+        pytest.skip("xvfb-run or qgis.bin not installed")
+    ini = tmp_path / "prof" / "profiles" / "default" / "QGIS" / "QGIS3.ini"
+    ini.parent.mkdir(parents=True)
+    ini.write_text("[PythonPlugins]\nseaway_comfort=true\n", encoding="utf-8")
+    script = tmp_path / "shot.py"
+    script.write_text(_DESKTOP_SCRIPT.format(out=str(tmp_path)), encoding="utf-8")
+    env = dict(os.environ, QGIS_PLUGINPATH=str(package_parent))
+    env.pop("QT_QPA_PLATFORM", None)  # a real (virtual) X display this time
+    proc = subprocess.run(
+        [xvfb, "-a", "-s", "-screen 0 1280x900x24", qgis_bin, "--noversioncheck", "--nologo",
+         "--profiles-path", str(tmp_path / "prof"), "--code", str(script)],
+        capture_output=True, text=True, timeout=180, env=env,
+    )
+    report_path = tmp_path / "report.json"
+    assert report_path.exists(), proc.stdout[-2000:] + proc.stderr[-2000:]
+    report = json.loads(report_path.read_text(encoding="utf-8"))
+    assert report["loaded"] and report["provider"]
+    assert report["menu"] == ["Passage comfort along a route...", "Describe a forecast file...",
+                              "Vessel profiles..."]
+    assert report["toolbar"] == ["Passage comfort along a route..."]
+    assert report["dialog_visible"]
+    assert report["dialog_items"] == [f"{n} (example)" for n in builtin_profile_names()]
+    assert report["unloaded"] is True
+    assert report["menu_after"] == [] and report["toolbar_after"] == []
+    assert report["provider_after"] is False
+    from qgis.PyQt.QtGui import QImage
+
+    shot = QImage(str(tmp_path / "desktop.png"))
+    assert not shot.isNull() and shot.width() == 1280
