@@ -8,113 +8,31 @@ method is described in :mod:`.sampler`; derived quantities in :mod:`.derived`.
 from __future__ import annotations
 
 import os
-from dataclasses import dataclass, replace
 from typing import Callable, Dict, List, Optional, Sequence, Tuple, Union
 
 import numpy as np
-from numpy.typing import NDArray
 
-from ..flags import CAUTION, NOT_COMPUTED_FLAGS, SampleFlag
-from ..units import FloatArray
+from ..flags import SampleFlag
 from ..validation import SeawayInputError, as_float_array, require_in_range, require_nonnegative
-from .derived import MEAN_PERIOD_RATIOS, dominant_partition, hs_m_from_partitions, tp_s_from_mean_period
+from .combine import SampledSeaState, combine_samples
 from .discovery import Discovery, check_direction_convention, invert_variable_map
 from .geotiff import discover_geotiff
 from .grib import discover_grib
 from .inventory import IgnoredEntry, Inventory, entry_for_layer
 from .layer import DatasetCache, VariableLayer, open_gdal
+from .merge import merge_layers
 from .netcdf import discover_netcdf
 from .sampler import LayerSample, sample_layer
 from .timeaxis import as_utc_seconds, to_datetime64
 from .variables import PARTITIONS
+
+__all__ = ["SampledSeaState", "SamplingCancelled", "SeaStateSource", "describe_file", "open_sea_state"]
 
 ProgressCallback = Callable[[float], Optional[bool]]
 
 
 class SamplingCancelled(Exception):
     """Raised by :meth:`SeaStateSource.sample` when the progress callback returns False."""
-
-
-@dataclass(frozen=True)
-class SampledSeaState:
-    """Sea state at n route samples. NaN + a flag where not computable, never 0.
-
-    ``wave_from_deg`` is degrees true, coming from. Partition arrays are (n, p) in the order of
-    ``partition_names``; NaN where a partition is absent at a sample.
-    """
-
-    hs_m: FloatArray
-    tp_s: FloatArray
-    wave_from_deg: FloatArray
-    partition_names: Tuple[str, ...]
-    partition_hs_m: FloatArray
-    partition_tp_s: FloatArray
-    partition_from_deg: FloatArray
-    tm01_s: FloatArray
-    flags: NDArray[np.int64]
-    source_name: str
-    valid: NDArray[np.bool_]
-    notes: Tuple[str, ...] = ()
-    caution: str = CAUTION
-
-    @property
-    def n(self) -> int:
-        return int(self.hs_m.size)
-
-
-def _same_grid(a: VariableLayer, b: VariableLayer) -> bool:
-    ga, gb = a.grid, b.grid
-    return (ga.nx, ga.ny, ga.crs_label) == (gb.nx, gb.ny, gb.crs_label) and np.allclose(
-        ga.geotransform, gb.geotransform, rtol=0, atol=1e-9)
-
-
-def _file_of(gdal_name: str) -> str:
-    """Plain file path of a GDAL dataset name (strips NETCDF:"...":var)."""
-    if gdal_name.upper().startswith("NETCDF:"):
-        return gdal_name.split(":", 1)[1].rsplit(":", 1)[0].strip('"')
-    return gdal_name
-
-
-def _merge(layers_in_order: List[VariableLayer], warnings: List[str]) -> Dict[str, VariableLayer]:
-    """One layer per canonical variable: first file wins; same-grid files extend the time axis."""
-    chosen: Dict[str, VariableLayer] = {}
-    for layer in layers_in_order:
-        c = layer.canonical
-        old = chosen.get(c)
-        if old is None:
-            chosen[c] = layer
-            continue
-        if old.file == layer.file:
-            if layer.priority < old.priority:
-                chosen[c] = layer
-                warnings.append(f"{layer.file}: {c!r} found as {old.file_variable!r} and "
-                                f"{layer.file_variable!r}; {layer.file_variable!r} is used")
-            else:
-                warnings.append(f"{layer.file}: {c!r} found as {old.file_variable!r} and "
-                                f"{layer.file_variable!r}; {old.file_variable!r} is used")
-            continue
-        if _same_grid(old, layer) and old.units.factor == layer.units.factor and old.going_to == layer.going_to:
-            t_old = set(int(t) for t in old.times_s)
-            dup = [t for t in layer.times_s if int(t) in t_old]
-            if dup:
-                holder = _file_of(old.bands[int(np.flatnonzero(old.times_s == dup[0])[0])][0])
-                warnings.append(
-                    f"{c!r}: {layer.file} repeats {len(dup)} time(s) already read (first "
-                    f"{np.datetime64(int(dup[0]), 's')}Z from {holder}); {holder} is used"
-                )
-            entries = list(zip(old.times_s.tolist(), old.bands))
-            entries += [(int(t), b) for t, b in zip(layer.times_s.tolist(), layer.bands) if int(t) not in t_old]
-            if len(entries) == len(old.bands):
-                continue
-            entries.sort(key=lambda e: e[0])
-            chosen[c] = replace(old, times_s=np.array([e[0] for e in entries], dtype=np.int64),
-                                bands=tuple(e[1] for e in entries),
-                                files=tuple(dict.fromkeys(old.all_files + layer.all_files)))
-            continue
-        overlap = not (layer.times_s[-1] < old.times_s[0] or layer.times_s[0] > old.times_s[-1])
-        why = "for the same times" if overlap else "on a different grid"
-        warnings.append(f"{c!r} is in both {old.file} and {layer.file} {why}; {old.file} is used")
-    return chosen
 
 
 def _discover(path: str, inverse_map: Dict[str, str], direction_convention: str,
@@ -214,7 +132,7 @@ class SeaStateSource:
                 self._check_any_inside([out[h] for h in heights], lon, lat, t)
             if progress is not None and progress((k + 1) / len(order)) is False:
                 raise SamplingCancelled("sea-state sampling cancelled")
-        return self._combine(out, lon.size)
+        return combine_samples(out, lon.size, self._layers, self.partitions, self.name, self.warnings)
 
     def _check_any_inside(self, samples: List[LayerSample], lon, lat, t) -> None:  # type: ignore[no-untyped-def]
         off = int(SampleFlag.OUTSIDE_GRID | SampleFlag.OUTSIDE_TIME)
@@ -234,119 +152,6 @@ class SeaStateSource:
             f"no route sample lies inside both the grid and the time range of {layer.file} variable "
             f"{layer.file_variable!r} (forecast {a}Z..{b}Z; route times {ta}Z..{tb}Z)"
         )
-
-    def _combine(self, s: Dict[str, LayerSample], n: int) -> SampledSeaState:
-        flags = np.zeros(n, dtype=np.int64)
-        notes: List[str] = []
-        keep = int(SampleFlag.LAND_ADJUSTED | SampleFlag.IMPLAUSIBLE_VALUE)
-        for c, ls in s.items():
-            flags |= ls.flags & keep
-            if np.any(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)):
-                layer = self._layers[c]
-                warn = (f"{layer.file} variable {layer.file_variable!r} ({c}): implausible values; "
-                        f"check the file's units (units read: {layer.units.unit_in!r})")
-                count = int(np.count_nonzero(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)))
-                notes.append(f"{warn} - at {count} samples")
-                if warn not in self.warnings:
-                    self.warnings.append(warn)
-        nc = int(NOT_COMPUTED_FLAGS)
-        parts = self.partitions
-        nan2 = np.full((n, len(parts)), np.nan)
-        p_hs, p_tp, p_dir = nan2.copy(), nan2.copy(), nan2.copy()
-        for j, p in enumerate(parts):
-            for arr, q in ((p_hs, "hs"), (p_tp, "tp"), (p_dir, "dir")):
-                if f"{p}_{q}" in s:
-                    arr[:, j] = s[f"{p}_{q}"].values
-        dom, has_part = dominant_partition(p_hs)
-        rows = np.arange(n)
-        partial = np.zeros(n, dtype=bool)
-        # Tp / direction of the most energetic partition that has one (a weaker one: PARTIAL)
-        dom_tp = np.full(n, np.nan)
-        dom_dir = np.full(n, np.nan)
-        weaker_tp = np.zeros(n, dtype=bool)
-        weaker_dir = np.zeros(n, dtype=bool)
-        for target, values, weaker in ((dom_tp, p_tp, weaker_tp), (dom_dir, p_dir, weaker_dir)):
-            if parts:
-                d2, ok2 = dominant_partition(np.where(np.isfinite(values), p_hs, np.nan))
-                target[ok2] = values[rows[ok2], d2[ok2]]
-                weaker |= ok2 & (d2 != dom)
-        combined = "hs" in s
-        consulted: Dict[str, List[str]] = {"hs": [], "tp": [], "dir": []}
-
-        if combined:
-            hs = s["hs"].values.copy()
-            consulted["hs"].append("hs")
-            if parts:
-                from_parts = hs_m_from_partitions(p_hs)
-                fill = ~np.isfinite(hs) & np.isfinite(from_parts)
-                if fill.any():
-                    hs[fill] = from_parts[fill]
-                    partial |= fill
-                    notes.append(f"combined Hs missing at {int(fill.sum())} samples: "
-                                 "sqrt(sum of partition Hs^2) used")
-                consulted["hs"] += [f"{p}_hs" for p in parts]
-        else:
-            hs = hs_m_from_partitions(p_hs)
-            consulted["hs"] += [f"{p}_hs" for p in parts]
-            notes.append("combined Hs = sqrt(sum of partition Hs^2); Tp and direction of the most "
-                         "energetic partition (the file has no combined sea)")
-
-        tp = s["tp"].values.copy() if "tp" in s else np.full(n, np.nan)
-        if "tp" in s:
-            consulted["tp"].append("tp")
-        for key in ("tm01", "tm02", "tm10"):
-            if key in s:
-                consulted["tp"].append(key)
-                fill = ~np.isfinite(tp) & np.isfinite(s[key].values)
-                if fill.any():
-                    tp[fill] = tp_s_from_mean_period(s[key].values[fill], key)
-                    partial |= fill
-                    notes.append(f"Tp derived from {key} at {int(fill.sum())} samples with "
-                                 f"{key}/Tp = {MEAN_PERIOD_RATIOS[key]} (JONSWAP gamma 3.3)")
-        fill = ~np.isfinite(tp) & np.isfinite(dom_tp)
-        if fill.any():
-            tp[fill] = dom_tp[fill]
-            partial |= fill & weaker_tp
-            if combined or "tp" in s:
-                partial |= fill
-                notes.append(f"Tp of the most energetic partition used at {int(fill.sum())} samples")
-        consulted["tp"] += [f"{p}_tp" for p in parts if f"{p}_tp" in s]
-
-        wdir = s["dir"].values.copy() if "dir" in s else np.full(n, np.nan)
-        if "dir" in s:
-            consulted["dir"].append("dir")
-        fill = ~np.isfinite(wdir) & np.isfinite(dom_dir)
-        if fill.any():
-            wdir[fill] = dom_dir[fill]
-            partial |= fill & weaker_dir
-            if combined or "dir" in s:
-                partial |= fill
-                notes.append(f"direction of the most energetic partition used at {int(fill.sum())} samples")
-        consulted["dir"] += [f"{p}_dir" for p in parts if f"{p}_dir" in s]
-
-        tm01 = s["tm01"].values.copy() if "tm01" in s else np.full(n, np.nan)
-        valid = np.isfinite(hs) & np.isfinite(tp) & np.isfinite(wdir)
-        for field_name, arr in (("hs", hs), ("tp", tp), ("dir", wdir)):
-            bad = ~np.isfinite(arr)
-            for c in consulted[field_name]:
-                flags[bad] |= s[c].flags[bad] & nc
-            if field_name != "hs" and not consulted[field_name]:
-                partial |= bad
-        any_nc = np.zeros(n, dtype=bool)
-        for ls in s.values():
-            any_nc |= (ls.flags & nc) != 0
-        partial |= valid & any_nc
-        flags[partial] |= int(SampleFlag.PARTIAL_VARIABLES)
-        orphan = ~valid & ((flags & nc) == 0) & ((flags & int(SampleFlag.PARTIAL_VARIABLES)) == 0)
-        flags[orphan] |= int(SampleFlag.PARTIAL_VARIABLES)
-        for arr in (hs, tp, wdir):
-            arr[~valid] = np.nan
-        return SampledSeaState(
-            hs_m=hs, tp_s=tp, wave_from_deg=wdir, partition_names=parts, partition_hs_m=p_hs,
-            partition_tp_s=p_tp, partition_from_deg=p_dir, tm01_s=tm01, flags=flags,
-            source_name=self.name, valid=valid, notes=tuple(dict.fromkeys(notes)),
-        )
-
 
 def _as_paths(paths: Union[str, os.PathLike, Sequence[Union[str, os.PathLike]]]) -> List[str]:
     if isinstance(paths, (str, os.PathLike)):
@@ -391,7 +196,7 @@ def open_sea_state(
         ignored += [IgnoredEntry(f, name, reason) for name, reason in d.ignored]
         layers += sorted(d.layers, key=lambda l: l.priority)
     found_files = {inverse[k] for k in inverse}
-    chosen = _merge(layers, warnings)
+    chosen = merge_layers(layers, warnings)
     unused = [l for l in layers if chosen.get(l.canonical) is not l and not any(
         l.bands[0] in c.bands for c in chosen.values())]
     missing_map = sorted(c for c in found_files if c not in chosen)
@@ -433,7 +238,7 @@ def describe_file(path: str, *, variable_map: Optional[Dict[str, str]] = None) -
     d = _discover(f, inverse, "auto", None, strict=False)
     warnings = list(d.warnings)
     layers = sorted(d.layers, key=lambda l: l.priority)
-    chosen = _merge(layers, warnings)
+    chosen = merge_layers(layers, warnings)
     entries = [entry_for_layer(l, chosen.get(l.canonical) is l) for l in layers]
     return Inventory(os.path.splitext(os.path.basename(f))[0], (f,), tuple(entries),
                      tuple(IgnoredEntry(f, n, r) for n, r in d.ignored), tuple(warnings))
