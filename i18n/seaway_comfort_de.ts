@@ -102,39 +102,39 @@
 <context>
     <name>DescribeSeaStateAlgorithm</name>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="49"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="62"/>
         <source>Describe a sea-state file</source>
         <translation>Seegangsdatei beschreiben</translation>
     </message>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="52"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="65"/>
         <source>Passage planning</source>
         <translation>Reiseplanung</translation>
     </message>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="58"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="71"/>
         <source>&lt;p&gt;Opens a GRIB2, NetCDF-CF or GeoTIFF sea-state file the way the passage algorithms do and lists what it finds: each variable the plugin can use (significant wave height, peak or mean periods, direction, wind-sea and swell partitions), how it was recognised (CF standard name, GRIB2 parameter code, name), its units and any conversion, the grid (size, extent, resolution, CRS), the time range and step, and anything ignored.&lt;/p&gt;&lt;p&gt;Use it to check a file before a passage run. The text goes to the log, to the DESCRIPTION output and, if asked, to an HTML or text file.&lt;/p&gt;&lt;p&gt;&lt;b&gt;Caution&lt;/b&gt;: {CAUTION}&lt;/p&gt;</source>
         <translation type="unfinished"></translation>
     </message>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="73"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="86"/>
         <source>Sea-state file</source>
-        <translation type="unfinished"></translation>
+        <translation>Seegangsdatei</translation>
     </message>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="76"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="89"/>
         <source>Description file</source>
-        <translation type="unfinished"></translation>
+        <translation>Beschreibungsdatei</translation>
     </message>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="76"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="89"/>
         <source>HTML files (*.html);;Text files (*.txt)</source>
-        <translation type="unfinished"></translation>
+        <translation>HTML-Dateien (*.html);;Textdateien (*.txt)</translation>
     </message>
     <message>
-        <location filename="../processing/algorithms/describe_sea_state.py" line="80"/>
+        <location filename="../processing/algorithms/describe_sea_state.py" line="93"/>
         <source>Description</source>
-        <translation type="unfinished">Beschreibung</translation>
+        <translation>Beschreibung</translation>
     </message>
 </context>
 <context>
@@ -157,32 +157,32 @@
     <message>
         <location filename="../processing/algorithms/route_comfort.py" line="143"/>
         <source>Passage samples</source>
-        <translation type="unfinished"></translation>
+        <translation>Fahrtpunkte</translation>
     </message>
     <message>
         <location filename="../processing/algorithms/route_comfort.py" line="146"/>
         <source>Passage segments</source>
-        <translation type="unfinished"></translation>
+        <translation>Fahrtabschnitte</translation>
     </message>
     <message>
         <location filename="../processing/algorithms/route_comfort.py" line="149"/>
         <source>Passage report</source>
-        <translation type="unfinished"></translation>
+        <translation>Fahrtbericht</translation>
     </message>
     <message>
         <location filename="../processing/algorithms/route_comfort.py" line="149"/>
         <source>HTML files (*.html)</source>
-        <translation type="unfinished"></translation>
+        <translation>HTML-Dateien (*.html)</translation>
     </message>
     <message>
         <location filename="../processing/algorithms/route_comfort.py" line="152"/>
         <source>Summary</source>
-        <translation type="unfinished"></translation>
+        <translation>Zusammenfassung</translation>
     </message>
     <message>
         <location filename="../processing/algorithms/route_comfort.py" line="153"/>
         <source>Number of samples</source>
-        <translation type="unfinished"></translation>
+        <translation>Anzahl der Punkte</translation>
     </message>
 </context>
 <context>
@@ -241,257 +241,257 @@
         <translation>Seaway Comfort: Schiffsprofile</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="133"/>
+        <location filename="../plugin/vessel_manager.py" line="134"/>
         <source>Profile name</source>
         <translation>Profilname</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="134"/>
+        <location filename="../plugin/vessel_manager.py" line="135"/>
         <source>Description</source>
         <translation>Beschreibung</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="135"/>
+        <location filename="../plugin/vessel_manager.py" line="136"/>
         <source>Waterline length L (m)</source>
         <translation>Wasserlinienlänge L (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="136"/>
+        <location filename="../plugin/vessel_manager.py" line="137"/>
         <source>Beam B (m)</source>
         <translation>Breite B (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="137"/>
+        <location filename="../plugin/vessel_manager.py" line="138"/>
         <source>Draught T (m)</source>
         <translation>Tiefgang T (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="138"/>
+        <location filename="../plugin/vessel_manager.py" line="139"/>
         <source>Block coefficient Cb (fraction)</source>
         <translation>Blockkoeffizient Cb (Anteil)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="139"/>
+        <location filename="../plugin/vessel_manager.py" line="140"/>
         <source>Waterplane coefficient Cwp (fraction)</source>
         <translation>Wasserlinienkoeffizient Cwp (Anteil)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="140"/>
+        <location filename="../plugin/vessel_manager.py" line="141"/>
         <source>Metacentric height GM (m)</source>
         <translation>Metazentrische Höhe GM (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="141"/>
+        <location filename="../plugin/vessel_manager.py" line="142"/>
         <source>Natural roll period (s)</source>
         <translation>Eigenrollperiode (s)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="142"/>
+        <location filename="../plugin/vessel_manager.py" line="143"/>
         <source>Roll damping (fraction of critical)</source>
         <translation>Rolldämpfung (Anteil der kritischen)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="143"/>
+        <location filename="../plugin/vessel_manager.py" line="144"/>
         <source>Service speed (kn)</source>
         <translation>Dienstgeschwindigkeit (kn)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="149"/>
+        <location filename="../plugin/vessel_manager.py" line="150"/>
         <source>estimate from Cb</source>
         <translation>aus Cb schätzen</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="150"/>
+        <location filename="../plugin/vessel_manager.py" line="151"/>
         <source>not given</source>
         <translation>nicht angegeben</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="151"/>
+        <location filename="../plugin/vessel_manager.py" line="152"/>
         <source>estimate from GM</source>
         <translation>aus GM schätzen</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="156"/>
+        <location filename="../plugin/vessel_manager.py" line="157"/>
         <source>Name</source>
         <translation>Name</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="157"/>
+        <location filename="../plugin/vessel_manager.py" line="158"/>
         <source>x (m)</source>
         <translation>x (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="158"/>
+        <location filename="../plugin/vessel_manager.py" line="159"/>
         <source>y (m)</source>
         <translation>y (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="159"/>
+        <location filename="../plugin/vessel_manager.py" line="160"/>
         <source>z (m)</source>
         <translation>z (m)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="160"/>
+        <location filename="../plugin/vessel_manager.py" line="161"/>
         <source>Task (criterion)</source>
         <translation>Tätigkeit (Kriterium)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="172"/>
+        <location filename="../plugin/vessel_manager.py" line="173"/>
         <source>Profiles (examples are read-only)</source>
         <translation>Profile (Beispiele sind schreibgeschützt)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="178"/>
+        <location filename="../plugin/vessel_manager.py" line="179"/>
         <source>New</source>
         <translation>Neu</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="179"/>
+        <location filename="../plugin/vessel_manager.py" line="180"/>
         <source>Duplicate</source>
         <translation>Duplizieren</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="180"/>
+        <location filename="../plugin/vessel_manager.py" line="181"/>
         <source>Delete...</source>
         <translation>Löschen...</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="197"/>
+        <location filename="../plugin/vessel_manager.py" line="198"/>
         <source>Hull and stability</source>
         <translation>Rumpf und Stabilität</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="200"/>
+        <location filename="../plugin/vessel_manager.py" line="201"/>
         <source>e.g. my survey launch</source>
         <translation>z. B. mein Vermessungsboot</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="218"/>
+        <location filename="../plugin/vessel_manager.py" line="219"/>
         <source>Response table (CSV)</source>
         <translation>Antworttabelle (CSV)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="223"/>
+        <location filename="../plugin/vessel_manager.py" line="224"/>
         <source>Stations (where motions are evaluated)</source>
         <translation>Stationen (Orte, an denen Bewegungen ausgewertet werden)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="225"/>
+        <location filename="../plugin/vessel_manager.py" line="226"/>
         <source>x forward of midships, y to starboard, z above the waterline, all in metres.</source>
         <translation>x nach vorn ab Mittschiffs, y nach Steuerbord, z über der Wasserlinie, alles in Metern.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="237"/>
+        <location filename="../plugin/vessel_manager.py" line="238"/>
         <source>Add station</source>
         <translation>Station hinzufügen</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="238"/>
+        <location filename="../plugin/vessel_manager.py" line="239"/>
         <source>Remove station</source>
         <translation>Station entfernen</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="255"/>
+        <location filename="../plugin/vessel_manager.py" line="256"/>
         <source>Check</source>
         <translation>Prüfen</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="256"/>
+        <location filename="../plugin/vessel_manager.py" line="257"/>
         <source>Save</source>
         <translation>Speichern</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="286"/>
+        <location filename="../plugin/vessel_manager.py" line="287"/>
         <source>Your profiles are stored in: {0}</source>
         <translation>Ihre Profile werden gespeichert in: {0}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="291"/>
+        <location filename="../plugin/vessel_manager.py" line="292"/>
         <source>{0} (example)</source>
         <translation>{0} (Beispiel)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="302"/>
+        <location filename="../plugin/vessel_manager.py" line="303"/>
         <source>{0} (cannot be read)</source>
         <translation>{0} (nicht lesbar)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="340"/>
+        <location filename="../plugin/vessel_manager.py" line="352"/>
         <source>This file cannot be read: {0}</source>
         <translation>Diese Datei ist nicht lesbar: {0}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="357"/>
+        <location filename="../plugin/vessel_manager.py" line="370"/>
         <source>none (closed-form hull model)</source>
         <translation>keine (geschlossenes Rumpfmodell)</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="398"/>
+        <location filename="../plugin/vessel_manager.py" line="451"/>
         <source>Example profile (read-only): use Duplicate to make an editable copy.</source>
         <translation>Beispielprofil (schreibgeschützt): mit Duplizieren eine bearbeitbare Kopie anlegen.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="399"/>
+        <location filename="../plugin/vessel_manager.py" line="452"/>
         <source>Your profile: {0}</source>
         <translation>Ihr Profil: {0}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="400"/>
+        <location filename="../plugin/vessel_manager.py" line="453"/>
         <source>Unreadable file: {0}</source>
         <translation>Nicht lesbare Datei: {0}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="401"/>
+        <location filename="../plugin/vessel_manager.py" line="454"/>
         <source>New profile, not saved yet.</source>
         <translation>Neues Profil, noch nicht gespeichert.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="456"/>
+        <location filename="../plugin/vessel_manager.py" line="509"/>
         <source>Stations table, row {0}, column &apos;{1}&apos;: {2!r} is not a number</source>
         <translation>Stationstabelle, Zeile {0}, Spalte '{1}': {2!r} ist keine Zahl</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="471"/>
+        <location filename="../plugin/vessel_manager.py" line="524"/>
         <source>{0} (name): a profile needs a name, got {1!r}</source>
         <translation>{0} (name): ein Profil braucht einen Namen, erhalten {1!r}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="473"/>
+        <location filename="../plugin/vessel_manager.py" line="526"/>
         <source>form</source>
         <translation>Formular</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="549"/>
+        <location filename="../plugin/vessel_manager.py" line="606"/>
         <source>{0}: {1}</source>
         <translation>{0}: {1}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="496"/>
+        <location filename="../plugin/vessel_manager.py" line="553"/>
         <source>Stations table: {0}</source>
         <translation>Stationstabelle: {0}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="530"/>
+        <location filename="../plugin/vessel_manager.py" line="587"/>
         <source>Profile {0!r} is valid: natural roll period {1:.2f} s.</source>
         <translation>Profil {0!r} ist gültig: Eigenrollperiode {1:.2f} s.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="537"/>
+        <location filename="../plugin/vessel_manager.py" line="594"/>
         <source>Example profiles are read-only: use Duplicate first.</source>
         <translation>Beispielprofile sind schreibgeschützt: zuerst Duplizieren.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="543"/>
+        <location filename="../plugin/vessel_manager.py" line="600"/>
         <source>{0}: {1!r} is the name of an example profile; choose another name.</source>
         <translation>{0}: {1!r} ist der Name eines Beispielprofils; bitte einen anderen Namen wählen.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="555"/>
+        <location filename="../plugin/vessel_manager.py" line="612"/>
         <source>Replace vessel profile?</source>
         <translation>Schiffsprofil ersetzen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="555"/>
+        <location filename="../plugin/vessel_manager.py" line="612"/>
         <source>{0}
 
 Replace it?</source>
@@ -500,49 +500,59 @@ Replace it?</source>
 Ersetzen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="557"/>
+        <location filename="../plugin/vessel_manager.py" line="614"/>
         <source>Not saved: the existing file was kept.</source>
         <translation>Nicht gespeichert: die vorhandene Datei bleibt erhalten.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="564"/>
+        <location filename="../plugin/vessel_manager.py" line="622"/>
         <source>Saved {0!r} to {1}</source>
         <translation>{0!r} gespeichert in {1}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="581"/>
+        <location filename="../plugin/vessel_manager.py" line="642"/>
         <source>Fill in the name and your vessel&apos;s particulars, then Save.</source>
         <translation>Namen und Daten Ihres Schiffs eintragen, dann Speichern.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="591"/>
+        <location filename="../plugin/vessel_manager.py" line="652"/>
         <source>{0} copy</source>
         <translation>{0} Kopie</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="600"/>
+        <location filename="../plugin/vessel_manager.py" line="661"/>
         <source>Editable copy {0!r} made; change it as needed, then Save.</source>
         <translation>Bearbeitbare Kopie {0!r} angelegt; nach Bedarf ändern, dann Speichern.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="607"/>
+        <location filename="../plugin/vessel_manager.py" line="668"/>
         <source>Only your own saved profiles can be deleted.</source>
         <translation>Nur eigene gespeicherte Profile können gelöscht werden.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="610"/>
+        <location filename="../plugin/vessel_manager.py" line="671"/>
         <source>Delete vessel profile?</source>
         <translation>Schiffsprofil löschen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="610"/>
+        <location filename="../plugin/vessel_manager.py" line="671"/>
         <source>Delete {0} permanently?</source>
         <translation>{0} endgültig löschen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="619"/>
+        <location filename="../plugin/vessel_manager.py" line="681"/>
         <source>Deleted {0}</source>
         <translation>{0} gelöscht</translation>
+    </message>
+    <message>
+        <location filename="../plugin/vessel_manager.py" line="402"/>
+        <source>Discard changes?</source>
+        <translation>Änderungen verwerfen?</translation>
+    </message>
+    <message>
+        <location filename="../plugin/vessel_manager.py" line="402"/>
+        <source>The profile {0!r} has unsaved changes. Discard them?</source>
+        <translation>Das Profil {0!r} hat ungespeicherte Änderungen. Verwerfen?</translation>
     </message>
 </context>
 </TS>
