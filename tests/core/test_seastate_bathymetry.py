@@ -71,6 +71,7 @@ def test_nodata_and_coast(tmp_path):
 
 
 def test_bad_input(tmp_path):
+    # interface contract (no outside source): clear errors naming the input
     path = write_bathymetry_geotiff(str(tmp_path / "ok.tif"), LON, LAT, depth_field(), convention="depth_positive_down")
     with pytest.raises(SeawayInputError, match="convention"):
         open_bathymetry(path, convention="sideways")

@@ -26,6 +26,8 @@ def _at(hours):
 
 
 def test_stack_with_band_times_and_standard_name(tmp_path):
+    # band descriptions as ISO 8601 UTC times; field linear in lon/lat/time: exact under bilinear +
+    # linear-in-time interpolation (Numerical Recipes s.3.6)
     lon = np.arange(-10.0, 10.01, 1.0)
     lat = np.arange(50.0, 40.0 - 0.01, -1.0)
     times = _at([0, 6])
@@ -45,6 +47,7 @@ def test_stack_with_band_times_and_standard_name(tmp_path):
 
 
 def test_stack_with_times_list_and_variable_map(tmp_path):
+    # interface contract (no outside source): times_utc list and variable_map by file name/stem
     lon = np.arange(0.0, 5.01, 0.5)
     lat = np.arange(5.0, -0.01, -0.5)
     times = _at([0, 3, 6])

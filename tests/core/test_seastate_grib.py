@@ -109,6 +109,8 @@ def test_combined_and_perpw(tmp_path):
 
 
 def test_one_file_per_step_merged_and_duplicates_warned(tmp_path):
+    # interface contract (no outside source): same-grid files extend the time axis; a repeated
+    # time is taken from the first file, with a warning naming it
     f = partitions_only()
     paths = []
     for i in range(3):
@@ -128,6 +130,7 @@ def test_one_file_per_step_merged_and_duplicates_warned(tmp_path):
 
 
 def test_same_variable_two_grids_keeps_first(tmp_path):
+    # interface contract (no outside source): first file wins, warning says which is used
     f = partitions_only()
     a = write_grib2(str(tmp_path / "a.grb2"), LON, LAT, TIMES, f)
     lon2 = np.arange(-30.0, 30.01, 2.5)
@@ -141,6 +144,7 @@ def test_same_variable_two_grids_keeps_first(tmp_path):
 
 
 def test_partition_outside_its_grid_marks_partial(tmp_path):
+    # interface contract (no outside source): a missing auxiliary variable -> PARTIAL_VARIABLES
     # combined sea on a global grid, a swell partition on a small regional grid
     h, la, lo = _grid()
     comb = write_grib2(str(tmp_path / "c.grb2"), LON, LAT, TIMES,
@@ -156,6 +160,7 @@ def test_partition_outside_its_grid_marks_partial(tmp_path):
 
 
 def test_describe_lists_unused_and_missing_error(tmp_path):
+    # interface contract (no outside source): the error lists what was found
     h = _grid()[0]
     path = write_grib2(str(tmp_path / "hs_only.grb2"), LON, LAT, TIMES, {"hs": np.full(h.shape, 2.0)})
     inv = describe_file(path)

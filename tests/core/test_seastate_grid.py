@@ -35,11 +35,13 @@ def test_centre_index_matches_gdal_inverse(gt):
 
 
 def test_degenerate_grid_rejected():
+    # a geotransform with zero determinant has no inverse (linear algebra); interface: clear error
     with pytest.raises(SeawayInputError, match="degenerate"):
         GridGeometry(10, 10, (0.0, 0.0, 0.0, 0.0, 0.0, -1.0))
 
 
 def test_window_split_at_seam():
+    # design contract (no outside source): a window across the seam of a global ring is two strips
     g = GridGeometry(144, 49, (-1.25, 2.5, 0.0, 61.25, 0.0, -2.5))
     assert g.wraps
     w = read_window_for(g, np.array([0, 1, 142, 143]), np.array([10, 11, 10, 11]), 0, 0)
@@ -57,6 +59,8 @@ def test_haversine_against_known_arc():
 
 
 def test_only_window_and_bracketing_steps_are_read(tmp_path):
+    # design contract (memory rule of the brief, no outside source): read only the window and the
+    # two bracketing steps; byte count from the float32 sample size of the file GDAL wrote
     lon = np.arange(0.0, 360.0, 1.0)
     lat = np.arange(-80.0, 80.01, 1.0)
     times = np.datetime64("2024-01-01T00", "s") + np.arange(10) * np.timedelta64(3, "h")

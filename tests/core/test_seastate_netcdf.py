@@ -56,6 +56,8 @@ def _whole_s(hours):
 
 
 def test_inventory_and_recognition(nc_global):
+    # facts written into the file above by GDAL (CF standard names, 4 steps of 3 h, 0..360 ring);
+    # default source name = file stem is our interface contract (no outside source)
     src = open_sea_state(nc_global)
     assert src.name == "ring"  # default source name: file stem
     assert set(src.variables) == {"hs", "tp", "dir"}
@@ -192,6 +194,8 @@ def test_coast_renormalises_over_sea_neighbours(tmp_path):
 
 
 def test_outside_grid_and_time_flags(nc_global):
+    # interface contract (no outside source): no extrapolation in time beyond the tolerance; the
+    # grid covers its cells' edges (GDAL geotransform, cell-edge convention)
     src = open_sea_state(nc_global)
     lon = [10.0, 10.0, 10.0, 10.0, 10.0]
     lat = [70.0, 0.0, 0.0, 0.0, 61.0]       # grid cells reach 61.25: 61 inside, 70 outside
@@ -208,6 +212,7 @@ def test_outside_grid_and_time_flags(nc_global):
 
 
 def test_route_entirely_outside_raises(nc_global):
+    # interface contract (no outside source): an error naming the file when no sample is inside
     src = open_sea_state(nc_global)
     with pytest.raises(SeawayInputError, match=r"entirely outside the grid.*ring.nc"):
         src.sample([10.0, 20.0], [80.0, 85.0], _hours([1, 2]))
@@ -240,6 +245,7 @@ def test_tp_from_tm01_flagged(tmp_path):
 
 
 def test_variable_map_for_nonstandard_names(tmp_path):
+    # interface contract (no outside source): names without CF standard_name need variable_map
     f = _fields()
     path = write_cf_netcdf(str(tmp_path / "plain.nc"), LON, LAT, TIMES,
                            {"HSIG": f[HS], "TPEAK": f[TP], "PDIR": f[DIR]}, units={"HSIG": "m", "TPEAK": "s"})
@@ -265,6 +271,7 @@ def test_cf_time_units_in_file(tmp_path):
 
 
 def test_bad_calendar_and_order_and_missing(tmp_path):
+    # CF 1.8 s.4.4.1 calendars; increasing time axis and required variables: interface contract
     path = write_cf_netcdf(str(tmp_path / "cal.nc"), LON, LAT, TIMES, _fields(), calendar="noleap")
     with pytest.raises(SeawayInputError, match=r"cal.nc.*noleap"):
         open_sea_state(path)
@@ -279,6 +286,7 @@ def test_bad_calendar_and_order_and_missing(tmp_path):
 
 
 def test_no_time_and_unreadable_files(tmp_path):
+    # interface contract (no outside source): clear errors naming the file and GDAL's reason
     from osgeo import gdal
 
     mem = gdal.GetDriverByName("MEM").Create("", 10, 5, 1, gdal.GDT_Float32)
@@ -299,6 +307,7 @@ def test_no_time_and_unreadable_files(tmp_path):
 
 
 def test_bad_sample_arguments(nc_global):
+    # interface contract (no outside source): every bad argument named in the error
     src = open_sea_state(nc_global)
     t = _hours([1, 1])
     with pytest.raises(SeawayInputError, match="lat_deg"):
@@ -316,6 +325,7 @@ def test_bad_sample_arguments(nc_global):
 
 
 def test_progress_and_cancel(nc_global):
+    # interface contract (design: progress(fraction) -> False means stop)
     from seaway_comfort.processing.core.seastate import SamplingCancelled
 
     seen = []
@@ -359,6 +369,7 @@ def test_period_missing_where_height_present(tmp_path):
 
 
 def test_describe_lists_ignored_variables(tmp_path):
+    # interface contract (no outside source): describe_file reports what it does not use
     f = _fields()
     path = write_cf_netcdf(str(tmp_path / "mixed.nc"), LON, LAT, TIMES,
                            {HS: f[HS], "air_temperature": f[TP]})
