@@ -456,12 +456,7 @@
         <translation>{0} (name): ein Profil braucht einen Namen, erhalten {1!r}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="526"/>
-        <source>form</source>
-        <translation>Formular</translation>
-    </message>
-    <message>
-        <location filename="../plugin/vessel_manager.py" line="606"/>
+        <location filename="../plugin/vessel_manager.py" line="610"/>
         <source>{0}: {1}</source>
         <translation>{0}: {1}</translation>
     </message>
@@ -471,27 +466,22 @@
         <translation>Stationstabelle: {0}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="587"/>
-        <source>Profile {0!r} is valid: natural roll period {1:.2f} s.</source>
-        <translation>Profil {0!r} ist gültig: Eigenrollperiode {1:.2f} s.</translation>
-    </message>
-    <message>
-        <location filename="../plugin/vessel_manager.py" line="594"/>
+        <location filename="../plugin/vessel_manager.py" line="598"/>
         <source>Example profiles are read-only: use Duplicate first.</source>
         <translation>Beispielprofile sind schreibgeschützt: zuerst Duplizieren.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="600"/>
+        <location filename="../plugin/vessel_manager.py" line="604"/>
         <source>{0}: {1!r} is the name of an example profile; choose another name.</source>
         <translation>{0}: {1!r} ist der Name eines Beispielprofils; bitte einen anderen Namen wählen.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="612"/>
+        <location filename="../plugin/vessel_manager.py" line="616"/>
         <source>Replace vessel profile?</source>
         <translation>Schiffsprofil ersetzen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="612"/>
+        <location filename="../plugin/vessel_manager.py" line="616"/>
         <source>{0}
 
 Replace it?</source>
@@ -500,47 +490,47 @@ Replace it?</source>
 Ersetzen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="614"/>
+        <location filename="../plugin/vessel_manager.py" line="618"/>
         <source>Not saved: the existing file was kept.</source>
         <translation>Nicht gespeichert: die vorhandene Datei bleibt erhalten.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="622"/>
+        <location filename="../plugin/vessel_manager.py" line="626"/>
         <source>Saved {0!r} to {1}</source>
         <translation>{0!r} gespeichert in {1}</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="642"/>
+        <location filename="../plugin/vessel_manager.py" line="646"/>
         <source>Fill in the name and your vessel&apos;s particulars, then Save.</source>
         <translation>Namen und Daten Ihres Schiffs eintragen, dann Speichern.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="652"/>
+        <location filename="../plugin/vessel_manager.py" line="656"/>
         <source>{0} copy</source>
         <translation>{0} Kopie</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="661"/>
+        <location filename="../plugin/vessel_manager.py" line="665"/>
         <source>Editable copy {0!r} made; change it as needed, then Save.</source>
         <translation>Bearbeitbare Kopie {0!r} angelegt; nach Bedarf ändern, dann Speichern.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="668"/>
+        <location filename="../plugin/vessel_manager.py" line="672"/>
         <source>Only your own saved profiles can be deleted.</source>
         <translation>Nur eigene gespeicherte Profile können gelöscht werden.</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="671"/>
+        <location filename="../plugin/vessel_manager.py" line="675"/>
         <source>Delete vessel profile?</source>
         <translation>Schiffsprofil löschen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="671"/>
+        <location filename="../plugin/vessel_manager.py" line="675"/>
         <source>Delete {0} permanently?</source>
         <translation>{0} endgültig löschen?</translation>
     </message>
     <message>
-        <location filename="../plugin/vessel_manager.py" line="681"/>
+        <location filename="../plugin/vessel_manager.py" line="685"/>
         <source>Deleted {0}</source>
         <translation>{0} gelöscht</translation>
     </message>
@@ -553,6 +543,16 @@ Ersetzen?</translation>
         <location filename="../plugin/vessel_manager.py" line="402"/>
         <source>The profile {0!r} has unsaved changes. Discard them?</source>
         <translation>Das Profil {0!r} hat ungespeicherte Änderungen. Verwerfen?</translation>
+    </message>
+    <message>
+        <location filename="../plugin/vessel_manager.py" line="588"/>
+        <source>natural roll period {0:.2f} s</source>
+        <translation>Eigenrollperiode {0:.2f} s</translation>
+    </message>
+    <message>
+        <location filename="../plugin/vessel_manager.py" line="592"/>
+        <source>Profile {0!r} is valid: {1}.</source>
+        <translation>Profil {0!r} ist gültig: {1}.</translation>
     </message>
 </context>
 </TS>

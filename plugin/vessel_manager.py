@@ -523,7 +523,7 @@ class VesselManagerDialog(QDialog):
         if not data["name"]:
             raise SeawayInputError(self.tr("{0} (name): a profile needs a name, got {1!r}")
                                    .format(self.field_labels["name"], data["name"]))
-        return profile_from_dict(data, source=self.tr("form"), base_dir=self._base_dir)
+        return profile_from_dict(data, source="", base_dir=self._base_dir)
 
     # ================================================================== messages
     def field_of_message(self, message: str) -> Optional[str]:
@@ -584,8 +584,12 @@ class VesselManagerDialog(QDialog):
         except SeawayInputError as exc:
             self.show_error(str(exc))
             return None
-        self.show_info(self.tr("Profile {0!r} is valid: natural roll period {1:.2f} s.")
-                       .format(profile.name, profile.natural_roll_period_s))
+        try:
+            roll = self.tr("natural roll period {0:.2f} s").format(profile.natural_roll_period_s)
+        except SeawayInputError as exc:  # the estimate has its own range of validity
+            self.show_error(str(exc))
+            return None
+        self.show_info(self.tr("Profile {0!r} is valid: {1}.").format(profile.name, roll))
         return profile
 
     def save(self) -> Optional[Path]:

@@ -100,6 +100,9 @@ def test_plugin_loads_and_unloads_cleanly(qgis_app, qgis_iface):
         assert {name for name, _ in iface.menu} == {plugin.MENU}
         assert [a.text() for a in iface.toolbar] == ["Passage comfort along a route..."]
         assert not iface.toolbar[0].icon().isNull()
+        # The menu opens algorithms that the provider really registers.
+        assert registry.algorithmById(plugin_main.ROUTE_COMFORT_ALG) is not None
+        assert registry.algorithmById(plugin_main.DESCRIBE_SEASTATE_ALG) is not None
         assert len(_our_actions(window)) == 3
     finally:
         plugin.unload()
