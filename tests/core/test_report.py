@@ -162,3 +162,26 @@ def test_write_html_and_text_summary(tmp_path):
     summary = rp.text_summary(_report())
     assert CAUTION in summary
     assert "punishing" in summary  # the worst class of the hand-made leg
+
+
+def _cie_lightness(hex_colour: str) -> float:
+    """CIE 1976 L* of an sRGB colour: sRGB decoding per IEC 61966-2-1:1999, relative luminance
+    Y = 0.2126 R + 0.7152 G + 0.0722 B (ITU-R BT.709 primaries), L* per CIE 15:2004 /
+    ISO/CIE 11664-4 (L* = 116 f(Y) - 16)."""
+    h = hex_colour.lstrip("#")
+    c = [int(h[i:i + 2], 16) / 255.0 for i in (0, 2, 4)]
+    lin = [x / 12.92 if x <= 0.04045 else ((x + 0.055) / 1.055) ** 2.4 for x in c]
+    y = 0.2126 * lin[0] + 0.7152 * lin[1] + 0.0722 * lin[2]
+    f = y ** (1 / 3) if y > 216 / 24389 else (24389 / 27 * y + 16) / 116
+    return 116 * f - 16
+
+
+def test_palette_orders_by_lightness():
+    """Classes must stay apart without hue (colour-vision deficiencies, grey print): L* falls
+    by at least 10 from each class to the next (threshold: common practice, no source)."""
+    lightness = [_cie_lightness(c) for c in rp.COMFORT_PALETTE]
+    assert len(lightness) == 5
+    assert all(a - b >= 10.0 for a, b in zip(lightness, lightness[1:])), lightness
+    # spot check of the formula: sRGB white and black give L* 100 and 0 (CIE 15:2004)
+    assert _cie_lightness("#ffffff") == pytest.approx(100.0, abs=1e-9)
+    assert _cie_lightness("#000000") == pytest.approx(0.0, abs=1e-9)
