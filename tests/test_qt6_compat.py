@@ -18,10 +18,13 @@ except ``tests/``, ``.venv/`` and build folders):
    own ``processing`` package or shadow it (see tests/test_layering.py for the relative-import rule).
 5. metadata.txt declares ``supportsQt6=True`` and ``qgisMaximumVersion=4.99``.
 
-The rules are those of the QGIS project's Qt6 migration notes as commonly applied (PyQt6 removed
-``exec_`` and unscoped enum access; common practice, no single published source); they are
-written here from memory. Each checker is also run on small bad and good snippets, so a checker
-that stops finding anything fails the suite.
+Sources: the QGIS project's Qt6 migration advice (qgis-developer mailing list, January 2024:
+the upgrade script scripts/pyqt5_to_pyqt6/pyqt5_to_pyqt6.py in the QGIS repository, and the
+``supportsQt6`` metadata key without which Qt6 builds ignore a plugin); PyQt6 itself dropped
+``exec_`` and enum members on the class (common practice, no source). ``QAction`` may stay
+imported from ``qgis.PyQt.QtWidgets``: QGIS keeps that import working in Qt6 builds (qgis/QGIS
+pull request 55658). The member lists below are from memory. Each checker is also run on small
+bad and good snippets, so a checker that stops finding anything fails the suite.
 """
 from __future__ import annotations
 
