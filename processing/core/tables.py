@@ -100,14 +100,25 @@ class ResponseTable:
         nh = h.size
         flat = q.reshape(-1, q.shape[-1])
         oflat = out.reshape(-1)
-        i0 = i * nh + j
-        w00 = ((1 - tf) * (1 - th))[..., None]
-        w01 = ((1 - tf) * th)[..., None]
-        w10 = (tf * (1 - th))[..., None]
-        w11 = (tf * th)[..., None]
-        val = (w00 * flat[i0] + w01 * flat[i0 + 1] + w10 * flat[i0 + nh] + w11 * flat[i0 + nh + 1])
-        o = (w00[..., 0] * oflat[i0] + w01[..., 0] * oflat[i0 + 1]
-             + w10[..., 0] * oflat[i0 + nh] + w11[..., 0] * oflat[i0 + nh + 1])
+        i0 = (i * nh + j).reshape(-1)
+        w = (
+            ((1 - tf) * (1 - th)).reshape(-1, 1),
+            ((1 - tf) * th).reshape(-1, 1),
+            (tf * (1 - th)).reshape(-1, 1),
+            (tf * th).reshape(-1, 1),
+        )
+        offs = (0, 1, nh, nh + 1)
+        val = np.take(flat, i0, axis=0)
+        val *= w[0]
+        tmp = np.empty_like(val)
+        o = oflat[i0] * w[0][:, 0]
+        for wk, dk in zip(w[1:], offs[1:]):
+            np.take(flat, i0 + dk, axis=0, out=tmp)
+            tmp *= wk
+            val += tmp
+            o += oflat[i0 + dk] * wk[:, 0]
+        val = val.reshape(tf.shape + (flat.shape[-1],))
+        o = o.reshape(tf.shape)
         return val, o, off
 
     def lookup(self, hs_m: ArrayLike, tp_s: ArrayLike, rel_heading_deg: ArrayLike, *,
