@@ -437,3 +437,16 @@ def test_two_candidates_in_one_file_first_by_preference(tmp_path):
     assert src.layer("dir").file_variable == "dir"
     assert any("'dir'" in w and "'dir_to'" in w and "is used" in w for w in src.warnings)
     assert src.sample([20.0], [0.0], _hours([1])).wave_from_deg[0] == pytest.approx(200.0, abs=1e-9)
+
+
+def test_values_outside_valid_range_are_missing(tmp_path):
+    # CF 1.8 s.2.5.1: values outside valid_min/valid_max are missing (limits in packed units)
+    f = _fields()
+    hs = f[HS].copy()
+    hs[:, 20, 40] = 99.0                     # outside the declared valid range
+    path = write_cf_netcdf(str(tmp_path / "vr.nc"), LON, LAT, TIMES, {HS: hs, TP: f[TP], DIR: f[DIR]},
+                           extra_attributes={HS: {"valid_min": 0.0, "valid_max": 30.0}})
+    r = open_sea_state(path).sample([LON[40], LON[41]], [LAT[20], LAT[20]], _hours([0, 0]), land_search_km=0.0)
+    assert np.isnan(r.hs_m[0]) and r.flags[0] & SampleFlag.NO_SEA_DATA
+    assert r.hs_m[1] == pytest.approx(linear_hs(LON[41], LAT[20], 0), abs=2e-5)
+    assert not r.flags[0] & SampleFlag.IMPLAUSIBLE_VALUE  # missing, not an odd value

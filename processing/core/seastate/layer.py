@@ -7,8 +7,9 @@ readers (:mod:`.netcdf`, :mod:`.grib`, :mod:`.geotiff`) build layers; :mod:`.sam
 the windows and time steps it needs through :class:`DatasetCache`.
 
 Raw band values become physical values as ``(raw * scale + offset) * unit_factor`` with GDAL's
-band scale/offset (CF ``scale_factor``/``add_offset``, CF Conventions 1.8 s.8.1) and no-data
-(CF ``_FillValue``/``missing_value``) turned into NaN before scaling.
+band scale/offset (CF ``scale_factor``/``add_offset``, CF Conventions 1.8 s.8.1); no-data (CF
+``_FillValue``/``missing_value``) and raw values outside ``valid_min``/``valid_max``/``valid_range``
+(CF 1.8 s.2.5.1: such values are missing; the limits are in packed units) become NaN first.
 """
 from __future__ import annotations
 
@@ -114,6 +115,7 @@ class VariableLayer:
     notes: Tuple[str, ...] = ()
     extra_nodata: Tuple[float, ...] = ()
     files: Tuple[str, ...] = field(default=())
+    valid_range_raw: Optional[Tuple[float, float]] = None  # CF valid_min/valid_max, packed units
 
     @property
     def all_files(self) -> Tuple[str, ...]:
@@ -152,6 +154,10 @@ class DatasetCache:
             bad |= raw == nd
         for extra in layer.extra_nodata:
             bad |= raw == extra
+        if layer.valid_range_raw is not None:
+            lo, hi = layer.valid_range_raw
+            with np.errstate(invalid="ignore"):
+                bad |= (raw < lo) | (raw > hi)
         scale = band.GetScale()
         offset = band.GetOffset()
         if scale not in (None, 1.0) or offset not in (None, 0.0):

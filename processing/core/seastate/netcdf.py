@@ -131,13 +131,28 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
             extra_nd = tuple(float(v) for v in _braced(mv))
         except ValueError:
             extra_nd = ()
+    valid_range = _valid_range(band_md, where)
     notes = tuple(n for n in (dir_note,) if n)
     return VariableLayer(
         canonical=canonical, kind=kind, file=path, file_variable=var, recognised_by=how,
         priority=priority, units=conv, going_to=going_to, grid=grid, times_s=times_s,
         bands=tuple((gdal_name, b) for b in range(1, ds.RasterCount + 1)), notes=notes,
-        extra_nodata=extra_nd,
+        extra_nodata=extra_nd, valid_range_raw=valid_range,
     )
+
+
+def _valid_range(md: Dict[str, str], where: str) -> Optional[Tuple[float, float]]:
+    """CF valid_range / valid_min / valid_max (CF 1.8 s.2.5.1), in the file's packed units."""
+    try:
+        if "valid_range" in md:
+            vals = [float(v) for v in _braced(md["valid_range"])]
+            if len(vals) == 2:
+                return (min(vals), max(vals))
+        lo = float(md["valid_min"]) if "valid_min" in md else -np.inf
+        hi = float(md["valid_max"]) if "valid_max" in md else np.inf
+    except ValueError:
+        raise SeawayInputError(f"{where}: unreadable valid_range/valid_min/valid_max attribute") from None
+    return None if (lo == -np.inf and hi == np.inf) else (lo, hi)
 
 
 def _check_regular_axes(path: str, var: str, grid: GridGeometry, where: str) -> None:
