@@ -1,0 +1,124 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""Benchmark: seasonal comfort climate, 3-hourly hindcast x 500 route samples.
+
+Run: ``.venv/bin/python -P tests/bench/bench_climate.py [--years 1,2,5,10] [--no-dask]``
+
+Prints, for 1, 2, 5 and 10 years of invented 3-hourly hindcast (one NetCDF file per year,
+cached in the temporary folder; generation is not timed) and a 500-sample route:
+wall time, (step x sample) pairs per second and peak memory of the local process-pool run
+(2 workers), the ratio against the serial run measured on the same data in the same session
+(baseline: SerialBackend), and the Dask LocalCluster run with 2 workers against 1 worker on the
+10-year data. No assertions: figures only.
+"""
+from __future__ import annotations
+
+import argparse
+import os
+import resource
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parent))  # -P drops the script folder
+import _pkg  # noqa: E402,F401  (exposes the checkout as the package seaway_comfort)
+import numpy as np  # noqa: E402
+
+from seaway_comfort.processing.core import climate as C  # noqa: E402
+from seaway_comfort.processing.core.climate.backends import dask_available  # noqa: E402
+from seaway_comfort.processing.core.climate.engine import prepare_climate  # noqa: E402
+from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, write_seasonal_hindcast  # noqa: E402
+
+ROUTE_LON = [-20.0, -15.0, -10.5]
+ROUTE_LAT = [40.0, 43.5, 44.5]
+VESSEL, SPEED_KN = "coastal_survey_35m", 10.0
+FIRST_YEAR = 2001
+
+
+def _route_for_500_samples(series):
+    """Spacing so that the route has 500 samples."""
+    s = prepare_climate(ROUTE_LON, ROUTE_LAT, series, VESSEL, speed_kn=SPEED_KN, spacing_nm=1.0)
+    length_nm = s.dist_m[-1] / 1852.0
+    lo, hi = 0.5 * length_nm / 500, 2.0 * length_nm / 500
+    from seaway_comfort.processing.core.route import densify_route
+
+    for _ in range(60):
+        mid = 0.5 * (lo + hi)
+        n = densify_route(ROUTE_LON, ROUTE_LAT, mid).n
+        if n == 500:
+            return mid
+        if n > 500:
+            lo = mid
+        else:
+            hi = mid
+    return mid
+
+
+def _maxrss_mb(who: int) -> float:
+    return resource.getrusage(who).ru_maxrss / 1024.0
+
+
+def _run(paths, backend, spacing, chunk_steps=C.DEFAULT_CHUNK_STEPS):
+    t0 = time.perf_counter()
+    r = C.compute_climate(ROUTE_LON, ROUTE_LAT, paths, VESSEL, speed_kn=SPEED_KN, spacing_nm=spacing,
+                          max_class=1, backend=backend, chunk_steps=chunk_steps)
+    return time.perf_counter() - t0, r
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--years", default="1,2,5,10")
+    ap.add_argument("--no-dask", action="store_true")
+    args = ap.parse_args()
+    years_list = [int(v) for v in args.years.split(",")]
+    folder = os.path.join(tempfile.gettempdir(), "seaway_climate_bench")
+    lon = np.arange(-21.0, -8.9, 0.5)
+    lat = np.arange(38.0, 46.01, 0.5)
+    t0 = time.perf_counter()
+    all_paths = write_seasonal_hindcast(folder, list(range(FIRST_YEAR, FIRST_YEAR + max(years_list))),
+                                        cycle=SeasonalCycle(hs_mean_m=1.2, hs_amp_m=0.9), lon_deg=lon, lat_deg=lat)
+    print(f"hindcast files ready in {time.perf_counter() - t0:.1f} s (cached in {folder}; not timed below)")
+    series1 = C.open_hindcast(all_paths[:1])
+    spacing = _route_for_500_samples(series1)
+    print(f"route: {spacing:.4f} NM spacing -> 500 samples; grid {lon.size} x {lat.size} cells; "
+          f"cpu count {os.cpu_count()}")
+    print(f"{'years':>5} {'steps':>6} {'backend':>10} {'time_s':>8} {'pairs/s':>12} {'vs serial':>9}")
+    ref_serial = None
+    results = {}
+    for y in years_list:
+        paths = all_paths[:y]
+        nsteps = C.open_hindcast(paths).n_steps
+        pairs = nsteps * 500
+        if y == years_list[0]:
+            ts, rs = _run(paths, C.SerialBackend(), spacing)
+            ref_serial = ts / pairs
+            print(f"{y:>5} {nsteps:>6} {'serial':>10} {ts:>8.2f} {pairs / ts:>12.0f} {1.0:>9.2f}")
+        tl, rl = _run(paths, C.LocalPoolBackend(workers=2), spacing)
+        results[y] = (tl, rl)
+        ratio = (ref_serial * pairs) / tl  # serial time per pair (measured above) x pairs / this time
+        print(f"{y:>5} {nsteps:>6} {'local x2':>10} {tl:>8.2f} {pairs / tl:>12.0f} {ratio:>9.2f}")
+    if len(years_list) > 1:
+        y0, y1 = years_list[0], years_list[-1]
+        print(f"growth: {y1} years take {results[y1][0] / results[y0][0]:.2f} x the time of {y0} "
+              f"(linear would be {y1 / y0:.2f} x)")
+    print(f"peak memory: main process {_maxrss_mb(resource.RUSAGE_SELF):.0f} MB, "
+          f"largest finished worker {_maxrss_mb(resource.RUSAGE_CHILDREN):.0f} MB (ru_maxrss)")
+    if args.no_dask:
+        return
+    if not dask_available():
+        print("dask.distributed not importable: Dask comparison skipped")
+        return
+    y = years_list[-1]
+    paths = all_paths[:y]
+    t1, r1 = _run(paths, C.DaskBackend(workers=1, processes=True), spacing)
+    t2, r2 = _run(paths, C.DaskBackend(workers=2, processes=True), spacing)
+    same = all(np.array_equal(getattr(r1, f), getattr(r2, f), equal_nan=True) and
+               np.array_equal(getattr(results[y][1], f), getattr(r2, f), equal_nan=True)
+               for f in ("class_share", "window_probability", "mean_wait_h", "wait_censored"))
+    print(f"dask LocalCluster {y} years: 1 worker {t1:.2f} s, 2 workers {t2:.2f} s, speed-up {t1 / t2:.2f} x "
+          f"(baseline: 1 worker, same data); results identical to the local pool: {same}")
+    print(f"peak memory after dask runs: largest finished child {_maxrss_mb(resource.RUSAGE_CHILDREN):.0f} MB")
+
+
+if __name__ == "__main__":
+    sys.exit(main())
