@@ -318,6 +318,8 @@ def _partition_array(sampled: object, attr: str, n: int) -> FloatArray:
     if arr is None:
         return np.zeros((n, 0))
     arr = np.asarray(arr, dtype=float)
+    if arr.size == 0:
+        return np.zeros((n, 0))
     return arr.reshape(n, -1)
 
 
