@@ -24,7 +24,7 @@ LAT = np.arange(60.0, -60.01, -5.0)  # north to south
 T0 = np.datetime64("2024-06-10T00:00:00", "s")
 TIMES = T0 + np.arange(3) * np.timedelta64(6, "h")
 HOURS = np.array([0.0, 6.0, 12.0])
-PACK = 0.01 + 1e-9  # one 0.01 packing step: GDAL 3.6 was seen to truncate (2.1 read back as 2.09)
+PACK = 0.01 + 1e-6  # one 0.01 packing step (+ float32 rounding): GDAL 3.6 was seen to truncate (2.1 read back as 2.09)
 
 
 def _grid():
@@ -215,3 +215,15 @@ def test_dominant_partition_without_period_falls_back(tmp_path):
     assert r.tp_s[0] == pytest.approx(15.0, abs=PACK)     # swell2's period (next most energetic)
     assert r.wave_from_deg[0] == pytest.approx(300.0, abs=PACK)
     assert r.flags[0] & SampleFlag.PARTIAL_VARIABLES and r.valid[0]
+
+
+def test_variable_map_with_grib_levels(tmp_path):
+    # interface contract: "ELEMENT@<level type>:<value>" picks one level (WMO Code table 4.5: 241 =
+    # ordered sequence of data); here the two swell partitions are swapped on purpose
+    path = write_grib2(str(tmp_path / "lv.grb2"), LON, LAT, TIMES, partitions_only())
+    vm = {"swell1_hs": "SWELL@241:2", "swell2_hs": "SWELL@241:1"}
+    src = open_sea_state(path, variable_map=vm)
+    r = src.sample([10.0], [0.0], _at([6.0]))
+    assert r.partition_hs_m[0, 1] == pytest.approx(1.0, abs=PACK)        # file's second swell
+    assert r.partition_hs_m[0, 2] == pytest.approx(1.5 + 0.6, abs=PACK)  # file's first swell
+    assert "SWELL@241:2" in src.inventory().variables[[v.canonical for v in src.inventory().variables].index("swell1_hs")].recognised_by

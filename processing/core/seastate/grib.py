@@ -5,6 +5,8 @@ Each GRIB message is one GDAL band. Identification uses, in order: the caller's 
 (matched against ``GRIB_ELEMENT``), then the product definition template values
 ``GRIB_PDS_TEMPLATE_ASSEMBLED_VALUES`` (category, number, ..., type and scaled value of the first
 fixed surface at positions 10 and 12, WMO FM 92 GRIB2 template 4.0), then ``GRIB_ELEMENT``.
+A variable_map value is a GRIB element (``"SWELL"``) or an element at a level,
+``"<element>@<level type>:<level value>"`` (``"SWELL@241:2"``: the second swell partition).
 The valid time of each message is ``GRIB_VALID_TIME`` (epoch seconds). GDAL re-wraps 0..360
 global GRIB grids to -180..180 on read; :mod:`.grid` handles either.
 """
@@ -69,9 +71,11 @@ def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: 
         md = ds.GetRasterBand(b).GetMetadata() or {}
         element = md.get("GRIB_ELEMENT", f"band{b}")
         param, ltype, lval = identify_band(md)
-        if element in inverse_map:
-            canonical, priority = inverse_map[element], -1
-            how = f"variable_map {canonical!r} -> GRIB element {element}"
+        qualified = f"{element}@{ltype}:{lval:g}"
+        mapped = qualified if qualified in inverse_map else (element if element in inverse_map else None)
+        if mapped is not None:
+            canonical, priority = inverse_map[mapped], -1
+            how = f"variable_map {canonical!r} -> GRIB {mapped}"
             note = ""
         elif param is not None:
             hit = grib_canonical(param, ltype, lval)

@@ -179,7 +179,8 @@ def open_sea_state(
     """Open GRIB2 / NetCDF-CF / GeoTIFF-stack forecast files as one :class:`SeaStateSource`.
 
     ``variable_map`` maps our canonical names ("hs", "tp", "dir", "tm01", "wind_hs", "swell1_tp",
-    ...) to file variable names (NetCDF variable, GRIB element, or a GeoTIFF's file name/stem).
+    ...) to file variable names (NetCDF variable; GRIB element, optionally at a level as
+    "SWELL@241:2"; or a GeoTIFF's file name/stem).
     ``direction_convention``: "auto" (file's declaration, else coming-from), "from" or "to".
     ``times_utc``: times of the bands of GeoTIFF stacks without time metadata.
     Needs a wave height (combined or partitions), a period and a direction source.
