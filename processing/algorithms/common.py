@@ -302,3 +302,26 @@ def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[str]) -> 
             raise QgsProcessingException(f"{name}: folder {folder!r} does not exist: create it or choose another path")
         if not os.access(folder, os.W_OK) or (os.path.exists(path) and not os.access(path, os.W_OK)):
             raise QgsProcessingException(f"{name}: {path!r} is not writable: choose another path")
+
+
+def read_route(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: Any = None
+) -> Tuple[List[Any], str]:
+    """The ROUTE parameter as legs in WGS84 (:func:`..adapters.route_legs`) and its source text.
+
+    Route lines are checked by our own code with messages in passage terms (a degenerate line
+    becomes "the route has zero length"), so QGIS's generic geometry-validity check is switched
+    off for this run's context before the source is opened.
+    """
+    from qgis.core import QgsFeatureRequest
+
+    from .. import adapters
+
+    context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
+    source = alg.parameterAsSource(parameters, ROUTE, context)
+    layer = alg.parameterAsVectorLayer(parameters, ROUTE, context)
+    route_src = layer.source() if layer is not None else str(parameters.get(ROUTE))
+    legs = adapters.route_legs(source, context, feedback=feedback)
+    if not legs:
+        raise QgsProcessingException("ROUTE: no line could be read from the route layer")
+    return legs, route_src

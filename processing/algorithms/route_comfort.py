@@ -7,7 +7,6 @@ from typing import Any, Dict, List, Optional, Tuple
 
 from qgis.core import (
     QgsCoordinateReferenceSystem,
-    QgsFeatureRequest,
     QgsFeatureSink,
     QgsProcessing,
     QgsProcessingAlgorithm,
@@ -162,15 +161,7 @@ class RouteComfortAlgorithm(QgsProcessingAlgorithm):
 
         feedback = feedback or QgsProcessingFeedback()
         settings = common.parse_passage_settings(self, parameters, context)
-        # route lines are checked by our own code with messages in passage terms (a degenerate
-        # line becomes "leg ... has no length"), so QGIS's generic validity check is not needed
-        context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
-        source = self.parameterAsSource(parameters, common.ROUTE, context)
-        route_layer = self.parameterAsVectorLayer(parameters, common.ROUTE, context)
-        route_src = route_layer.source() if route_layer is not None else str(parameters.get(common.ROUTE))
-        legs = adapters.route_legs(source, context, feedback=feedback)
-        if not legs:
-            raise QgsProcessingException("ROUTE: no line could be read from the route layer")
+        legs, route_src = common.read_route(self, parameters, context, feedback)
 
         points_dest = self.parameterAsOutputLayer(parameters, OUTPUT_POINTS, context)
         segs_dest = self.parameterAsOutputLayer(parameters, OUTPUT_SEGMENTS, context)
