@@ -90,7 +90,7 @@ class SeawayComfortPlugin:
 
     def unload(self) -> None:
         if self.vessel_dialog is not None:
-            self.vessel_dialog.close()
+            self.vessel_dialog.discard_and_close()
             self.vessel_dialog.deleteLater()
             self.vessel_dialog = None
         for action in self.actions:

@@ -405,13 +405,20 @@ class VesselManagerDialog(QDialog):
 
     def reject(self) -> None:  # Close button, Esc
         if self.confirm_discard():
+            self._mark_clean()  # the user chose to drop the edits
             super().reject()
 
     def closeEvent(self, event: Any) -> None:  # noqa: N802 (Qt API name)
         if self.confirm_discard():
+            self._mark_clean()
             event.accept()
         else:
             event.ignore()
+
+    def discard_and_close(self) -> None:
+        """Close without asking (the plugin is being unloaded)."""
+        self._mark_clean()
+        self.close()
 
     def add_station_row(self, station: Station) -> None:
         row = self.station_table.rowCount()

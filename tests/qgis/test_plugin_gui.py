@@ -460,9 +460,17 @@ def test_vessel_manager_slot_opens_dialog_on_the_qgis_store(qgis_app, qgis_iface
     assert opened == [expected, expected]
     dlg = plugin.vessel_dialog
     assert dlg is not None and dlg.parent() is qgis_iface.mainWindow()
+    # Unsaved edits must not block unloading with a question.
+    asked_on_unload: List[str] = []
+    dlg.ask = lambda title, question: asked_on_unload.append(question) or True
+    dlg.select("builtin", builtin_profile_names()[0])
+    dlg.duplicate()
+    dlg.name_edit.setText("edited, not saved")
+    assert dlg.has_unsaved_changes()
     plugin.unload()
     _flush_deletes()
     assert plugin.vessel_dialog is None
+    assert asked_on_unload == []
 
 
 # ---------------------------------------------------------------------- real desktop (Xvfb)
