@@ -360,3 +360,34 @@ def test_vessel_from_user_profile_folder(seaway_provider, route, sea, tmp_path):
         target.unlink()
         if not any(folder.iterdir()):
             shutil.rmtree(folder)
+
+
+def test_datetime_and_path_helpers():
+    """QDateTime <-> datetime64 against Python's datetime (UTC epoch milliseconds); output
+    path helpers on plain paths and OGR URIs."""
+    import datetime as dt
+
+    from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime
+
+    from seaway_comfort.processing import adapters, styling
+    from seaway_comfort.processing.algorithms.common import file_part
+
+    t = np.datetime64("2031-03-11T06:07:08.901", "ms")
+    q = adapters.qdatetime_from_datetime64(t)
+    assert q.timeSpec() == Qt.TimeSpec.UTC
+    ref_ms = int(dt.datetime(2031, 3, 11, 6, 7, 8, 901000, tzinfo=dt.timezone.utc).timestamp() * 1000)
+    assert q.toMSecsSinceEpoch() == ref_ms
+    assert adapters.datetime64_from_qdatetime(q) == t
+    # a zone-less (local) QDateTime is read as UTC wall-clock time
+    local = QDateTime(QDate(2031, 3, 11), QTime(6, 7, 8, 901), Qt.TimeSpec.LocalTime)
+    assert adapters.datetime64_from_qdatetime(local, assume_utc=True) == t
+    assert adapters.round_to_second(t) == np.datetime64("2031-03-11T06:07:09", "s")
+    assert adapters.round_to_second(np.datetime64("2031-03-11T06:07:08.499", "ms")) == np.datetime64(
+        "2031-03-11T06:07:08", "s")
+    assert adapters.datetime64_from_value("2031-03-11T08:07:08.901+02:00", what="x") == t
+    assert adapters.datetime64_from_value(None, what="x") is None
+    assert styling.qml_path_for("/d/out.gpkg") == "/d/out.qml"
+    assert styling.qml_path_for("/d/out.gpkg|layername=legs") == "/d/out_legs.qml"
+    assert styling.qml_path_for("ogr:dbname='/d/out.gpkg' table=\"legs\" (geom)") == "/d/out_legs.qml"
+    assert file_part("/d/route.shp|layerid=0") == "/d/route.shp"
+    assert file_part("ogr:dbname='/d/out.gpkg' table=\"legs\" (geom)") == "/d/out.gpkg"
