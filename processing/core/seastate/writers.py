@@ -302,7 +302,9 @@ def write_geotiff_stack(
             band.SetUnitType(units)
         if write_times and t_s is not None:
             band.SetDescription(f"{np.datetime64(int(t_s[i]), 's')}Z")
-    gdal_call(f"cannot write GeoTIFF {path!r}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem)
+    # band-interleaved tiles: a window of one time step is read without touching the other steps
+    gdal_call(f"cannot write GeoTIFF {path!r}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem,
+              options=["TILED=YES", "INTERLEAVE=BAND"])
     return path
 
 
