@@ -2,7 +2,6 @@
 """Processing algorithm ``seawaycomfort:routecomfort``: comfort and motions along a route."""
 from __future__ import annotations
 
-import os
 from typing import Any, Dict, List, Optional, Tuple
 
 from qgis.core import (

@@ -10,7 +10,6 @@ QgsProcessingException whose text names the input and says what to fix.
 from __future__ import annotations
 
 import json
-import math
 import xml.etree.ElementTree as ET
 
 import numpy as np
