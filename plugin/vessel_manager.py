@@ -273,6 +273,10 @@ class VesselManagerDialog(QDialog):
         outer.addWidget(buttons)
         self.resize(1240, 660)
         splitter.setSizes([300, 940])
+        # Enter in a field must not press New/Delete/Save by accident.
+        for button in self.findChildren(QPushButton):
+            button.setAutoDefault(False)
+            button.setDefault(False)
 
     # ================================================================== list
     def builtin_names(self) -> List[str]:
@@ -617,6 +621,7 @@ class VesselManagerDialog(QDialog):
             self.show_error(self.tr("{0}: {1}").format(self.field_labels["name"], exc))
             return None
         same_file = self._current_path is not None and target == self._current_path
+        renamed_from = self._current_path if self._kind == KIND_USER and not same_file else None
         try:
             path = self.store.save(profile, overwrite=same_file)
         except ProfileExistsError as exc:
@@ -631,6 +636,10 @@ class VesselManagerDialog(QDialog):
         self._mark_clean()
         self.reload(select=(KIND_USER, str(path)))
         self.show_info(self.tr("Saved {0!r} to {1}").format(profile.name, path))
+        if renamed_from is not None and renamed_from.exists():
+            self.show_info(self.tr("Saved {0!r} to {1}; the profile in {2} is kept (delete it if "
+                                   "it is no longer needed).").format(profile.name, path,
+                                                                       renamed_from))
         return path
 
     def new_profile(self) -> None:

@@ -566,3 +566,22 @@ def test_desktop_qgis_under_xvfb(package_parent: Path, tmp_path: Path):
 
     shot = QImage(str(tmp_path / "desktop.png"))
     assert not shot.isNull() and shot.width() == 1280
+
+
+def test_renaming_saves_a_new_file_and_keeps_the_old(dialog):
+    _editable(dialog)
+    dialog.name_edit.setText("First name")
+    first = dialog.save()
+    dialog.name_edit.setText("Second name")
+    second = dialog.save()
+    assert first is not None and second is not None and first != second
+    assert first.exists() and second.exists() and dialog.asked == []
+    assert "is kept" in dialog.message() and str(first) in dialog.message()
+    assert json.loads(second.read_text(encoding="utf-8"))["name"] == "Second name"
+
+
+def test_enter_does_not_press_a_button(dialog):
+    from qgis.PyQt.QtWidgets import QPushButton
+
+    buttons = dialog.findChildren(QPushButton)
+    assert buttons and not any(b.autoDefault() or b.isDefault() for b in buttons)
