@@ -657,10 +657,8 @@ def respond(
     flags = sea.flags.copy()
     comp = sea.valid & np.isfinite(sea.hs_m) & np.isfinite(sea.tp_s) & np.isfinite(sea.wave_from_deg)
     comp &= (sea.flags & int(NOT_COMPUTED_FLAGS)) == 0
-    comp &= sea.tp_s > 0
-    # a sea with no waves (hs == 0) has no motions to compute: state it rather than guess
-    calm = comp & (sea.hs_m <= 0.0)
-    comp &= ~calm
+    comp &= (sea.tp_s > 0) & (sea.hs_m >= 0)
+    # Hs = 0 (flat calm in the forecast) is a value, not missing data: the response is zero
     idx = np.flatnonzero(comp)
     nan = np.full(n, np.nan)
 
@@ -699,8 +697,6 @@ def respond(
     method_used = method or ""
     use_parts = len(sea.partition_names) > 0
     notes = list(sea.notes)
-    if np.any(calm):
-        notes.append(f"{int(calm.sum())} samples with Hs = 0 m: no motions computed there")
     # decide the method once for the whole leg: the table path builds its tables from the
     # speeds and depths of one call, so it gets every sample in one call (the same numbers
     # whatever the chunking); the exact path runs in chunks so progress and cancel work

@@ -363,3 +363,26 @@ def test_partitions_reach_the_response(tmp_path, profile):
         np.testing.assert_allclose(getattr(r, field)[keep], getattr(direct, field), rtol=1e-9, err_msg=field)
     # the peak-component kinematics use the combined Tp (11 s, deep water: L0 = g T^2 / 2 pi)
     np.testing.assert_allclose(r.wavelength_m, G_STANDARD_M_S2 * 11.0**2 / (2 * math.pi), rtol=1e-9)
+
+
+def test_flat_calm_is_a_value_not_missing(tmp_path, profile):
+    """Hs = 0 in the forecast: zero response as the api gives it (linear theory: response
+    variance scales with Hs^2), class 0, not a NaN sample."""
+    from seaway_comfort.processing.core.api import assess_motions
+
+    lon = np.arange(-2.0, 2.01, 0.5)
+    lat = np.arange(-2.0, 2.01, 0.5)
+    shape = (STEPS, lat.size, lon.size)
+    path = str(tmp_path / "calm.nc")
+    write_cf_netcdf(path, lon, lat, TIMES, {HS: np.zeros(shape), TP: np.full(shape, 6.0), DIR: np.zeros(shape)})
+    src = open_sea_state(path)
+    try:
+        r = _run(src, profile, [0.0, 0.0], [0.0, 0.3], spacing_nm=6.0)
+    finally:
+        src.close()
+    assert r.computed.all()
+    direct = assess_motions(profile, hs_m=np.zeros(r.n), tp_s=np.full(r.n, 6.0), wave_from_deg=np.zeros(r.n),
+                            course_deg=r.course_deg, speed_m_s=np.full(r.n, 10.0 * KNOT_M_S))
+    np.testing.assert_array_equal(r.heave_rms_m, direct.heave_rms_m)
+    np.testing.assert_array_equal(r.comfort_class, direct.comfort_class)
+    assert np.all(r.heave_rms_m == 0.0) and np.all(r.msdv_cum == 0.0)
