@@ -85,14 +85,20 @@ def _scalar_pos(name: str, v: float) -> float:
 
 
 def _cube_ratio(s: FloatArray) -> FloatArray:
-    """(sin s - s cos s) / s**3 with its series below |s| < 1e-2 (-> 1/3 at s = 0)."""
-    s = np.abs(s)
+    """(sin s - s cos s) / s**3 with its series below |s| < 1e-2 (-> 1/3 at s = 0).
+
+    Above 1e-2 the closed form loses at most about eps/s**2 ~ 2e-12 relative to cancellation.
+    """
+    s = np.abs(np.asarray(s, dtype=float))
+    shape = s.shape
+    s = s.reshape(-1)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        out = (np.sin(s) - s * np.cos(s)) / (s * s * s)
     small = s < 1e-2
-    ss = np.where(small, 1.0, s)
-    exact = (np.sin(ss) - ss * np.cos(ss)) / ss**3
-    s2 = s * s
-    series = 1.0 / 3.0 - s2 / 30.0 + s2 * s2 / 840.0
-    return np.where(small, series, exact)
+    if np.any(small):
+        s2 = s[small] ** 2
+        out[small] = 1.0 / 3.0 - s2 / 30.0 + s2 * s2 / 840.0
+    return out.reshape(shape)
 
 
 def _sin_deg_abs(mu_deg: ArrayLike) -> FloatArray:
