@@ -95,3 +95,31 @@ def test_bad_grids():
         build_response_table(tr, p.stations, 1.0, tp_grid_s=[5.0, 4.0])
     with pytest.raises(SeawayInputError, match="speed_m_s"):
         build_response_table(tr, p.stations, float("nan"))
+
+
+def test_full_circle_rao_table_uses_headings_0_to_360():
+    # An RAO table without port/starboard symmetry (headings to 345 deg) must not be folded.
+    from seaway_comfort.processing.core.rao_table import TableTransfer, rao_table_from_rows
+    from seaway_comfort.processing.core.vessel import Station
+
+    header = ["omega_rad_s", "heading_deg", "heave_m_per_m", "pitch_deg_per_m", "roll_deg_per_m"]
+    rows = []
+    for w in np.arange(0.2, 4.01, 0.05):
+        for h in np.arange(0.0, 346.0, 15.0):
+            asym = 1.0 + 0.5 * np.sin(np.radians(h))  # more roll with waves from port (mu 90)
+            rows.append([f"{w:.4f}", f"{h}", f"{1.0 / (1 + (w / 1.5) ** 4):.8f}",
+                         f"{5.0 * w * w / 9.81 / (1 + (w / 1.5) ** 4):.8f}",
+                         f"{asym * 8.0 / (1 + ((w - 1.2) / 0.3) ** 2):.8f}"])
+    tt = TableTransfer(rao_table_from_rows(header, rows))
+    st = [Station("s", 2.0, 1.0, 1.5)]
+    tab = build_response_table(tt, st, 2.0)
+    assert tab.full_circle and tab.heading_grid_deg[-1] > 180.0
+    hs, tp, wf, co = _random_sea(150, 1, 5)
+    tp = np.clip(tp, 4.0, 12.0)
+    ex = motion_response(tt, st, hs_m=hs, tp_s=tp, wave_from_deg=wf, course_deg=co, speed_m_s=2.0)
+    tl = tab.lookup(hs, tp, relative_heading_deg(co[:, None], wf))
+    for f in ("heave_rms_m", "roll_rms_deg", "vacc_rms_m_s2", "lacc_rms_m_s2"):
+        assert _rel_err(getattr(ex, f), getattr(tl, f)) < 0.01, f
+    # port and starboard beam seas differ for this table (mu 90 vs 270)
+    r = tab.lookup([1.0, 1.0], [7.0, 7.0], [90.0, 270.0])
+    assert r.roll_rms_deg[0] > 1.2 * r.roll_rms_deg[1]
