@@ -94,7 +94,8 @@ class MotionAssessment:
     acceleration (accumulate MSDV with :func:`.comfort.msdv_cumulative`); vacc_omega_rad_s:
     mean encounter frequency sqrt(m2/m0) of the vertical acceleration (used for MSI);
     msi_pct: motion sickness incidence for ``exposure_h``; comfort_class: int64 0..4
-    (:data:`.comfort.COMFORT_CLASS_LABELS`); flags: int64 SampleFlag mask; criteria_margin:
+    (:data:`.comfort.COMFORT_CLASS_LABELS`; always from the 2 h MSI and the criteria usage, so
+    classes do not depend on ``exposure_h``); flags: int64 SampleFlag mask; criteria_margin:
     criterion -> 1 - value/limit; roll_period_s: natural roll period used; station, task,
     method ("exact" or "table"); caution: the planning-aid caution text.
     """

@@ -32,7 +32,7 @@ from numpy.typing import ArrayLike, NDArray
 from scipy.special import ndtr
 
 from .units import G_SHIP_M_S2, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .validation import SeawayInputError, require_nonnegative, require_positive
 
 __all__ = [
     "msi_percent",
