@@ -361,3 +361,21 @@ def test_rows_and_speeds(sources, profile):
         pair = [x.msdv_arrival for x in res.rows if x.speed_kn == r.speed_kn and x.depart_utc == r.depart_utc
                 and not x.is_robust]
         assert r.msdv_arrival == max(pair)
+
+
+def test_chosen_station_not_the_first(sources, profile):
+    """A station other than the profile's first: the worst MSI of a departure that meets the
+    storm equals the exact spectral path at THAT station (api.assess_motions method="exact",
+    station given) within the table tolerance, and differs from the first station's value."""
+    other = profile.stations[-1].name
+    assert other != profile.stations[0].name
+    res = _run(sources[:1], profile, 7.0, 7.0, station=other, criterion="worst_msi")
+    row = res.rows_of("model A")[0]
+    assert _meets(7.0, STORM_A_H) is True
+    kw = dict(hs_m=[STORM[0]], tp_s=[STORM[1]], wave_from_deg=90.0, course_deg=90.0,
+              speed_m_s=SPEED_KN * KNOT_M_S, method="exact")
+    at_other = float(assess_motions(profile, station=other, **kw).msi_pct[0])
+    at_first = float(assess_motions(profile, **kw).msi_pct[0])
+    assert res.station_name == other
+    assert row.worst_msi_pct == pytest.approx(at_other, abs=MSI_TOL_PCT)
+    assert abs(at_other - at_first) > 2 * MSI_TOL_PCT  # the check can tell the stations apart
