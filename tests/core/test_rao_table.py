@@ -74,7 +74,7 @@ def test_frequency_units_agree(tmp_path):
     f = load_rao_table(_write(tmp_path, _grid_lines([0.1, 0.2], [0.0, 180.0],
                                                     lambda hz, h: _fn(1 / hz, h), col="freq_hz"), "b.csv"))
     np.testing.assert_allclose(t.omega_rad_s, f.omega_rad_s, rtol=1e-12)
-    np.testing.assert_allclose(t.heave_m_per_m, f.heave_m_per_m[::-1] if False else f.heave_m_per_m, rtol=1e-12)
+    np.testing.assert_allclose(t.heave_m_per_m, f.heave_m_per_m, rtol=1e-12)
 
 
 def test_beyond_range_and_coverage(tmp_path):
