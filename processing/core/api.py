@@ -44,7 +44,7 @@ from .tables import ResponseTableSet, build_response_table_set
 from .transfer import ClosedFormTransfer
 from .units import G_STANDARD_M_S2, FloatArray
 from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
-from .vessel import VesselProfile
+from .vessel import Station, VesselProfile
 
 __all__ = ["SeaPartitions", "MotionAssessment", "assess_motions", "transfer_model", "AUTO_TABLE_MIN_SAMPLES"]
 
@@ -138,15 +138,17 @@ def _vec(name: str, v: ArrayLike, n: int, *, nonneg: bool = False) -> FloatArray
     return np.ascontiguousarray(np.broadcast_to(a, (n,)), dtype=float)
 
 
-def _table_set(profile: VesselProfile, transfer: Any, speeds: FloatArray, depths: Optional[FloatArray],
-               gamma: float, spread: float, long_crested: bool, n_freq: int, n_dir: int) -> ResponseTableSet:
-    key = (profile, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
+def _table_set(profile: VesselProfile, station: Station, transfer: Any, speeds: FloatArray,
+               depths: Optional[FloatArray], gamma: float, spread: float, long_crested: bool, n_freq: int,
+               n_dir: int) -> ResponseTableSet:
+    """Cached table set for ONE station (the one assessed)."""
+    key = (profile, station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
            gamma, spread, long_crested, n_freq, n_dir)
     hit = _TABLE_CACHE.get(key)
     if hit is not None:
         _TABLE_CACHE.move_to_end(key)
         return hit
-    ts = build_response_table_set(transfer, profile.stations, speeds, depths, gamma=gamma, spread_s=spread,
+    ts = build_response_table_set(transfer, (station,), speeds, depths, gamma=gamma, spread_s=spread,
                                   long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
     _TABLE_CACHE[key] = ts
     while len(_TABLE_CACHE) > _TABLE_CACHE_SIZE:
@@ -290,7 +292,7 @@ def assess_motions(
             rs = []
             for g_, s_ in shapes:
                 cols = [i for i in range(hs.shape[1]) if gam[i] == g_ and spr[i] == s_]
-                ts = _table_set(profile, transfer, _speed_nodes(speed[deep_idx]), None, g_, s_,
+                ts = _table_set(profile, st, transfer, _speed_nodes(speed[deep_idx]), None, g_, s_,
                                 bool(long_crested), n_freq, n_dir)
                 rs.append((cols, ts))
             if len(rs) == 1:

@@ -112,3 +112,17 @@ def test_table_method_uses_exact_path_where_depth_matters():
     b = assess_motions(BOAT, method="table", **kw)
     assert b.heave_rms_m[0] == a.heave_rms_m[0]
     assert b.heave_rms_m[1] == pytest.approx(a.heave_rms_m[1], rel=0.01)
+
+
+@pytest.mark.parametrize("station", ["aft_deck", "forward_berth"])
+def test_table_method_reports_the_selected_station(station):
+    # regression: the table path must assess the chosen station, not the profile's first one.
+    kw = dict(hs_m=[1.0, 2.0], tp_s=[6.0, 8.0], wave_from_deg=[10.0, 120.0], course_deg=[0.0, 0.0],
+              speed_m_s=[2.0, 2.0], station=station)
+    a = assess_motions(BOAT, method="exact", **kw)
+    b = assess_motions(BOAT, method="table", **kw)
+    assert b.station == station
+    np.testing.assert_allclose(b.vacc_rms_m_s2, a.vacc_rms_m_s2, rtol=0.01)
+    np.testing.assert_allclose(b.lacc_rms_m_s2, a.lacc_rms_m_s2, rtol=0.01)
+    first = assess_motions(BOAT, method="exact", **{**kw, "station": None})
+    assert not np.allclose(first.vacc_rms_m_s2, a.vacc_rms_m_s2, rtol=0.05)
