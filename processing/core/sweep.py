@@ -551,7 +551,8 @@ def _windows(deps: NDArray[np.datetime64], ok: NDArray[np.bool_]) -> Tuple[Tuple
 def _fmt_v(v: float, unit: str) -> str:
     if not math.isfinite(v):
         return "n/a"
-    return f"{v:.1f} {unit}" if unit != "m/s^1.5" else f"{v:.2f} {unit}"
+    digits = 2 if unit == "m/s^1.5" or (unit == "%" and abs(v) < 1.0) else 1
+    return f"{v:.{digits}f} {unit}"
 
 
 def _recommend(rows: Sequence[SweepRow], deps: NDArray[np.datetime64], robust_ok: NDArray[np.bool_],

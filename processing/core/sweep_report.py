@@ -164,7 +164,8 @@ def heat_map_png(result: SweepResult) -> Optional[bytes]:
     axes[-1].set_xlabel("distance along the route [NM]")
     handles = [Patch(facecolor=COMFORT_PALETTE[c], edgecolor="#555", label=lab) for c, lab in enumerate(COMFORT_CLASS_LABELS)]
     handles.append(Patch(facecolor=NOT_COMPUTED_COLOUR, edgecolor="#555", label="not computed"))
-    axes[0].legend(handles=handles, fontsize=6, loc="upper right", ncol=3)
+    # outside the map so it never hides departures (the top rows are often the ones past the horizon)
+    axes[0].legend(handles=handles, fontsize=6, loc="upper left", bbox_to_anchor=(1.01, 1.0))
     return _png(fig)
 
 
@@ -182,7 +183,8 @@ def criterion_plot_png(result: SweepResult) -> Optional[bytes]:
         ylabel = "hours above the acceptable class [h]"
     else:
         values = result.criterion_value
-        ylabel = f"{crit} [{unit}]"
+        ylabel = {"worst_msi": "worst MSI on the passage", "hours_above": "hours above the acceptable class",
+                  "dose": "MSDV at arrival"}[crit] + f" [{unit}]"
     styles = ["-", "--", ":", "-."]
     for s, v in enumerate(result.speeds_kn):
         lo = np.where(np.isfinite(values[s]), values[s], np.nan)

@@ -249,12 +249,21 @@ def test_progress_and_cancel(sweep_registered, route, seas, tmp_path):
         def __init__(self):
             super().__init__()
             self.values = []
+            self.infos = []
             self.progressChanged.connect(self.values.append)
+
+        def pushInfo(self, info):  # noqa: N802
+            self.infos.append(info)
+            super().pushInfo(info)
 
     fb = Record()
     _run(_params(route, seas, tmp_path), feedback=fb)
     assert fb.values and fb.values[-1] == 100
     assert all(b >= a - 1e-9 for a, b in zip(fb.values, fb.values[1:]))
+    # the recommendation with its reason and the caution are in the log
+    log = "\n".join(fb.infos)
+    assert "Recommended: Depart 2030-06-01 14:00 UTC" in log and "within limits" in log
+    assert "CAUTION: Planning aid only" in log
 
     class CancelSoon(QgsProcessingFeedback):
         calls = 0
