@@ -168,3 +168,23 @@ def test_parse_months():
     for bad in ("0", "1-13", "may", "-"):
         with pytest.raises(SeawayInputError, match="months"):
             C.parse_months(bad)
+
+
+def test_samples_off_the_grid_are_flagged_not_zero(tmp_path):
+    from seaway_comfort.processing.core.flags import SampleFlag
+
+    s = C.open_hindcast(write_seasonal_hindcast(str(tmp_path), [2030]))
+    # the grid's cell edges end at 5.75 W: the eastern end of this route lies outside
+    r = C.compute_climate([-7.0, -5.0], [42.0, 42.0], s, "coastal_survey_35m", speed_kn=10.0,
+                          backend=C.SerialBackend(), months="1")
+    lon = r.lon_deg
+    off = lon > -5.75
+    assert off.any() and (~off).any()
+    assert np.all((r.sample_flags[off] & int(SampleFlag.OUTSIDE_GRID)) != 0)
+    assert np.all((r.sample_flags[~off] & int(SampleFlag.OUTSIDE_GRID)) == 0)
+    assert np.all(np.isnan(r.ok_share[0, off])) and np.all(r.valid_steps[0, off] == 0)
+    assert np.all(np.isfinite(r.ok_share[0, ~off]))
+    # every passage crosses the off-grid samples: no departure is known, probability NaN (not 0)
+    assert r.departures_known[0] == 0 and np.isnan(r.window_probability[0])
+    assert any("outside the hindcast grid" in n for n in r.notes)
+    assert "OFFGRID" in r.to_csv()

@@ -84,10 +84,15 @@ class SerialBackend:
     name: str = "serial"
 
     def map(self, tasks: Sequence[ChunkTask], progress: Optional[Progress] = None) -> List[ChunkResult]:
+        from .hindcast import close_process_readers
+
         out: List[ChunkResult] = []
-        for k, t in enumerate(tasks):
-            out.append(run_chunk(t))
-            _tick(progress, k + 1, len(tasks))
+        try:
+            for k, t in enumerate(tasks):
+                out.append(run_chunk(t))
+                _tick(progress, k + 1, len(tasks))
+        finally:
+            close_process_readers()  # release the files when the computation is done
         return out
 
 
@@ -189,6 +194,9 @@ class DaskBackend:
             client.close()
             if cluster is not None:
                 cluster.close()
+            from .hindcast import close_process_readers
+
+            close_process_readers()  # in-process (thread) workers opened files here
 
 
 def make_backend(kind: str = "local", *, workers: int = 2, scheduler: Optional[str] = None,

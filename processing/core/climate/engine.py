@@ -57,7 +57,7 @@ __all__ = [
 MISSING_CLASS: int = -1
 """Class of a (step, sample) without data."""
 
-LOOKUP_PAIRS: int = 150_000
+LOOKUP_PAIRS: int = 50_000
 """(step, sample) pairs per table look-up call (bounds the temporary arrays)."""
 
 
@@ -242,7 +242,7 @@ def classify_sea(setup: ClimateSetup, hs_m: FloatArray, tp_s: FloatArray, wave_f
 def classify_steps(setup: ClimateSetup, a: int, b: int, *, block_steps: Optional[int] = None,
                    reader: Any = None) -> StepClasses:
     """:func:`classify_sea` for hindcast steps [a, b) of ``setup.series``, read in blocks of
-    ``block_steps`` steps (default: about 150 000 pairs per block) to bound memory."""
+    ``block_steps`` steps (default: about LOOKUP_PAIRS pairs per block) to bound memory."""
     from .hindcast import _Reader
 
     n = setup.n

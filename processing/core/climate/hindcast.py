@@ -42,8 +42,10 @@ Sampling at fixed positions (:func:`point_weights`, :func:`read_point_values`):
 """
 from __future__ import annotations
 
+import atexit
 import math
 import os
+import threading
 from dataclasses import dataclass
 from typing import Dict, List, Optional, Sequence, Tuple
 
@@ -401,7 +403,8 @@ def point_weights(grid: object, lon_deg: Sequence[float], lat_deg: Sequence[floa
     c_used, r_used = cc[ok], rr[ok]
     col0, col1 = int(c_used.min()), int(c_used.max())
     row0, row1 = int(r_used.min()), int(r_used.max())
-    return PointWeights(rows=rr - row0, cols=cc - col0, weights=ww, inside=inside,
+    # neighbours with weight 0 (off the grid) point at the window's first cell (never used)
+    return PointWeights(rows=np.where(ok, rr - row0, 0), cols=np.where(ok, cc - col0, 0), weights=ww, inside=inside,
                         row0=row0, col0=col0, nrows=row1 - row0 + 1, ncols=col1 - col0 + 1)
 
 
@@ -469,15 +472,32 @@ class _Reader:
         self._ds.clear()
 
 
-_PROCESS_READER: Optional[_Reader] = None
+_LOCAL = threading.local()
+_ALL_READERS: List[_Reader] = []
+_READERS_LOCK = threading.Lock()
 
 
 def process_reader() -> _Reader:
-    """One reader per process, shared by the chunks that run in it (files opened once)."""
-    global _PROCESS_READER
-    if _PROCESS_READER is None:
-        _PROCESS_READER = _Reader()
-    return _PROCESS_READER
+    """One reader per thread of this process, shared by the chunks that run in it (files opened
+    once). Per THREAD because GDAL dataset handles must not be used by two threads at once
+    (Dask workers may be threads). All are closed at interpreter exit and by
+    :func:`close_process_readers`."""
+    rd = getattr(_LOCAL, "reader", None)
+    if rd is None:
+        rd = _LOCAL.reader = _Reader()
+        with _READERS_LOCK:
+            _ALL_READERS.append(rd)
+    return rd
+
+
+def close_process_readers() -> None:
+    """Close every dataset the per-thread readers hold (call when a computation is done)."""
+    with _READERS_LOCK:
+        for rd in _ALL_READERS:
+            rd.close()
+
+
+atexit.register(close_process_readers)
 
 
 def _cube(reader: _Reader, var: VariableSteps, pw: PointWeights, a: int, b: int) -> Tuple[FloatArray, List[int]]:

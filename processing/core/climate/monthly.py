@@ -122,6 +122,9 @@ class ClimateResult:
     Per month and sample: ``class_share`` (nm, n, 5), ``ok_share`` (nm, n),
     ``exceed_share`` (nm, n), ``valid_steps`` (nm, n), ``missing_steps`` (nm, n),
     ``method_limit_steps`` (nm, n).
+    Per sample: ``sample_flags`` (n,) SampleFlag masks: OUTSIDE_GRID (position off the
+    hindcast grid), NO_SEA_DATA (inside the grid but no data at any step, e.g. on land),
+    OUTSIDE_VALIDITY (some steps outside the response method's range).
     Per month: ``route_class_share`` (nm, 5), ``route_ok_share``, ``route_exceed_share``,
     ``window_probability`` (acceptable / known departures), ``departures_known``,
     ``departures_ok``, ``departures_unknown``, ``departures_past_end``, ``mean_wait_h``,
@@ -154,6 +157,7 @@ class ClimateResult:
     mean_wait_h: FloatArray
     wait_censored: NDArray[np.int64]
     steps: NDArray[np.int64]
+    sample_flags: NDArray[np.int64]
     max_class: int
     passage_h: float
     step_h: float
@@ -213,6 +217,18 @@ def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[
     if int(totals.implausible_counts.sum()):
         nts.append(f"{int(totals.implausible_counts.sum())} (step, sample) values with Hs < 0 or Tp <= 0 "
                    "were treated as missing")
+    from ..flags import SampleFlag
+
+    sflags = np.zeros(setup.n, dtype=np.int64)
+    sflags[~setup.weights.inside] |= int(SampleFlag.OUTSIDE_GRID)
+    never = setup.weights.inside & (totals.class_counts[:, :, 1:].sum(axis=(0, 2)) == 0)
+    sflags[never] |= int(SampleFlag.NO_SEA_DATA)
+    sflags[totals.limit_counts.sum(axis=0) > 0] |= int(SampleFlag.OUTSIDE_VALIDITY)
+    n_off = int(np.count_nonzero(~setup.weights.inside))
+    if n_off:
+        nts.append(f"{n_off} of {setup.n} route samples lie outside the hindcast grid: no data there (OFFGRID)")
+    if int(never.sum()):
+        nts.append(f"{int(never.sum())} route samples inside the grid have no data at any step (NOSEA)")
     t = series.times_utc
     years = np.unique(t[series.present].astype("datetime64[Y]")).size if series.present.any() else 0
     nts.append("departures whose passage would end after the last hindcast step are not counted "
@@ -232,7 +248,8 @@ def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[
         window_probability=_share(totals.dep_ok[mi], totals.dep_known[mi]),
         departures_known=totals.dep_known[mi], departures_ok=totals.dep_ok[mi],
         departures_unknown=totals.dep_unknown[mi], departures_past_end=totals.dep_past_end[mi],
-        mean_wait_h=mean_wait, wait_censored=w.censored[mi], steps=totals.steps[mi], max_class=mc,
+        mean_wait_h=mean_wait, wait_censored=w.censored[mi], steps=totals.steps[mi], sample_flags=sflags,
+        max_class=mc,
         passage_h=setup.passage_s / 3600.0, step_h=step_h, speed_kn=setup.speed_kn,
         vessel_name=setup.vessel_name, station_name=setup.station_name, task=setup.task,
         first_utc=t[0], last_utc=t[-1], n_years=int(years), notes=tuple(dict.fromkeys(nts)),
@@ -250,7 +267,8 @@ def write_climate_csv(result: ClimateResult, path: Optional[str] = None) -> str:
 
     Columns: month, sample, dist_nm, lon_deg, lat_deg, share_class0..4, ok_share,
     exceed_share, valid_steps, missing_steps, window_probability, mean_wait_h,
-    departures_known, wait_censored (the last four on route rows only).
+    departures_known, wait_censored (these four on route rows only), flags (sample flag codes,
+    sample rows only).
     """
     from ..comfort import COMFORT_CLASS_LABELS
 
@@ -259,21 +277,22 @@ def write_climate_csv(result: ClimateResult, path: Optional[str] = None) -> str:
     head = ["month", "sample", "dist_nm", "lon_deg", "lat_deg"]
     head += [f"share_{lab}" for lab in COMFORT_CLASS_LABELS]
     head += ["ok_share", "exceed_share", "valid_steps", "missing_steps", "window_probability",
-             "mean_wait_h", "departures_known", "wait_censored"]
+             "mean_wait_h", "departures_known", "wait_censored", "flags"]
     wr.writerow(head)
+    from ..flags import flag_codes
     r = result
     for k, m in enumerate(r.months):
         row = [m, "route", _f(r.dist_nm[-1], 2), "", ""]
         row += [_f(v) for v in r.route_class_share[k]]
         row += [_f(r.route_ok_share[k]), _f(r.route_exceed_share[k]), int(r.valid_steps[k].sum()),
                 int(r.missing_steps[k].sum()), _f(r.window_probability[k]), _f(r.mean_wait_h[k], 2),
-                int(r.departures_known[k]), int(r.wait_censored[k])]
+                int(r.departures_known[k]), int(r.wait_censored[k]), ""]
         wr.writerow(row)
         for i in range(r.n):
             row = [m, i, _f(r.dist_nm[i], 2), _f(r.lon_deg[i], 5), _f(r.lat_deg[i], 5)]
             row += [_f(v) for v in r.class_share[k, i]]
             row += [_f(r.ok_share[k, i]), _f(r.exceed_share[k, i]), int(r.valid_steps[k, i]),
-                    int(r.missing_steps[k, i]), "", "", "", ""]
+                    int(r.missing_steps[k, i]), "", "", "", "", flag_codes(int(r.sample_flags[i]))]
             wr.writerow(row)
     buf.write(f"# vessel {r.vessel_name}, station {r.station_name} ({r.task}), speed {r.speed_kn:g} kn, "
               f"passage {r.passage_h:.1f} h, worst acceptable class {r.max_class} "
