@@ -56,6 +56,18 @@ def _default_headings(full_circle: bool) -> FloatArray:
     return np.arange(0.0, 360.0, 2.5) if full_circle else np.arange(0.0, 180.0 + 1e-9, 2.5)
 
 
+def _locate(grid: FloatArray, x: FloatArray) -> Tuple[NDArray[np.int64], FloatArray]:
+    """Cell index i (0..n-2) and fraction t in [0, 1] of x on an increasing grid (clamped).
+    Uniform grids use arithmetic indexing, others a binary search."""
+    d = np.diff(grid)
+    if np.allclose(d, d[0], rtol=1e-9, atol=0.0):
+        u = (x - grid[0]) * (1.0 / d[0])
+        i = np.clip(np.floor(u), 0, grid.size - 2).astype(np.int64)
+        return i, np.clip(u - i, 0.0, 1.0)
+    i = np.clip(np.searchsorted(grid, x, side="right") - 1, 0, grid.size - 2)
+    return i, np.clip((x - grid[i]) / (grid[i + 1] - grid[i]), 0.0, 1.0)
+
+
 @dataclass(frozen=True)
 class ResponseTable:
     """Per-unit-Hs**2 station quantities on a (Tp, mu) grid for one speed/depth/spectrum shape.
@@ -84,8 +96,7 @@ class ResponseTable:
         lt = np.log(self.tp_grid_s)
         x = np.log(tp_s)
         off = (x < lt[0] - 1e-12) | (x > lt[-1] + 1e-12)
-        i = np.clip(np.searchsorted(lt, x, side="right") - 1, 0, lt.size - 2)
-        tf = np.clip((x - lt[i]) / (lt[i + 1] - lt[i]), 0.0, 1.0)
+        i, tf = _locate(lt, x)
         mu = wrap_deg(rel_heading_deg)
         h = self.heading_grid_deg
         q, out = self.q, self.outside
@@ -95,8 +106,7 @@ class ResponseTable:
             out = np.concatenate([out, out[:, :1]], axis=1)
         else:
             mu = 180.0 - np.abs(180.0 - mu)
-        j = np.clip(np.searchsorted(h, mu, side="right") - 1, 0, h.size - 2)
-        th = np.clip((mu - h[j]) / (h[j + 1] - h[j]), 0.0, 1.0)
+        j, th = _locate(h, mu)
         nh = h.size
         flat = q.reshape(-1, q.shape[-1])
         oflat = out.reshape(-1)
@@ -122,7 +132,7 @@ class ResponseTable:
         return val, o, off
 
     def lookup(self, hs_m: ArrayLike, tp_s: ArrayLike, rel_heading_deg: ArrayLike, *,
-               chunk_size: int = 200_000) -> MotionResponse:
+               chunk_size: int = 32_768) -> MotionResponse:
         """Motion statistics for n samples with (n,) or (n, p) partitions (ITTC mu in deg).
 
         Same result type and meaning as :func:`.response.motion_response` (method "table").
@@ -223,7 +233,7 @@ class ResponseTableSet:
 
     def lookup(self, hs_m: ArrayLike, tp_s: ArrayLike, rel_heading_deg: ArrayLike,
                speed_m_s: ArrayLike, depth_m: Optional[ArrayLike] = None, *,
-               chunk_size: int = 200_000) -> MotionResponse:
+               chunk_size: int = 32_768) -> MotionResponse:
         hs, tp, mu = prepare_sea(hs_m, tp_s, rel_heading_deg)
         n = hs.shape[0]
         u = np.broadcast_to(require_nonnegative("speed_m_s", speed_m_s).reshape(-1), (n,))
