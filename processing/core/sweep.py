@@ -409,7 +409,6 @@ class _Block:
     flags: NDArray[np.int64]
     n_missing: NDArray[np.int64]
     cls: NDArray[np.int8]
-    msi: FloatArray
 
 
 def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDArray[np.int64],
@@ -432,7 +431,6 @@ def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDAr
         flags=np.bitwise_or.reduce(flags, axis=1).astype(np.int64),
         n_missing=missing.sum(axis=1).astype(np.int64),
         cls=cls.astype(np.int8),
-        msi=msi,
     )
 
 
@@ -447,22 +445,22 @@ def _run_source(plan: PassagePlan, deps: NDArray[np.datetime64], src: object, *,
     per_chunk = max(1, MAX_SAMPLES_PER_CALL // max(n, 1))
     t0, t1 = _time_range(src)
     tol = np.timedelta64(int(round(time_tolerance_s * 1000.0)), "ms")
-    cls = np.full((deps.size, n), NOT_COMPUTED_CLASS, dtype=np.int64)
-    msi = np.full((deps.size, n), np.nan)
-    aw = np.full((deps.size, n), np.nan)
-    flags = np.zeros((deps.size, n), dtype=np.int64)
-    missing = np.ones((deps.size, n), dtype=bool)
+    dwell_h = _dwell_h(elapsed_s)
     station_name, method_used = station or "", method
     n_chunks = int(math.ceil(deps.size / per_chunk))
+    parts: List[_Block] = []
     for c in range(n_chunks):
         sl = slice(c * per_chunk, min((c + 1) * per_chunk, deps.size))
         sub = _Span(span, c / n_chunks, (c + 1) / n_chunks)
         sub.check(0.0)
         dc = deps[sl].size
+        shape = (dc, n)
         eta = (plan.eta_utc[None, :] + offsets[sl, None]).ravel()
         if not np.any((eta >= t0 - tol) & (eta <= t1 + tol)):
             # no sample of these departures lies in this source's time range: all marked
-            flags[sl] = int(SampleFlag.OUTSIDE_TIME)
+            parts.append(_reduce(np.full(shape, NOT_COMPUTED_CLASS, dtype=np.int64), np.full(shape, np.nan),
+                                 np.full(shape, np.nan), np.full(shape, int(SampleFlag.OUTSIDE_TIME), dtype=np.int64),
+                                 np.ones(shape, dtype=bool), dwell_h, elapsed_s))
             continue
         order = np.argsort(eta, kind="stable")
         inv = np.empty_like(order)
@@ -491,16 +489,18 @@ def _run_source(plan: PassagePlan, deps: NDArray[np.datetime64], src: object, *,
                 notes.append(f"{name}: {n_}")
         station_name = res.station_name or station_name
         method_used = res.method or method_used
-        shape = (dc, n)
-        cls[sl] = res.comfort_class[inv].reshape(shape)
-        msi[sl] = res.msi_pct[inv].reshape(shape)
-        aw[sl] = res.vacc_wf_rms_m_s2[inv].reshape(shape)
-        flags[sl] = res.flags[inv].reshape(shape)
-        calm = res.computed == False  # noqa: E712 - numpy mask
-        calm &= np.isfinite(res.hs_m) & (res.hs_m <= 0.0) & ((res.flags & int(NOT_COMPUTED_FLAGS)) == 0)
-        missing[sl] = (~res.computed & ~calm)[inv].reshape(shape)
+        # calm samples (Hs = 0, no motions to compute) are not missing data
+        calm = ~res.computed & np.isfinite(res.hs_m) & (res.hs_m <= 0.0)
+        calm &= (res.flags & int(NOT_COMPUTED_FLAGS)) == 0
+        parts.append(_reduce(
+            res.comfort_class[inv].reshape(shape), res.msi_pct[inv].reshape(shape),
+            res.vacc_wf_rms_m_s2[inv].reshape(shape), res.flags[inv].reshape(shape),
+            (~res.computed & ~calm)[inv].reshape(shape), dwell_h, elapsed_s,
+        ))
+        del sea, res, stacked
         sub.check(1.0)
-    block = _reduce(cls, msi, aw, flags, missing, _dwell_h(elapsed_s), elapsed_s)
+    block = parts[0] if len(parts) == 1 else _Block(**{
+        f: np.concatenate([getattr(p, f) for p in parts], axis=0) for f in _Block.__dataclass_fields__})
     return block, station_name, method_used
 
 

@@ -379,3 +379,20 @@ def test_chosen_station_not_the_first(sources, profile):
     assert res.station_name == other
     assert row.worst_msi_pct == pytest.approx(at_other, abs=MSI_TOL_PCT)
     assert abs(at_other - at_first) > 2 * MSI_TOL_PCT  # the check can tell the stations apart
+
+
+def test_chunks_give_the_same_rows(sources, profile, monkeypatch):
+    """Cutting the stacked samples into several calls (memory bound) changes no figure."""
+    whole = _run(sources, profile, 3.0, 12.0, criterion="dose")
+    monkeypatch.setattr(sweep, "MAX_SAMPLES_PER_CALL", 3 * whole.dist_nm.size)  # 3 departures per call
+    cut = _run(sources, profile, 3.0, 12.0, criterion="dose")
+    for a, b in zip(whole.rows, cut.rows):
+        assert a == b or all(
+            (x == y) or (isinstance(x, float) and math.isnan(x) and math.isnan(y))
+            for x, y in zip(a.__dict__.values(), b.__dict__.values())), (a, b)
+
+
+def test_route_outside_every_grid_is_an_error(sources, profile):
+    with pytest.raises(SeawayInputError, match="outside the grid"):
+        sweep.sweep_departures([10.0, 11.0], [0.0, 0.0], depart_from_utc=_dep(3.0), depart_to_utc=_dep(4.0),
+                               step_h=1.0, sea_states=[sources[0]], profile=profile, speeds_kn=[SPEED_KN])
