@@ -272,7 +272,7 @@ class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
         from ..core.report import ReportInputs
         from ..core.sweep import CRITERIA, parse_speeds_kn, single_station_profile, sweep_departures
         from ..core.sweep_report import build_sweep_report, sweep_text_summary, write_sweep_html
-        from .route_comfort import flag_warning_lines, open_depth, open_sources, provenance_text
+        from .route_comfort import flag_warning_lines, open_depth, open_sources
 
         feedback = feedback or QgsProcessingFeedback()
         settings = common.parse_passage_settings(self, parameters, context)
@@ -379,10 +379,16 @@ class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
             f.setAttributes(_row_attributes(row))
             sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
         del sink
+        vessel_name = getattr(settings.profile, "name", settings.vessel_spec)
         abstract = (
-            f"Seaway Comfort departure sweep: {deps.size} departures from {str(deps[0])[:16]} to {str(deps[-1])[:16]} "
-            f"UTC, speeds {', '.join(f'{v:g}' for v in speeds)} kn, best = {criterion}, worst acceptable class "
-            f"{max_class}. Recommended: {rec.reason} " + provenance_text(settings, route_src)
+            f"Seaway Comfort departure sweep. Route: {route_src} ({leg.name}). Sea-state files: "
+            f"{'; '.join(settings.sea_state_paths)} (sources {', '.join(result.source_names)}, each on its own). "
+            f"Bathymetry: {settings.depth_path or 'none (deep water)'}. Vessel: {vessel_name} "
+            f"({settings.vessel_spec}); station: {result.station_name}. Departures: {deps.size} from "
+            f"{str(deps[0])[:16]} to {str(deps[-1])[:16]} UTC; speeds {', '.join(f'{v:g}' for v in speeds)} kn; "
+            f"spacing {settings.spacing_nm:g} NM; JONSWAP gamma {settings.gamma:g}, "
+            f"{'long-crested' if settings.long_crested else f'cos-2s s {settings.spread_s:g}'}; best = {criterion}, "
+            f"worst acceptable class {max_class}. Recommended: {rec.reason} {CAUTION}"
         )
         self._table_metadata(table_id, context, abstract, feedback)
 
@@ -423,7 +429,6 @@ class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
         for w in warnings:
             feedback.pushWarning(w)
         if report_path:
-            vessel_name = getattr(settings.profile, "name", settings.vessel_spec)
             rinputs = ReportInputs(
                 sea_state_files=settings.sea_state_paths, source_names=result.source_names,
                 bathymetry=settings.depth_path or "", route=f"{route_src} ({leg.name})",

@@ -71,7 +71,7 @@ from .passage import (
     sample_sea,
 )
 from .units import SECONDS_PER_HOUR, FloatArray, nm_from_m
-from .validation import SeawayInputError, as_float_array
+from .validation import SeawayInputError, as_float_array, require_nonnegative
 
 __all__ = [
     "CRITERIA",
@@ -667,11 +667,14 @@ def sweep_departures(
         raise SeawayInputError("sea_states must hold at least one sea-state source, got none")
     names = tuple(_name(s, i) for i, s in enumerate(sea_states))
     if len(set(names)) != len(names):
-        raise SeawayInputError(f"sea-state sources need distinct names to be compared, got {', '.join(names)}")
+        raise SeawayInputError(
+            f"sea-state sources need distinct names to be compared, got {', '.join(names)}: give each source "
+            "its own name")
     if ROBUST_SOURCE in names:
         raise SeawayInputError(f"a source may not be called {ROBUST_SOURCE!r} (that name marks the robust rows)")
     ranges = tuple(_time_range(s) for s in sea_states)
-    tol = np.timedelta64(int(round(float(time_tolerance_s) * 1000.0)), "ms")
+    tol_s = float(require_nonnegative("time_tolerance_s", time_tolerance_s))
+    tol = np.timedelta64(int(round(tol_s * 1000.0)), "ms")
     lo = max(r[0] for r in ranges)
     hi = min(r[1] for r in ranges)
     desc = "; ".join(f"{n}: {_fmt_t(a)} to {_fmt_t(b)}" for n, (a, b) in zip(names, ranges))
@@ -700,11 +703,11 @@ def sweep_departures(
     for s, plan in enumerate(plans):
         row: List[_Block] = []
         for k, src in enumerate(sea_states):
-            span = _Span(outer, job / (n_s * n_k), (job + 1) / (n_s * n_k) * 0.98)
+            span = _Span(outer, 0.98 * job / (n_s * n_k), 0.98 * (job + 1) / (n_s * n_k))
             b, station_name, method_used = _run_source(
                 plan, deps, src, profile=profile, station=station, depth=depth, gamma=gamma, spread_s=spread_s,
                 long_crested=long_crested, method=method, land_search_km=land_search_km,
-                time_tolerance_s=float(time_tolerance_s), span=span, notes=notes, name=names[k],
+                time_tolerance_s=tol_s, span=span, notes=notes, name=names[k],
             )
             row.append(b)
             job += 1
