@@ -128,3 +128,18 @@ def test_bad_inputs_name_parameter(registered, route, hindcast, tmp_path):
             continue
         with pytest.raises(QgsProcessingException, match=word):
             _run(_params(route, hindcast, tmp_path, **over))
+
+
+def test_local_process_pool_inside_qgis_equals_single_process(registered, route, hindcast, tmp_path):
+    # reference: the single-process run through the same algorithm (exact integer reduction)
+    import csv as _csv
+
+    a = _run(_params(route, hindcast, tmp_path / "a", WORKERS=1, OUTPUT_SEGMENTS=str(tmp_path / "a.gpkg"),
+                     OUTPUT_CSV=str(tmp_path / "a.csv"), OUTPUT_REPORT=str(tmp_path / "a.html")))
+    b = _run(_params(route, hindcast, tmp_path / "b", WORKERS=2, OUTPUT_SEGMENTS=str(tmp_path / "b.gpkg"),
+                     OUTPUT_CSV=str(tmp_path / "b.csv"), OUTPUT_REPORT=str(tmp_path / "b.html")))
+
+    def rows(p):
+        return [r for r in _csv.reader(open(p).read().splitlines()) if r and not r[0].startswith("#")]
+
+    assert rows(a["OUTPUT_CSV"]) == rows(b["OUTPUT_CSV"])
