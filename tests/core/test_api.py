@@ -1,5 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""The one-call facade assess_motions."""
+"""The one-call facade assess_motions.
+
+Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
+[D] computed from the named published formula by an independent implementation outside this
+project (the source itself does not print the number)."""
 from __future__ import annotations
 
 import numpy as np

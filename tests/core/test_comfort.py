@@ -1,5 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""MSI, ISO 2631-1 Wf weighting, MSDV, comfort classes."""
+"""MSI, ISO 2631-1 Wf weighting, MSDV, comfort classes.
+
+Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
+[D] computed from the named published formula by an independent implementation outside this
+project (the source itself does not print the number)."""
 from __future__ import annotations
 
 import math
@@ -21,7 +25,7 @@ from seaway_comfort.processing.core.comfort import (
 )
 from seaway_comfort.processing.core.validation import SeawayInputError
 
-# methods.md s.5.1 [D]: O'Hanlon & McCauley (1974) in the Lloyd (1989) / PNA (1989) form,
+# [D] values of O'Hanlon & McCauley (1974) in the Lloyd (1989) / PNA (1989) form,
 # g = 9.81, mean |a|, omega_e in rad/s, 2 h.
 MSI_ROWS = [
     (1.4911, 1.0, 50.08), (0.5, 1.0, 11.816), (1.0, 1.0, 33.299), (0.5, 0.6, 7.082),
@@ -45,8 +49,8 @@ def test_msi_against_published_formula_with_scipy_normal_cdf():
 
 
 def test_msi_time_dependent_model():
-    # McCauley et al. (1976) as recalled in methods.md s.5.1 [C, coefficients from memory]:
-    # 0.5 m/s^2 at 1 rad/s for 120 min gives 10.8 % (vs 11.8 % for the 1974 form, [D] there).
+    # McCauley et al. (1976) time-dependent model [C, coefficients from memory]:
+    # 0.5 m/s^2 at 1 rad/s for 120 min gives 10.8 % ([D], vs 11.8 % for the 1974 form).
     assert float(msi_percent(0.5, 1.0, exposure_h=2.0 + 1e-12)) == pytest.approx(10.8, abs=0.06)
     # MSI grows with exposure (common practice, no source).
     v = [float(msi_percent(1.0, 1.0, exposure_h=t)) for t in (0.5, 1.0, 4.0)]
@@ -59,19 +63,19 @@ def test_msi_time_dependent_model():
     (0.8, 0.0530), (1.0, 0.0235),
 ])
 def test_wf_weighting_at_nominal_band_frequencies(f, expected):
-    # methods.md s.5.2 [D] table of |Wf| from the ISO 2631-1:1997 Annex A filter at the nominal
+    # [D] |Wf| from the ISO 2631-1:1997 Annex A filter (parameters recalled [C]) at the nominal
     # frequencies; the recalled ISO table values 0.16 Hz 1.006, 0.2 Hz 0.992, 0.5 Hz 0.224 agree [C].
     assert float(iso2631_wf_weighting(f)) == pytest.approx(expected, abs=5.1e-5)
 
 
 def test_wf_sinusoid_weighted_rms():
-    # methods.md s.5.2 [D]: a 0.2 Hz sinusoid of amplitude 1 m/s^2 -> a_w,rms = 0.70146 m/s^2.
+    # [D] ISO 2631-1 Wf: a 0.2 Hz sinusoid of amplitude 1 m/s^2 -> a_w,rms = 0.70146 m/s^2.
     assert float(iso2631_wf_weighting(0.2)) / math.sqrt(2) == pytest.approx(0.70146, abs=5e-6)
     assert float(iso2631_wf_weighting(0.0)) == 0.0
 
 
 def test_msdv_sqrt_time_and_values():
-    # ISO 2631-1:1997 Annex D MSDV = a_w sqrt(T), Km = 1/3; methods.md s.5.2 [D]:
+    # ISO 2631-1:1997 Annex D MSDV = a_w sqrt(T), Km = 1/3; worked values [D]:
     # 0.5 m/s^2 for 2 h -> 42.426 -> 14.14 %; 0.3 for 1 h -> 18.000 -> 6.00 %; 1.0 for 0.5 h -> 42.426.
     assert float(msdv_m_s15(0.5, 7200)) == pytest.approx(42.426, abs=5e-4)
     assert float(vomiting_share_pct(msdv_m_s15(0.5, 7200))) == pytest.approx(14.14, abs=5e-3)

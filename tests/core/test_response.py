@@ -1,5 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""Spectral response in the encounter domain (integration over absolute frequency)."""
+"""Spectral response in the encounter domain (integration over absolute frequency).
+
+Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
+[D] computed from the named published formula by an independent implementation outside this
+project (the source itself does not print the number)."""
 from __future__ import annotations
 
 import math
@@ -16,10 +20,11 @@ from seaway_comfort.processing.core.validation import SeawayInputError
 from seaway_comfort.processing.core.vessel import Station, builtin_profile
 
 G = 9.81
-# methods.md s.4.6 [D]: vessel A (L 12, B0 4, T 1, Cb 0.45), long-crested JONSWAP Hs 1.5, Tp 6,
+# [D] values (independent implementations of JMO 2004 + DNV-RP-C205 JONSWAP + the encounter-domain
+# integral of PNA 1989 vol. III ch. 8): vessel A (L 12, B0 4, T 1, Cb 0.45), long-crested JONSWAP Hs 1.5, Tp 6,
 # gamma 3.3 (DNV A_gamma normalisation), U 4 m/s, trapezoid on omega in [0.1, 6.0] with 59 001
 # points, g 9.81; accelerations at x = 0 and x = 4.8 m with the quadrature rule; MSI with
-# mean|a| = sqrt(2/pi) sigma_a (Lloyd 1989 form). Reproduced there by a second implementation.
+# mean|a| = sqrt(2/pi) sigma_a (Lloyd 1989 form).
 _OM = np.linspace(0.1, 6.0, 59001)
 GRID = FrequencyGrid(_OM, trapezoid_weights(_OM))
 STATIONS = [Station("mid", 0.0), Station("fwd", 4.8)]
@@ -50,7 +55,7 @@ ROWS_K = [  # recommended kappa = exp(-kT)
 
 
 def _half_unit(v: float) -> float:
-    """Half a unit of the last printed digit of a table value (methods.md default tolerance)."""
+    """Half a unit of the last printed digit of a check value (the values are printed rounded)."""
     s = f"{v}"
     dec = len(s.split(".")[1]) if "." in s else 0
     return 0.5 * 10 ** (-dec) + 1e-12
@@ -81,7 +86,7 @@ def test_integrated_responses_methods_4_6(kappa, row):
     ("k", 135, 0.9139, 77.55, 25.8), ("k", 90, 0.5778, 49.03, 16.3),
 ])
 def test_wf_weighted_acceleration_and_dose(kappa, mu, aw, msdv, vomit):
-    # methods.md s.4.6 [D]: ISO 2631-1 Wf at |omega_e|/2pi inside the integral; MSDV(2 h) and
+    # [D] same case: ISO 2631-1 Wf at |omega_e|/2pi inside the integral; MSDV(2 h) and
     # Km = 1/3 (ISO 2631-1:1997 Annex D).
     r = _run(_vessel_a(kappa), mu)
     a = r.vacc_wf_rms_m_s2[0, 0]
@@ -92,7 +97,7 @@ def test_wf_weighted_acceleration_and_dose(kappa, mu, aw, msdv, vomit):
 
 
 def test_simple_roll_irregular():
-    # methods.md s.4.6 [D]: simple roll model (r = 1), vessel A at zero speed in beam seas,
+    # [D] simple roll model (Lloyd 1989, r = 1), vessel A at zero speed in beam seas,
     # same spectrum: roll sigma = 10.15 deg.
     r = _run(_vessel_a("k", "none"), 90, speed=0.0)
     assert r.roll_rms_deg[0] == pytest.approx(10.15, abs=0.005)
@@ -102,7 +107,7 @@ def test_simple_roll_irregular():
 
 @pytest.mark.parametrize("mu, m2e", [(180.0, 0.78806), (90.0, 0.25335), (0.0, 0.08189)])
 def test_wave_encounter_moments_methods_3_3(mu, m2e):
-    # methods.md s.3.3 [D]: wave elevation (H = 1), JONSWAP Hs 2, Tp 8, gamma 3.3, U 5 m/s, deep
+    # [D] encounter moments (PNA 1989 vol. III ch. 8; DNV-RP-C205 JONSWAP): wave elevation (H = 1), Hs 2, Tp 8, gamma 3.3, U 5 m/s, deep
     # water, trapezoid on [0.05, 8.0] rad/s with 400 001 points, g 9.80665: m0 0.25058 and m2e.
     om = np.linspace(0.05, 8.0, 400001)
     fg = FrequencyGrid(om, trapezoid_weights(om))

@@ -1,5 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""IMO MSC.1/Circ.1228 guidance flags."""
+"""IMO MSC.1/Circ.1228 guidance flags.
+
+Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
+[D] computed from the named published formula by an independent implementation outside this
+project (the source itself does not print the number)."""
 from __future__ import annotations
 
 import math
@@ -20,7 +24,7 @@ from seaway_comfort.processing.core.validation import SeawayInputError
 
 
 def test_surf_riding_limits():
-    # methods.md s.6 [D] from Circ.1228 4.2.1 V = 1.8 sqrt(L)/cos(180 - alpha) (1.8 from memory):
+    # IMO MSC.1/Circ.1228 4.2.1 V = 1.8 sqrt(L)/cos(180 - alpha) (1.8 from memory [C]); values [D]:
     # L 12: 6.235 kn at 180, 7.200 at 150, 8.818 at 135; L 100: 18.00 kn at 180.
     np.testing.assert_allclose(surf_riding_speed_limit_kn(12.0, [180.0, 150.0, 210.0]), [6.235, 7.200, 7.200], atol=5e-4)
     assert float(surf_riding_speed_limit_kn(100.0, 180.0)) == pytest.approx(18.0, abs=5e-3)
@@ -32,7 +36,7 @@ def test_surf_riding_limits():
 
 
 def test_high_wave_attack_thresholds():
-    # Circ.1228 4.2.2.1 [A]: lambda > 0.8 L and Hs > 0.04 L; L 12 -> 9.6 m and 0.48 m (methods.md s.6 [D]).
+    # Circ.1228 4.2.2.1 [A]: lambda > 0.8 L and Hs > 0.04 L; L 12 -> 9.6 m and 0.48 m ([D]).
     m = high_wave_attack_mask([9.61, 9.59, 9.61], [0.49, 0.49, 0.47], 12.0)
     np.testing.assert_array_equal(m, [True, False, False])
 
@@ -65,7 +69,7 @@ def test_combined_flags():
 
 
 def test_deep_water_wavelength_boundary():
-    # Circ.1228 deep-water lambda = 1.56 T^2 ([C]); L 12 -> TW > 2.48 s (methods.md s.6 [D]).
+    # Circ.1228 deep-water lambda = 1.56 T^2 ([C], = g/2pi Airy); L 12 -> TW > 2.48 s ([D]).
     t_edge = math.sqrt(9.6 * 2 * math.pi / 9.80665)
     f = circ1228_flags(12.0, 4.0, [0.0, 0.0], [0.0, 0.0], [1.0, 1.0], [t_edge * 0.999, t_edge * 1.001], [90.0, 90.0])
     np.testing.assert_array_equal(f.high_wave_groups, [False, True])

@@ -1,5 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""Closed-form heave/pitch (Jensen, Mansour & Olsen 2004), slope-driven roll, IMO roll period."""
+"""Closed-form heave/pitch (Jensen, Mansour & Olsen 2004), slope-driven roll, IMO roll period.
+
+Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
+[D] computed from the named published formula by an independent implementation outside this
+project (the source itself does not print the number)."""
 from __future__ import annotations
 
 import numpy as np
@@ -15,14 +19,15 @@ from seaway_comfort.processing.core.transfer import (
 )
 from seaway_comfort.processing.core.validation import SeawayInputError
 
-G = 9.81  # methods.md s.4.5 values were computed with g = 9.81
+G = 9.81  # the [D] check values below were computed with g = 9.81
 W = np.array([0.5, 1.0, 1.5, 2.0, 2.5, 3.0])
 K = W**2 / G
 A = dict(length_m=12.0, beam_m=4.0, draught_m=1.0, block_coeff=0.45)   # vessel A
 B = dict(length_m=82.8, beam_m=19.2, draught_m=6.0, block_coeff=0.65)  # vessel B
 
-# Check values: methods.md s.4.5 [D], the JMO 2004 formulas (Ocean Eng. 31(1) 61-85) evaluated
-# with B = Cb*B0, g = 9.81; reproduced there by an independent second implementation.
+# Check values [D]: the Jensen, Mansour & Olsen (2004) formulas (Ocean Eng. 31(1) 61-85) evaluated
+# with B = Cb*B0, g = 9.81 by two independent implementations outside this project (values not
+# printed in the paper; vessel A: L 12, B0 4, T 1, Cb 0.45; vessel B: L 82.8, B0 19.2, T 6, Cb 0.65).
 TABLE = [
     # vessel, U, mu, kappa, quantity, values
     (A, 4.0, 180, "k", "heave", [1.0209, 1.2062, 1.2747, 0.0613, 0.0075, 0.0005]),
@@ -51,7 +56,7 @@ def test_jmo_table_values(hull, u, mu, kappa, qty, expected):
 
 
 def test_encounter_frequency_rows():
-    # methods.md s.4.5 [D]: omega_e = omega - k U cos mu for vessel A, U = 4 m/s.
+    # [D] encounter frequency omega_e = omega - k U cos mu (PNA 1989 vol. III ch. 8), vessel A, U = 4 m/s.
     r = jmo_heave_pitch(W, K, 180, 4.0, **A)
     np.testing.assert_allclose(r.omega_e_rad_s, [0.6019, 1.4077, 2.4174, 3.6310, 5.0484, 6.6697], atol=5e-5)
     r0 = jmo_heave_pitch(W, K, 0, 4.0, **A)
@@ -59,14 +64,14 @@ def test_encounter_frequency_rows():
 
 
 def test_long_wave_limit():
-    # methods.md s.4.5 limit test [D]: L 100, B0 20, T 5, Cb 1, U 0, mu 180, omega 0.05
+    # JMO (2004) long-wave limit, [D] values: L 100, B0 20, T 5, Cb 1, U 0, mu 180, omega 0.05
     # -> heave 0.99998, pitch/k 0.99999 (heave RAO -> 1, pitch RAO -> wave slope k).
     k = 0.05**2 / G
     r = jmo_heave_pitch(0.05, k, 180, 0.0, 100.0, 20.0, 5.0, 1.0)
     assert float(r.heave_m_per_m) == pytest.approx(0.99998, abs=1e-5)
     assert float(r.pitch_rad_per_m) / k == pytest.approx(0.99999, abs=1e-5)
     # common practice, no source: heave -> 1 at every heading with kappa = exp(-kT)
-    # (methods.md s.4.1 long-wave expansion: 1 + O(k^2)).
+    # (long-wave expansion of the JMO formulas: 1 + O(k^2), derived, no source).
     for mu in (0, 45, 90, 135, 180):
         h = jmo_heave_pitch(0.02, 0.02**2 / G, mu, 0.0, 40.0, 10.0, 2.5, 0.6).heave_m_per_m
         assert abs(float(h) - 1.0) < 1e-3
@@ -89,7 +94,7 @@ def test_zero_speed_head_following_symmetry():
 
 
 def test_alpha_zero_guard_is_finite_and_has_its_limit():
-    # methods.md s.4.1 [D]: alpha = 0 at omega = g/(U cos mu) = 2.4525 rad/s for U 4, mu 0;
+    # JMO (2004) with alpha = 0 at omega = g/(U cos mu) = 2.4525 rad/s for U 4, mu 0 (derived [D]);
     # limit eta -> 1, f -> |1 - kT|, so heave = exp(-kT)|1-kT| sinc(sigma).
     w = G / 4.0
     k = w**2 / G
@@ -105,7 +110,7 @@ def test_beam_sea_pitch_is_zero_and_finite():
 
 
 def test_imo_roll_period_table():
-    # methods.md s.4.4 [D] with the IMO 2008 IS Code formula T = 2CB/sqrt(GM).
+    # IMO 2008 IS Code (MSC.267(85)) T = 2CB/sqrt(GM); worked values [D] by an independent implementation.
     rows = [(20, 8, 150, 1.5, 11.9535), (4, 1.0, 12, 0.8, 4.1129), (3.5, 0.6, 10, 1.2, 3.2134),
             (19.2, 6, 82.8, 1.0, 15.7822)]
     for b, d, lwl, gm, t in rows:
@@ -115,7 +120,7 @@ def test_imo_roll_period_table():
 
 
 def test_simple_roll_model_values():
-    # methods.md s.4.5 [D] (Lloyd 1989 / Bhattacharyya 1978 1-DOF roll, r = 1): vessel A,
+    # [D] values of the 1-DOF slope-driven roll model (Lloyd 1989; Bhattacharyya 1978), r = 1: vessel A,
     # T_roll 4.1129 s, zeta 0.1, mu 90, U 0: omega 1.0 -> 9.9614, 1.5277 -> 68.1533, 2.0 -> 30.7218 deg/m.
     w = np.array([1.0, 2 * np.pi / 4.1129, 2.0])
     r = roll_transfer_rad_per_m(w**2 / G, 90, w, 4.1129, 0.1, 4.0, 1.0, slope_reduction="none")

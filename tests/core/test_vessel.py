@@ -1,5 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""Vessel profiles: validation, JSON round trip, built-in examples."""
+"""Vessel profiles: validation, JSON round trip, built-in examples.
+
+Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
+[D] computed from the named published formula by an independent implementation outside this
+project (the source itself does not print the number)."""
 from __future__ import annotations
 
 import json
@@ -55,7 +59,7 @@ def test_round_trip_dict_and_file(tmp_path):
 
 def test_roll_period_defaults_to_imo_estimate():
     # IMO 2008 IS Code (MSC.267(85)) T = 2CB/sqrt(GM); worked value B 4, d 1, L 12, GM 0.8
-    # -> 4.1129 s (methods.md s.4.4 table, [D] with the code's formula).
+    # -> 4.1129 s ([D]: the Code's formula evaluated by an independent implementation).
     p = profile_from_dict(_d())
     assert p.natural_roll_period_s == pytest.approx(4.1129, abs=5e-5)
     assert profile_from_dict(_d(roll_period_s=5.0)).natural_roll_period_s == 5.0
