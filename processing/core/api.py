@@ -142,7 +142,8 @@ def _table_set(profile: VesselProfile, station: Station, transfer: Any, speeds: 
                depths: Optional[FloatArray], gamma: float, spread: float, long_crested: bool, n_freq: int,
                n_dir: int) -> ResponseTableSet:
     """Cached table set for ONE station (the one assessed)."""
-    key = (profile, station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
+    rao = profile.rao_table_path()
+    key = (profile, None if rao is None else str(rao), station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
            gamma, spread, long_crested, n_freq, n_dir)
     hit = _TABLE_CACHE.get(key)
     if hit is not None:
