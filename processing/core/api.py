@@ -143,7 +143,13 @@ def _table_set(profile: VesselProfile, station: Station, transfer: Any, speeds: 
                n_dir: int) -> ResponseTableSet:
     """Cached table set for ONE station (the one assessed)."""
     rao = profile.rao_table_path()
-    key = (profile, None if rao is None else str(rao), station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
+    rao_key = None
+    if rao is not None:
+        try:
+            rao_key = (str(rao), rao.stat().st_mtime_ns)  # an edited table is re-read
+        except OSError:
+            rao_key = (str(rao), None)
+    key = (profile, rao_key, station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
            gamma, spread, long_crested, n_freq, n_dir)
     hit = _TABLE_CACHE.get(key)
     if hit is not None:
