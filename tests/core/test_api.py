@@ -130,3 +130,27 @@ def test_table_method_reports_the_selected_station(station):
     np.testing.assert_allclose(b.lacc_rms_m_s2, a.lacc_rms_m_s2, rtol=0.01)
     first = assess_motions(BOAT, method="exact", **{**kw, "station": None})
     assert not np.allclose(first.vacc_rms_m_s2, a.vacc_rms_m_s2, rtol=0.05)
+
+
+def test_profile_with_rao_table_uses_it(tmp_path):
+    # A unit heave RAO (heave = wave elevation) must give heave sigma = Hs/4, since
+    # Hm0 = 4 sqrt(m0) (DNV-RP-C205 s.3.5.5) and the spectrum is normalised on the grid.
+    import json
+
+    lines = ["omega_rad_s,heading_deg,heave_m_per_m,pitch_deg_per_m,roll_deg_per_m"]
+    for w in (0.05, 1.0, 30.0):
+        for h in (0.0, 90.0, 180.0):
+            lines.append(f"{w},{h},1.0,0.0,0.0")
+    (tmp_path / "unit.csv").write_text("\n".join(lines) + "\n")
+    d = {"format": "seaway-comfort-vessel", "format_version": 1, "name": "unit", "length_wl_m": 20.0,
+         "beam_m": 6.0, "draught_m": 1.5, "block_coeff": 0.5, "gm_m": 1.0, "rao_table": "unit.csv",
+         "stations": [{"name": "s", "x_m": 0.0}]}
+    (tmp_path / "unit.json").write_text(json.dumps(d))
+    from seaway_comfort.processing.core.vessel import load_vessel_profile
+
+    prof = load_vessel_profile(tmp_path / "unit.json")
+    for method in ("exact", "table"):
+        r = assess_motions(prof, hs_m=[1.0, 2.0], tp_s=8.0, wave_from_deg=30.0, course_deg=0.0, speed_m_s=3.0,
+                           method=method)
+        np.testing.assert_allclose(r.heave_rms_m, [0.25, 0.5], rtol=1e-3 if method == "table" else 1e-12)
+        assert np.all(r.roll_rms_deg == 0.0) and np.all(r.pitch_rms_deg == 0.0)
