@@ -53,8 +53,8 @@ BLUR_LON = 0.01
 BLUR_H = STEP_MIN / 60.0
 
 
-def _write(path, storm_h):
-    times = T0 + np.arange(int(HORIZON_H * 60 / STEP_MIN) + 1) * np.timedelta64(STEP_MIN, "m")
+def _write(path, storm_h, horizon_h=HORIZON_H):
+    times = T0 + np.arange(int(horizon_h * 60 / STEP_MIN) + 1) * np.timedelta64(STEP_MIN, "m")
     th = np.arange(times.size) * STEP_MIN / 60.0
     in_t = (th >= storm_h[0] - 1e-9) & (th <= storm_h[1] + 1e-9)
     in_x = (LON >= STORM_LON[0] - 1e-9) & (LON <= STORM_LON[1] + 1e-9)
@@ -154,7 +154,9 @@ def test_storm_is_avoided_hours_above_by_hand(sources, profile):
             assert row.hours_above > 0 and not row.within_limits, d
             # the worst sample sits in the full storm: MSI of the storm sea (exact path)
             assert row.worst_msi_pct == pytest.approx(msi_storm, abs=MSI_TOL_PCT), d
-            assert STORM_LON[0] * 60.0 - 1.0 <= row.worst_msi_dist_nm <= STORM_LON[1] * 60.2 + 1.0
+            # ... and inside the storm's longitudes: 1 deg on the equator = 2 pi a / 360 / 1852
+            # = 60.11 NM (WGS84 a = 6378137 m), +-1 NM for the sample spacing
+            assert STORM_LON[0] * 60.11 - 1.0 <= row.worst_msi_dist_nm <= STORM_LON[1] * 60.11 + 1.0
         elif m is False:
             seen_clear += 1
             assert row.hours_above == 0.0 and row.within_limits, d
@@ -396,3 +398,21 @@ def test_route_outside_every_grid_is_an_error(sources, profile):
     with pytest.raises(SeawayInputError, match="outside the grid"):
         sweep.sweep_departures([10.0, 11.0], [0.0, 0.0], depart_from_utc=_dep(3.0), depart_to_utc=_dep(4.0),
                                step_h=1.0, sea_states=[sources[0]], profile=profile, speeds_kn=[SPEED_KN])
+
+
+def test_partly_overlapping_sources_mark_the_robust_rows(sources, profile, tmp_path):
+    """A second source that ends at 20 h: its rows and the robust rows of passages arriving after
+    20.5 h (end + the sampler's 0.5 h tolerance) are marked, model A's own rows are not."""
+    short = open_sea_state(_write(str(tmp_path / "short.nc"), STORM_A_H, horizon_h=20.0), source_name="short")
+    try:
+        res = _run([sources[0], short], profile, 11.0, 16.0, criterion="worst_msi")
+    finally:
+        short.close()
+    duration = _hours_to(1.2)
+    for r in res.rows:
+        d = _hours(r.depart_utc)
+        horizon = HORIZON_H if r.source == "model A" else 20.0
+        assert r.in_forecast == (d + duration <= horizon + 0.5), (r.source, d)
+    robust_in = [r.in_forecast for r in res.robust_rows()]
+    assert robust_in == [d + duration <= 20.5 for d in np.arange(11.0, 16.5, 1.0)]
+    assert res.recommendation.in_forecast
