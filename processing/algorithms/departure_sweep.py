@@ -270,7 +270,7 @@ class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
         from .. import adapters, styling
         from ..core.passage import PassageCancelled, compute_passage
         from ..core.report import ReportInputs
-        from ..core.sweep import CRITERIA, parse_speeds_kn, single_station_profile, sweep_departures
+        from ..core.sweep import CRITERIA, parse_speeds_kn, sweep_departures
         from ..core.sweep_report import build_sweep_report, sweep_text_summary, write_sweep_html
         from .route_comfort import flag_warning_lines, open_depth, open_sources
 
@@ -351,8 +351,7 @@ class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
                             raise PassageCancelled("cancelled")
                         res = compute_passage(
                             leg.lon_deg, leg.lat_deg, departure_utc=rec.depart_utc, speed_kn=rec.speed_kn,
-                            sea_states=[src], profile=single_station_profile(settings.profile, settings.station),
-                            station=settings.station, depth=depth,
+                            sea_states=[src], profile=settings.profile, station=settings.station, depth=depth,
                             spacing_nm=settings.spacing_nm, gamma=settings.gamma, spread_s=settings.spread_s,
                             long_crested=settings.long_crested, method=method, leg=len(points_results),
                         )

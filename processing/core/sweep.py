@@ -82,7 +82,6 @@ __all__ = [
     "MAX_SAMPLES_PER_CALL",
     "departure_times",
     "parse_speeds_kn",
-    "single_station_profile",
     "SweepRow",
     "Recommendation",
     "SweepResult",
@@ -182,25 +181,6 @@ def parse_speeds_kn(text: object, default_kn: float) -> Tuple[float, ...]:
         if float(v) not in out:
             out.append(float(v))
     return tuple(out)
-
-
-def single_station_profile(profile: object, station: Optional[str]) -> object:
-    """The vessel profile reduced to the one station assessed (None = the profile's first).
-
-    The response tables of :mod:`.api` are built for every station of the profile and their
-    look-up returns the profile's FIRST station (seen with api.py of this checkout: a later
-    station on the table path gave the first station's accelerations, 17-53 % off the exact
-    path); with one station the tables hold only what is needed (half the look-up work for a
-    four-station profile) and the chosen station is the one returned. Unknown station names
-    raise :class:`SeawayInputError` listing the known ones.
-    """
-    stations = getattr(profile, "stations", None)
-    if not stations or not hasattr(profile, "station"):
-        return profile
-    st = profile.station(station)
-    if len(stations) == 1:
-        return profile
-    return replace(profile, stations=(st,))
 
 
 # ---------------------------------------------------------------------------------------------
@@ -689,7 +669,6 @@ def sweep_departures(
             f"covered by every source ({desc}): choose departures inside the forecast"
         )
 
-    profile = single_station_profile(profile, station)
     outer = _Span(progress, 0.0, 1.0)
     outer.check(0.0)
     n_s, n_k, n_d = len(speeds), len(sea_states), deps.size

@@ -15,9 +15,8 @@ Figures printed:
    240 departures x 2 sources (stated in the output):
    (a) the per-departure route path as routecomfort calls it, ``compute_passage`` with the api's
        automatic method choice (exact spectral integration below 2,000 samples);
-   (b) ``compute_passage`` forced to ``method="table"`` (tables warm) on the same one-station
-       profile the sweep assesses (``single_station_profile``), i.e. the same response path as the
-       sweep but one pipeline run per departure: what the stacking alone gains.
+   (b) ``compute_passage`` forced to ``method="table"`` (tables warm), i.e. the same response
+       path as the sweep but one pipeline run per departure: what the stacking alone gains.
    The ratio baseline / sweep (warm) is printed for both.
 """
 from __future__ import annotations
@@ -84,7 +83,7 @@ def main() -> None:
     from seaway_comfort.processing.core import api as _api
     from seaway_comfort.processing.core.passage import compute_passage
     from seaway_comfort.processing.core.seastate import open_sea_state
-    from seaway_comfort.processing.core.sweep import single_station_profile, sweep_departures
+    from seaway_comfort.processing.core.sweep import sweep_departures
     from seaway_comfort.processing.core.vessel import resolve_vessel
 
     folder = tempfile.mkdtemp(prefix="seaway_bench_sweep_")
@@ -121,12 +120,12 @@ def main() -> None:
         deps = res.departures_utc
         base_kw = dict(speed_kn=SPEED_KN, spacing_nm=spacing)
 
-        def per_departure(idx: np.ndarray, method: object, prof: object = profile) -> float:
+        def per_departure(idx: np.ndarray, method: object) -> float:
             t0 = time.perf_counter()
             for d in idx:
                 for src in sources:
                     compute_passage(ROUTE_LON, ROUTE_LAT, departure_utc=deps[d], sea_states=[src],
-                                    method=method, profile=prof, **base_kw)
+                                    method=method, profile=profile, **base_kw)
             return time.perf_counter() - t0
 
         full_runs = N_DEPARTURES * len(sources)
@@ -139,9 +138,8 @@ def main() -> None:
               f"{t_auto_full:.1f} s; ratio baseline / sweep(warm) = {t_auto_full / t_warm:.1f}")
         n_tab = 12 if args.quick else 48
         idx = np.linspace(0, N_DEPARTURES - 1, n_tab).round().astype(int)
-        one = single_station_profile(profile, None)
-        per_departure(idx[:1], "table", one)  # tables for this configuration built once, outside the timing
-        t_tab = per_departure(idx, "table", one)
+        per_departure(idx[:1], "table")  # tables for this configuration built once, outside the timing
+        t_tab = per_departure(idx, "table")
         t_tab_full = t_tab / (n_tab * len(sources)) * full_runs
         print(f"  baseline (b) compute_passage, method='table' (tables warm): {t_tab:.2f} s for "
               f"{n_tab * len(sources)} runs -> extrapolated to {full_runs} runs: {t_tab_full:.1f} s; "

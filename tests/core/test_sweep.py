@@ -368,7 +368,8 @@ def test_rows_and_speeds(sources, profile):
 def test_chosen_station_not_the_first(sources, profile):
     """A station other than the profile's first: the worst MSI of a departure that meets the
     storm equals the exact spectral path at THAT station (api.assess_motions method="exact",
-    station given) within the table tolerance, and differs from the first station's value."""
+    station given) within the table tolerance, and differs from the first station's value.
+    (This caught the table path assessing the first station; fixed in api.py since.)"""
     other = profile.stations[-1].name
     assert other != profile.stations[0].name
     res = _run(sources[:1], profile, 7.0, 7.0, station=other, criterion="worst_msi")
