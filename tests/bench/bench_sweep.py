@@ -111,6 +111,9 @@ def main() -> None:
         total = res.n_departures * n * len(sources)
         print(f"Departure sweep: {res.n_departures} departures x {n} route samples x {len(sources)} sources "
               f"= {total:,} passage samples ({dist_nm:.1f} NM at {SPEED_KN:g} kn, {res.duration_h[0]:.1f} h)")
+        load = os.getloadavg()[0] if hasattr(os, "getloadavg") else float("nan")
+        print(f"  machine: {os.cpu_count()} cores, 1-min load average {load:.2f} (other work on the machine "
+              "slows every figure)")
         print(f"  synthetic forecasts written first, not timed:            {t_write:.2f} s")
         print(f"  sweep_departures, cold (response tables built inside):   {t_cold:.3f} s")
         print(f"  sweep_departures, warm (tables built; best of {1 if args.quick else 3}):       {t_warm:.3f} s"
