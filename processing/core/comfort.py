@@ -193,13 +193,17 @@ COMFORT_CLASS_DESCRIPTIONS: Tuple[str, ...] = (
     "Little motion: work and rest as in harbour.",
     "Noticeable motion: most people unaffected; fine work needs care.",
     "Clear motion: some people feel unwell; hold on when moving about.",
-    "Strong motion: many feel unwell; work is hard and slow.",
-    "Severe motion: a seakeeping criterion at the station is reached or most people are sick.",
+    "Strong motion: a seakeeping criterion for the station's task is exceeded or many feel unwell; work is hard and slow.",
+    "Severe motion: half as much again as a criterion limit, or one in five sick within 2 h.",
 )
 MSI_CLASS_BOUNDS_PCT: Tuple[float, ...] = (2.0, 5.0, 10.0, 20.0)
 """MSI (2 h) at which the classes steady, lively, taxing, punishing begin [%] (our own choice)."""
-USAGE_CLASS_BOUNDS: Tuple[float, ...] = (0.35, 0.6, 0.85, 1.0)
-"""Fraction of the governing criterion limit at which those classes begin (our own choice)."""
+USAGE_CLASS_BOUNDS: Tuple[float, ...] = (0.5, 0.75, 1.0, 1.5)
+"""Fraction of the governing criterion limit at which those classes begin (our own choice).
+
+Exceeding a limit for the station's task (usage >= 1) makes a sample at least "taxing";
+"punishing" is kept for motions 1.5 times a limit or more, so that one marginal criterion
+does not rate a passage as severe as one where most people are sick."""
 
 
 def comfort_class(msi_pct: ArrayLike, criteria_usage: ArrayLike) -> NDArray[np.int64]:

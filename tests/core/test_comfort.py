@@ -99,8 +99,11 @@ def test_comfort_classes():
     # Our own classes (comfort.py docstring); the ints and labels are the public interface.
     assert COMFORT_CLASS_LABELS == ("smooth", "steady", "lively", "taxing", "punishing")
     assert len(COMFORT_CLASS_DESCRIPTIONS) == 5
-    c = comfort_class([0.0, 3.0, 6.0, 15.0, 25.0, 0.0, 0.0], [0.0, 0.0, 0.0, 0.0, 0.0, 0.7, 1.2])
-    np.testing.assert_array_equal(c, [0, 1, 2, 3, 4, 2, 4])
+    c = comfort_class([0.0, 3.0, 6.0, 15.0, 25.0, 0.0, 0.0, 0.0, 0.0, 0.0],
+                      [0.0, 0.0, 0.0, 0.0, 0.0, 0.6, 0.8, 1.0, 1.2, 1.5])
+    np.testing.assert_array_equal(c, [0, 1, 2, 3, 4, 1, 2, 3, 3, 4])
+    # the worse of the two scales governs
+    np.testing.assert_array_equal(comfort_class([25.0, 3.0], [0.1, 1.6]), [4, 4])
     assert c.dtype == np.int64
 
 
