@@ -410,9 +410,12 @@ def point_weights(grid: object, lon_deg: Sequence[float], lat_deg: Sequence[floa
 
 class _Reader:
     """Keeps up to ``max_open`` GDAL datasets open (least recently used closed first) and
-    remembers each dataset's scale/offset/no-data."""
+    remembers each dataset's scale/offset/no-data. Chunks run through the files in time order,
+    so a few open datasets (one file's three variables and the next) are enough; the limit
+    keeps memory independent of the number of years (each open NetCDF file has its own
+    chunk cache)."""
 
-    def __init__(self, max_open: int = 32) -> None:
+    def __init__(self, max_open: int = 6) -> None:
         self._ds: Dict[str, object] = {}
         self._meta: Dict[str, Tuple[Optional[float], float, float]] = {}
         self._max = int(max_open)
@@ -457,6 +460,9 @@ class _Reader:
             raise SeawayInputError(f"GDAL could not read hindcast file {name!r}: {exc}") from None
         if raw is None:
             raise SeawayInputError(f"GDAL could not read bands {bands[0]}..{bands[-1]} of hindcast file {name!r}")
+        # every block is read once: drop it from GDAL's block cache so that memory stays bounded
+        # whatever the number of years (the cache would otherwise fill up to GDAL_CACHEMAX)
+        ds.FlushCache()  # type: ignore[attr-defined]
         raw = np.asarray(raw).reshape(len(bands), pw.nrows, pw.ncols)
         nd, sc, of = self._meta[name]
         arr = raw.astype(np.float64)
