@@ -7,7 +7,14 @@ from __future__ import annotations
 
 from typing import Tuple
 
+from .departure_sweep import DepartureSweepAlgorithm
 from .describe_sea_state import DescribeSeaStateAlgorithm
 from .route_comfort import RouteComfortAlgorithm
+from .seasonal_climate import SeasonalClimateAlgorithm
 
-ALGORITHM_CLASSES: Tuple[type, ...] = (RouteComfortAlgorithm, DescribeSeaStateAlgorithm)
+ALGORITHM_CLASSES: Tuple[type, ...] = (
+    RouteComfortAlgorithm,
+    DepartureSweepAlgorithm,
+    SeasonalClimateAlgorithm,
+    DescribeSeaStateAlgorithm,
+)
