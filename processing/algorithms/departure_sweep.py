@@ -22,7 +22,6 @@ from qgis.core import (
     QgsField,
     QgsFields,
     QgsProcessing,
-    QgsProcessingAlgorithm,
     QgsProcessingContext,
     QgsProcessingException,
     QgsProcessingFeedback,
@@ -37,8 +36,9 @@ from qgis.core import (
     QgsVectorLayer,
     QgsWkbTypes,
 )
-from qgis.PyQt.QtCore import QCoreApplication, QVariant
+from qgis.PyQt.QtCore import QVariant
 
+from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
 from ..core.validation import SeawayInputError
 from . import common
@@ -139,23 +139,14 @@ def _row_attributes(row: Any) -> List[Any]:
     return out
 
 
-class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
+class DepartureSweepAlgorithm(SeawayAlgorithm):
     """Sweep departure times (and speeds) over every forecast source; rank and recommend."""
-
-    def tr(self, text: str) -> str:
-        return QCoreApplication.translate("DepartureSweepAlgorithm", text)
 
     def name(self) -> str:
         return "departuresweep"
 
     def displayName(self) -> str:  # noqa: N802
         return self.tr("When to leave: departure sweep")
-
-    def group(self) -> str:
-        return self.tr("Passage planning")
-
-    def groupId(self) -> str:  # noqa: N802
-        return "passage"
 
     def shortHelpString(self) -> str:  # noqa: N802
         return self.tr(
@@ -181,9 +172,6 @@ class DepartureSweepAlgorithm(QgsProcessingAlgorithm):
             "in_forecast = false.</p>"
             f"<p><b>Caution</b>: {CAUTION}</p>"
         )
-
-    def createInstance(self) -> "DepartureSweepAlgorithm":  # noqa: N802
-        return DepartureSweepAlgorithm()
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
         from ..core.sweep import CRITERION_LABELS, CRITERIA

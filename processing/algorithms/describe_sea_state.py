@@ -7,7 +7,6 @@ import os
 from typing import Any, Dict, Optional
 
 from qgis.core import (
-    QgsProcessingAlgorithm,
     QgsProcessingContext,
     QgsProcessingException,
     QgsProcessingFeedback,
@@ -15,8 +14,8 @@ from qgis.core import (
     QgsProcessingParameterFile,
     QgsProcessingParameterFileDestination,
 )
-from qgis.PyQt.QtCore import QCoreApplication
 
+from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
 from ..core.validation import SeawayInputError
 from . import common
@@ -49,23 +48,14 @@ def summary_lines(inv: Any) -> str:
     )
 
 
-class DescribeSeaStateAlgorithm(QgsProcessingAlgorithm):
+class DescribeSeaStateAlgorithm(SeawayAlgorithm):
     """Lists the sea-state variables a file holds and how they were recognised."""
-
-    def tr(self, text: str) -> str:
-        return QCoreApplication.translate("DescribeSeaStateAlgorithm", text)
 
     def name(self) -> str:
         return "describeseastate"
 
     def displayName(self) -> str:  # noqa: N802
         return self.tr("Describe a sea-state file")
-
-    def group(self) -> str:
-        return self.tr("Passage planning")
-
-    def groupId(self) -> str:  # noqa: N802
-        return "passage"
 
     def shortHelpString(self) -> str:  # noqa: N802
         return self.tr(
@@ -78,9 +68,6 @@ class DescribeSeaStateAlgorithm(QgsProcessingAlgorithm):
             "DESCRIPTION output and, if asked, to an HTML or text file.</p>"
             f"<p><b>Caution</b>: {CAUTION}</p>"
         )
-
-    def createInstance(self) -> "DescribeSeaStateAlgorithm":  # noqa: N802
-        return DescribeSeaStateAlgorithm()
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
         self.addParameter(QgsProcessingParameterFile(

@@ -8,7 +8,6 @@ from qgis.core import (
     QgsCoordinateReferenceSystem,
     QgsFeatureSink,
     QgsProcessing,
-    QgsProcessingAlgorithm,
     QgsProcessingContext,
     QgsProcessingException,
     QgsProcessingFeedback,
@@ -18,8 +17,8 @@ from qgis.core import (
     QgsProcessingParameterFileDestination,
     QgsWkbTypes,
 )
-from qgis.PyQt.QtCore import QCoreApplication
 
+from .base import SeawayAlgorithm
 from ..core.flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
 from ..core.validation import SeawayInputError
 from . import common
@@ -87,23 +86,14 @@ def flag_warning_lines(counts: Dict[str, int], n_total: int) -> List[str]:
     ]
 
 
-class RouteComfortAlgorithm(QgsProcessingAlgorithm):
+class RouteComfortAlgorithm(SeawayAlgorithm):
     """Motions, comfort indices and guidance flags at every sample along a route."""
-
-    def tr(self, text: str) -> str:
-        return QCoreApplication.translate("RouteComfortAlgorithm", text)
 
     def name(self) -> str:
         return "routecomfort"
 
     def displayName(self) -> str:  # noqa: N802
         return self.tr("Passage comfort along a route")
-
-    def group(self) -> str:
-        return self.tr("Passage planning")
-
-    def groupId(self) -> str:  # noqa: N802
-        return "passage"
 
     def shortHelpString(self) -> str:  # noqa: N802
         return self.tr(
@@ -131,9 +121,6 @@ class RouteComfortAlgorithm(QgsProcessingAlgorithm):
             "could be computed. An optional HTML report summarises each leg.</p>"
             f"<p><b>Caution</b>: {CAUTION}</p>"
         )
-
-    def createInstance(self) -> "RouteComfortAlgorithm":  # noqa: N802
-        return RouteComfortAlgorithm()
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
         for p in common.passage_parameters():
