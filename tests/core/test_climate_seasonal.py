@@ -33,7 +33,8 @@ import pytest
 from geographiclib.geodesic import Geodesic
 
 from seaway_comfort.processing.core import climate as C
-from seaway_comfort.processing.core.climate.engine import prepare_climate, transfer_for_profile
+from seaway_comfort.processing.core.api import assess_motions, transfer_model
+from seaway_comfort.processing.core.climate.engine import classify_sea, prepare_climate
 from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, seasonal_hs_m, write_seasonal_hindcast
 from seaway_comfort.processing.core.comfort import comfort_class, mean_abs_from_rms, msi_percent
 from seaway_comfort.processing.core.criteria import evaluate_criteria
@@ -56,7 +57,7 @@ MONTH_START_DAY = np.cumsum([0, 31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31])
 @pytest.fixture(scope="module")
 def table():
     prof = resolve_vessel(VESSEL)
-    return build_response_table(transfer_for_profile(prof), [prof.station(STATION)], SPEED_KN * KNOT_M_S)
+    return build_response_table(transfer_model(prof), [prof.station(STATION)], SPEED_KN * KNOT_M_S)
 
 
 def _class_and_usage(table, hs):
@@ -231,3 +232,25 @@ def test_setup_uses_one_table_and_nearest_step_offsets(case):
     # nearest hindcast step at each sample: round(elapsed / 3 h), elapsed = distance / speed
     np.testing.assert_array_equal(s.offset_steps, np.rint(s.dist_m / (SPEED_KN * KNOT_M_S) / 10800.0))
     assert s.passage_steps == int(round(s.dist_m[-1] / (SPEED_KN * KNOT_M_S) / 10800.0))
+
+
+def test_classes_equal_the_one_call_facade(case):
+    # reference: api.assess_motions (method "table"), the project's one-call path, whose
+    # formulas are checked against published values in its own tests; same sea states, same
+    # vessel, speed and station -> the same comfort class and criteria exceedance
+    rng = np.random.default_rng(7)
+    n = 400
+    hs = rng.uniform(0.1, 4.0, n)
+    tp = rng.uniform(3.0, 14.0, n)
+    wd = rng.uniform(0.0, 360.0, n)
+    s = prepare_climate(ROUTE_LON, ROUTE_LAT, case["series"], VESSEL, speed_kn=SPEED_KN, station=STATION)
+    def rep(v):  # the same sea state at every route sample (the check uses sample 0)
+        return np.repeat(v[:, None], s.n, axis=1)
+
+    got = classify_sea(s, rep(hs), rep(tp), rep(wd))
+    ref = assess_motions(resolve_vessel(VESSEL), hs_m=hs, tp_s=tp, wave_from_deg=wd,
+                         course_deg=float(s.course_deg[0]), speed_m_s=SPEED_KN * KNOT_M_S, station=STATION,
+                         method="table")
+    np.testing.assert_array_equal(got.comfort_class[:, 0], ref.comfort_class)
+    np.testing.assert_array_equal(got.exceeded[:, 0], (ref.flags & 0x8000) != 0)  # CRITERIA_EXCEEDED bit
+    assert len(set(ref.comfort_class.tolist())) >= 3  # the comparison covers several classes

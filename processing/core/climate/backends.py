@@ -167,6 +167,7 @@ class DaskBackend:
         return Client(cluster), cluster
 
     def map(self, tasks: Sequence[ChunkTask], progress: Optional[Progress] = None) -> List[ChunkResult]:
+        self.notes.clear()  # notes of this run only
         try:
             client, cluster = self._client()
         except SeawayInputError as exc:

@@ -49,7 +49,6 @@ __all__ = [
     "ClimateSetup",
     "StepClasses",
     "prepare_climate",
-    "transfer_for_profile",
     "classify_sea",
     "classify_steps",
 ]
@@ -126,19 +125,6 @@ class StepClasses:
     implausible: NDArray[np.bool_]
 
 
-def transfer_for_profile(profile: Any) -> Any:
-    """The vessel's transfer model: its RAO table when the profile names one, else the
-    closed-form model (:class:`..transfer.ClosedFormTransfer`)."""
-    path = profile.rao_table_path()
-    if path is not None:
-        from ..rao_table import TableTransfer, load_rao_table
-
-        return TableTransfer(load_rao_table(path))
-    from ..transfer import ClosedFormTransfer
-
-    return ClosedFormTransfer.from_profile(profile)
-
-
 def prepare_climate(
     route_lon_deg: ArrayLike,
     route_lat_deg: ArrayLike,
@@ -160,6 +146,7 @@ def prepare_climate(
     ``max_class`` worst acceptable comfort class 0..4; ``spacing_nm`` sample spacing [NM];
     ``gamma`` JONSWAP peak enhancement (>= 1), ``spread_s`` cos-2s spreading exponent.
     """
+    from ..api import transfer_model
     from ..route import densify_route, elapsed_time_s
     from ..tables import build_response_table
     from ..units import m_s_from_kn
@@ -187,7 +174,7 @@ def prepare_climate(
         )
     pw = point_weights(series.grid, rs.lon_deg, rs.lat_deg)
     if table is None:
-        table = build_response_table(transfer_for_profile(prof), [st], float(m_s_from_kn(speed)),
+        table = build_response_table(transfer_model(prof), [st], float(m_s_from_kn(speed)),
                                      gamma=g, spread_s=s, long_crested=bool(long_crested))
     if st.name not in table.station_names:
         raise SeawayInputError(f"the response table has no station {st.name!r} (has: {', '.join(table.station_names)})")
