@@ -22,7 +22,6 @@ from qgis.core import (
     QgsLineSymbol,
     QgsPointXY,
     QgsProcessing,
-    QgsProcessingAlgorithm,
     QgsProcessingContext,
     QgsProcessingException,
     QgsProcessingFeedback,
@@ -40,12 +39,13 @@ from qgis.core import (
     QgsVectorLayer,
     QgsWkbTypes,
 )
-from qgis.PyQt.QtCore import QCoreApplication, QVariant
+from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
 from ..core.flags import CAUTION
 from ..core.validation import SeawayInputError
 from . import common
+from .base import SeawayAlgorithm
 
 HINDCAST = "HINDCAST"
 MONTHS = "MONTHS"
@@ -125,23 +125,14 @@ def segment_fields() -> QgsFields:
     return fields
 
 
-class SeasonalClimateAlgorithm(QgsProcessingAlgorithm):
+class SeasonalClimateAlgorithm(SeawayAlgorithm):
     """Per-month share of comfortable time, weather windows and waiting times along a route."""
-
-    def tr(self, text: str) -> str:
-        return QCoreApplication.translate("SeasonalClimateAlgorithm", text)
 
     def name(self) -> str:
         return "seasonalclimate"
 
     def displayName(self) -> str:  # noqa: N802
         return self.tr("Seasonal comfort climate along a route")
-
-    def group(self) -> str:
-        return self.tr("Passage planning")
-
-    def groupId(self) -> str:  # noqa: N802
-        return "passage"
 
     def shortHelpString(self) -> str:  # noqa: N802
         return self.tr(
@@ -166,9 +157,6 @@ class SeasonalClimateAlgorithm(QgsProcessingAlgorithm):
             "HTML report.</p>"
             f"<p><b>Caution</b>: {CAUTION}</p>"
         )
-
-    def createInstance(self) -> "SeasonalClimateAlgorithm":  # noqa: N802
-        return SeasonalClimateAlgorithm()
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
         from ..core.vessel import builtin_profile_names
