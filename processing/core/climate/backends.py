@@ -7,8 +7,10 @@ integers, so all backends give identical results.
 
 * :class:`SerialBackend` - one chunk after another in this process.
 * :class:`LocalPoolBackend` - :class:`concurrent.futures.ProcessPoolExecutor` with ``workers``
-  processes ("spawn" start method: no state of a host application such as QGIS is forked into
-  the workers; the interpreter is the Python executable found by :func:`python_executable`).
+  processes: "spawn" start method with this Python (:func:`python_executable`) when running as
+  a plain Python; "fork" when Python is embedded (QGIS, qgis_process) on Linux/macOS, because a
+  freshly started interpreter may pick up another installation's standard library there (seen
+  with qgis_process and a pyenv Python on PATH). Workers never touch Qt.
 * :class:`DaskBackend` - ``dask.distributed``: a user-supplied scheduler address
   (``tcp://host:8786``) or, when none is given, a :class:`distributed.LocalCluster` of
   ``workers`` processes (or threads with ``processes=False``). Dask is imported only here and
@@ -24,7 +26,6 @@ Progress: ``progress(fraction) -> bool`` after each finished chunk; False cancel
 from __future__ import annotations
 
 import os
-import shutil
 import sys
 from dataclasses import dataclass, field
 from typing import Callable, List, Optional, Sequence
@@ -56,25 +57,45 @@ def dask_available() -> bool:
     return True
 
 
-def python_executable() -> str:
-    """A Python interpreter for worker processes.
-
-    ``sys.executable`` unless it is not a Python (inside QGIS it may be the QGIS binary); then
-    ``<exec_prefix>/bin/python3.X`` or ``python3`` on PATH.
-    """
+def own_interpreter() -> bool:
+    """True when ``sys.executable`` is a Python of THIS installation (its real path lies under
+    ``sys.base_prefix``; a venv's python links there). False when Python is embedded (QGIS,
+    qgis_process), where ``sys.executable`` may be the application or another Python found on
+    PATH (seen: qgis_process reporting a pyenv python3, whose workers then failed to import
+    numpy)."""
     exe = sys.executable or ""
-    base = os.path.basename(exe).lower()
-    if base.startswith("python"):
+    if not os.path.basename(exe).lower().startswith("python") or not os.path.isfile(exe):
+        return False
+    real = os.path.realpath(exe)
+    base = os.path.realpath(sys.base_prefix)
+    return real.startswith(base.rstrip(os.sep) + os.sep)
+
+
+def python_executable() -> str:
+    """A Python interpreter for worker processes: the one this process runs on.
+
+    ``sys.executable`` when it is a Python of this installation (:func:`own_interpreter`); inside an application that embeds Python (QGIS,
+    qgis_process) it is the application, so the interpreter of the SAME installation is taken
+    from the compiled-in ``sysconfig`` BINDIR (e.g. /usr/bin/python3.11 for the libpython QGIS
+    links), then ``<exec_prefix>/bin``. A same-named Python elsewhere on PATH (pyenv, conda)
+    would have another standard library and is never used.
+    """
+    import sysconfig
+
+    exe = sys.executable or ""
+    if own_interpreter():
         return exe
     ver = f"python{sys.version_info.major}.{sys.version_info.minor}"
-    for cand in (os.path.join(sys.exec_prefix, "bin", ver), os.path.join(sys.exec_prefix, "python.exe"),
-                 os.path.join(sys.exec_prefix, "bin", "python3")):
-        if os.path.isfile(cand):
+    bindir = sysconfig.get_config_var("BINDIR") or ""
+    for cand in (os.path.join(bindir, ver), os.path.join(bindir, "python3"),
+                 os.path.join(sys.base_exec_prefix, "bin", ver), os.path.join(sys.exec_prefix, "bin", ver),
+                 os.path.join(sys.exec_prefix, "python.exe")):
+        if cand and os.path.isfile(cand):
             return cand
-    found = shutil.which(ver) or shutil.which("python3")
-    if not found:
-        raise SeawayInputError("no Python interpreter found for worker processes; use workers=1")
-    return found
+    raise SeawayInputError(
+        f"no Python interpreter of this installation found for worker processes (looked in {bindir!r} "
+        f"and {sys.exec_prefix!r}); use WORKERS=1 / --workers 1"
+    )
 
 
 @dataclass(frozen=True)
@@ -113,8 +134,18 @@ class LocalPoolBackend:
         import multiprocessing as mp
         from concurrent.futures import ProcessPoolExecutor, as_completed
 
-        ctx = mp.get_context("spawn")
-        ctx.set_executable(python_executable())
+        if not own_interpreter() and os.name == "posix":
+            # inside QGIS / qgis_process: a fresh interpreter could pick up another Python's
+            # standard library from the host's paths; fork the worker from this process instead
+            # (the workers run numpy/GDAL only and open their own files, never Qt)
+            ctx = mp.get_context("fork")
+            try:  # helper processes (resource tracker) are still started from an executable
+                ctx.set_executable(python_executable())
+            except SeawayInputError:
+                pass
+        else:
+            ctx = mp.get_context("spawn")
+            ctx.set_executable(python_executable())
         results: List[Optional[ChunkResult]] = [None] * len(tasks)
         with ProcessPoolExecutor(max_workers=min(self.workers, len(tasks)), mp_context=ctx) as ex:
             futs = {ex.submit(run_chunk, t): k for k, t in enumerate(tasks)}
