@@ -59,11 +59,16 @@ USER_VESSEL_SUBDIR = ("seaway_comfort", "vessels")
 
 
 class Tr:
-    """Translation context for the shared parameter texts."""
+    """Translation of the shared parameter texts.
+
+    pylupdate5 files a ``tr("...")`` call made outside a class under the context
+    ``@default``, so the texts are looked up there (QTranslator finds ``@default`` messages
+    by that literal context name; checked with lrelease/QTranslator of Qt 5.15).
+    """
 
     @staticmethod
     def tr(text: str) -> str:
-        return QCoreApplication.translate("Tr", text)
+        return QCoreApplication.translate("@default", text)
 
 
 def _advanced(p: QgsProcessingParameterDefinition) -> QgsProcessingParameterDefinition:
