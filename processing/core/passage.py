@@ -278,12 +278,14 @@ class SeaAtSamples:
     notes: Tuple[str, ...]
 
 
-def _time_range(src: object) -> Tuple[np.datetime64, np.datetime64]:
+def source_time_range(src: object) -> Tuple[np.datetime64, np.datetime64]:
+    """(first, last) valid time of a sea-state source, as datetime64[ms] UTC."""
     t0, t1 = getattr(src, "time_range_utc")
     return (np.datetime64(t0, "ms"), np.datetime64(t1, "ms"))
 
 
-def _source_name(src: object, index: int) -> str:
+def source_display_name(src: object, index: int) -> str:
+    """The user-facing name of a source, or "source N" (1-based) when it has none."""
     name = getattr(src, "name", None)
     return str(name) if name else f"source {index + 1}"
 
@@ -303,10 +305,10 @@ def check_departure_in_forecast(
     tol = np.timedelta64(int(round(float(time_tolerance_s) * 1000.0)), "ms")
     ranges = []
     for i, src in enumerate(sea_states):
-        t0, t1 = _time_range(src)
+        t0, t1 = source_time_range(src)
         if t0 - tol <= dep <= t1 + tol:
             return
-        ranges.append(f"{_source_name(src, i)}: {t0.astype('datetime64[m]')} to {t1.astype('datetime64[m]')} UTC")
+        ranges.append(f"{source_display_name(src, i)}: {t0.astype('datetime64[m]')} to {t1.astype('datetime64[m]')} UTC")
     raise SeawayInputError(
         f"departure_utc {dep.astype('datetime64[m]')} UTC lies outside the time range of every "
         f"sea-state source ({'; '.join(ranges)}): choose a departure inside the forecast"
@@ -378,7 +380,7 @@ def sample_sea(
         except SeawayInputError as exc:
             # this source covers none of the remaining samples; a later one may
             errors.append(exc)
-            notes.append(f"{_source_name(src, i)}: {exc}")
+            notes.append(f"{source_display_name(src, i)}: {exc}")
             continue
         if sub.cancelled:
             raise PassageCancelled("passage computation cancelled while sampling the sea state")
@@ -393,7 +395,7 @@ def sample_sea(
         wdir[use] = np.asarray(got.wave_from_deg, dtype=float)[ok]
         flags[use] = gflags[ok]
         valid[use] = True
-        name = str(getattr(got, "source_name", "") or _source_name(src, i))
+        name = str(getattr(got, "source_name", "") or source_display_name(src, i))
         source[use] = name
         for note in getattr(got, "notes", ()) or ():
             notes.append(f"{name}: {note}")

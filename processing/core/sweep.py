@@ -69,6 +69,8 @@ from .passage import (
     plan_passage,
     respond,
     sample_sea,
+    source_display_name,
+    source_time_range,
 )
 from .units import SECONDS_PER_HOUR, FloatArray, nm_from_m
 from .validation import SeawayInputError, as_float_array, require_nonnegative
@@ -361,16 +363,6 @@ def _msdv_at_arrival(aw: FloatArray, elapsed_s: FloatArray) -> FloatArray:
     return np.where(any_ok, np.sqrt(dose2), np.nan)
 
 
-def _time_range(src: object) -> Tuple[np.datetime64, np.datetime64]:
-    t0, t1 = getattr(src, "time_range_utc")
-    return (np.datetime64(t0, "ms"), np.datetime64(t1, "ms"))
-
-
-def _name(src: object, i: int) -> str:
-    n = getattr(src, "name", None)
-    return str(n) if n else f"source {i + 1}"
-
-
 def _fmt_t(t: np.datetime64) -> str:
     if np.isnat(t):
         return "n/a"
@@ -423,7 +415,7 @@ def _run_source(plan: PassagePlan, deps: NDArray[np.datetime64], src: object, *,
     elapsed_s = plan.elapsed_s
     offsets = (deps - deps[0]).astype("timedelta64[ms]")
     per_chunk = max(1, MAX_SAMPLES_PER_CALL // max(n, 1))
-    t0, t1 = _time_range(src)
+    t0, t1 = source_time_range(src)
     tol = np.timedelta64(int(round(time_tolerance_s * 1000.0)), "ms")
     dwell_h = _dwell_h(elapsed_s)
     station_name, method_used = station or "", method
@@ -645,14 +637,14 @@ def sweep_departures(
     deps = departure_times(depart_from_utc, depart_to_utc, step_h)
     if not sea_states:
         raise SeawayInputError("sea_states must hold at least one sea-state source, got none")
-    names = tuple(_name(s, i) for i, s in enumerate(sea_states))
+    names = tuple(source_display_name(s, i) for i, s in enumerate(sea_states))
     if len(set(names)) != len(names):
         raise SeawayInputError(
             f"sea-state sources need distinct names to be compared, got {', '.join(names)}: give each source "
             "its own name")
     if ROBUST_SOURCE in names:
         raise SeawayInputError(f"a source may not be called {ROBUST_SOURCE!r} (that name marks the robust rows)")
-    ranges = tuple(_time_range(s) for s in sea_states)
+    ranges = tuple(source_time_range(s) for s in sea_states)
     tol_s = float(require_nonnegative("time_tolerance_s", time_tolerance_s))
     tol = np.timedelta64(int(round(tol_s * 1000.0)), "ms")
     lo = max(r[0] for r in ranges)
