@@ -195,6 +195,21 @@ def _station_names(profile: Any) -> List[str]:
     return [str(getattr(s, "name", s)) for s in getattr(profile, "stations", ())]
 
 
+def default_source_names(paths: Sequence[str]) -> Tuple[str, ...]:
+    """One distinct name per forecast file: the file stem, with the extension (and then a
+    number) added where stems coincide, e.g. ``forecast (nc)`` and ``forecast (grib2)``."""
+    stems = [Path(p).stem for p in paths]
+    names = [
+        f"{stem} ({Path(p).suffix.lstrip('.') or 'file'})" if stems.count(stem) > 1 else stem
+        for stem, p in zip(stems, paths)
+    ]
+    first = list(names)
+    return tuple(
+        f"{name} #{first[:i + 1].count(name)}" if first.count(name) > 1 else name
+        for i, name in enumerate(first)
+    )
+
+
 def parse_passage_settings(
     alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
 ) -> PassageSettings:
@@ -214,6 +229,8 @@ def parse_passage_settings(
             f"SOURCE_NAMES has {len(names)} names ({raw_names!r}) but SEA_STATE has {len(paths)} "
             "files: give one name per file, comma-separated, or leave it empty"
         )
+    if not names:
+        names = default_source_names(paths)
     mode = SOURCE_MODES[alg.parameterAsEnum(parameters, SOURCE_MODE, context)]
     depth_layer = alg.parameterAsRasterLayer(parameters, DEPTH, context)
     depth_path = None

@@ -390,3 +390,15 @@ def test_datetime_and_path_helpers():
     assert styling.qml_path_for("ogr:dbname='/d/out.gpkg' table=\"legs\" (geom)") == "/d/out_legs.qml"
     assert file_part("/d/route.shp|layerid=0") == "/d/route.shp"
     assert file_part("ogr:dbname='/d/out.gpkg' table=\"legs\" (geom)") == "/d/out.gpkg"
+
+
+def test_default_source_names_are_distinct():
+    """Two files with the same stem get distinct default names (our own rule: stem, then the
+    extension, then a number), so sources can always be compared."""
+    from seaway_comfort.processing.algorithms.common import default_source_names
+
+    assert default_source_names(["/a/f.nc", "/b/g.grib2"]) == ("f", "g")
+    assert default_source_names(["/a/f.nc", "/a/f.grib2"]) == ("f (nc)", "f (grib2)")
+    names = default_source_names(["/a/f.nc", "/b/f.nc", "/c/f.grib2"])
+    assert names == ("f (nc) #1", "f (nc) #2", "f (grib2)")
+    assert len(set(names)) == 3
