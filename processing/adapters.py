@@ -25,6 +25,7 @@ from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime, QVariant
 
 from .core.flags import flag_codes_array
 from .core.passage import NOT_COMPUTED_CLASS, PassageResult
+from .core.validation import show
 
 WGS84 = "EPSG:4326"
 
@@ -52,7 +53,7 @@ def datetime64_from_qdatetime(q: QDateTime, *, assume_utc: bool = True) -> np.da
     wall-clock time when ``assume_utc`` (the parameter says UTC), else converted from local time.
     """
     if q is None or not q.isValid():
-        raise QgsProcessingException(f"invalid date-time {q!r}")
+        raise QgsProcessingException(f"invalid date-time {show(q)}")
     if q.timeSpec() == Qt.TimeSpec.LocalTime and assume_utc:
         q = QDateTime(q.date(), q.time(), Qt.TimeSpec.UTC)
     return np.datetime64(int(q.toMSecsSinceEpoch()), "ms")
@@ -141,11 +142,11 @@ def route_legs(
         label = str(feat[i_name]) if i_name >= 0 and feat[i_name] not in (None, "") and not (
             isinstance(feat[i_name], QVariant) and feat[i_name].isNull()) else f"route {fid}"
         if geom is None or geom.isEmpty():
-            raise QgsProcessingException(f"ROUTE: feature {label!r} has no geometry: delete it or draw its line")
+            raise QgsProcessingException(f"ROUTE: feature {show(label)} has no geometry: delete it or draw its line")
         if QgsWkbTypes.geometryType(geom.wkbType()) != QgsWkbTypes.GeometryType.LineGeometry:
-            raise QgsProcessingException(f"ROUTE: feature {label!r} is not a line")
+            raise QgsProcessingException(f"ROUTE: feature {show(label)} is not a line")
         parts = geom.asMultiPolyline() if geom.isMultipart() else [geom.asPolyline()]
-        dep = datetime64_from_value(feat[i_dep], what=f"{depart_field} of {label!r}") if i_dep >= 0 else None
+        dep = datetime64_from_value(feat[i_dep], what=f"{depart_field} of {show(label)}") if i_dep >= 0 else None
         speed = None
         if i_speed >= 0:
             raw = feat[i_speed]
@@ -154,39 +155,39 @@ def route_legs(
                     speed = float(raw)
                 except (TypeError, ValueError):
                     raise QgsProcessingException(
-                        f"ROUTE: field {speed_field} of {label!r} must be a number of knots, got {raw!r}"
+                        f"ROUTE: field {speed_field} of {show(label)} must be a number of knots, got {show(raw)}"
                     ) from None
                 if not (math.isfinite(speed) and speed > 0):
                     raise QgsProcessingException(
-                        f"ROUTE: field {speed_field} of {label!r} must be > 0 kn, got {raw!r}"
+                        f"ROUTE: field {speed_field} of {show(label)} must be > 0 kn, got {show(raw)}"
                     )
         for k, pts in enumerate(parts):
             xs = [p.x() for p in pts]
             ys = [p.y() for p in pts]
             if len(xs) < 2:
-                raise QgsProcessingException(f"ROUTE: part {k + 1} of {label!r} has fewer than 2 vertices")
+                raise QgsProcessingException(f"ROUTE: part {k + 1} of {show(label)} has fewer than 2 vertices")
             if crs.isGeographic() and not _looks_like_degrees(xs, ys):
                 raise QgsProcessingException(
-                    f"ROUTE: {label!r} has coordinates like ({xs[0]:.1f}, {ys[0]:.1f}) that are not degrees, but "
+                    f"ROUTE: {show(label)} has coordinates like ({xs[0]:.1f}, {ys[0]:.1f}) that are not degrees, but "
                     f"the layer CRS {crs.authid()} is geographic: set the layer's true (projected) CRS"
                 )
             try:
                 out = [xform.transform(QgsPointXY(x, y)) for x, y in zip(xs, ys)]
             except QgsCsException as exc:
                 raise QgsProcessingException(
-                    f"ROUTE: {label!r} cannot be transformed from {crs.authid()} to WGS84 ({exc}): check the layer CRS"
+                    f"ROUTE: {show(label)} cannot be transformed from {crs.authid()} to WGS84 ({exc}): check the layer CRS"
                 ) from exc
             lon = np.array([p.x() for p in out], dtype=float)
             lat = np.array([p.y() for p in out], dtype=float)
             if not (np.isfinite(lon).all() and np.isfinite(lat).all()) or np.any(np.abs(lat) > 90):
                 raise QgsProcessingException(
-                    f"ROUTE: {label!r} falls outside the valid area of CRS {crs.authid()}: check the layer CRS"
+                    f"ROUTE: {show(label)} falls outside the valid area of CRS {crs.authid()}: check the layer CRS"
                 )
             if not crs.isGeographic() and _looks_like_degrees(xs, ys):
                 span = max(max(xs) - min(xs), max(ys) - min(ys))
                 if span < 400.0:
                     raise QgsProcessingException(
-                        f"ROUTE: {label!r} spans only {span:.1f} map units in the projected CRS {crs.authid()}, "
+                        f"ROUTE: {show(label)} spans only {span:.1f} map units in the projected CRS {crs.authid()}, "
                         "and its coordinates look like degrees: set the layer CRS to EPSG:4326"
                     )
             name = label if len(parts) == 1 else f"{label} ({k + 1})"
@@ -196,17 +197,27 @@ def route_legs(
 
 # ------------------------------------------------------------------------------- fields
 
-_TYPES = {"int": "Int", "long": "LongLong", "double": "Double", "string": "String", "datetime": "DateTime"}
+# Field kinds by the names each Qt enum uses: QVariant.Type (QGIS < 3.38) and QMetaType.Type
+# (QGIS >= 3.38, and Qt6). The two enums spell strings and date-times differently.
+_VARIANT_TYPES = {"int": "Int", "long": "LongLong", "double": "Double", "bool": "Bool",
+                  "string": "String", "datetime": "DateTime"}
+_METATYPE_TYPES = {"int": "Int", "long": "LongLong", "double": "Double", "bool": "Bool",
+                   "string": "QString", "datetime": "QDateTime"}
+_METATYPE_FROM = 33800
+
+
+def field_type(kind: str, qgis_version: int) -> Any:
+    """The Qt type enum value QgsField takes for ``kind`` on QGIS ``qgis_version`` (e.g. 34006)."""
+    if qgis_version >= _METATYPE_FROM:
+        from qgis.PyQt.QtCore import QMetaType
+
+        return getattr(QMetaType.Type, _METATYPE_TYPES[kind])
+    return getattr(QVariant.Type, _VARIANT_TYPES[kind])
 
 
 def make_field(name: str, kind: str) -> QgsField:
-    """A QgsField of kind int/long/double/string/datetime (QMetaType where QGIS takes it)."""
-    tname = _TYPES[kind]
-    if Qgis.versionInt() >= 33800:
-        from qgis.PyQt.QtCore import QMetaType
-
-        return QgsField(name, getattr(QMetaType.Type, tname))
-    return QgsField(name, getattr(QVariant.Type, tname))
+    """A QgsField of kind int/long/double/bool/string/datetime (QMetaType where QGIS takes it)."""
+    return QgsField(name, field_type(kind, Qgis.versionInt()))
 
 
 # (name, kind, PassageResult attribute or None for special handling)

@@ -14,12 +14,10 @@ import os
 from typing import Any, Dict, List, Optional
 
 from qgis.core import (
-    Qgis,
     QgsCoordinateReferenceSystem,
     QgsFeature,
     QgsFeatureRequest,
     QgsFeatureSink,
-    QgsField,
     QgsFields,
     QgsProcessing,
     QgsProcessingContext,
@@ -40,7 +38,7 @@ from qgis.PyQt.QtCore import QVariant
 
 from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
-from ..core.validation import SeawayInputError
+from ..core.validation import SeawayInputError, show
 from . import common
 
 DEPART_FROM = "DEPART_FROM"
@@ -90,23 +88,13 @@ TABLE_FIELDS = (
 )
 
 
-def _field(name: str, kind: str) -> QgsField:
-    if kind != "bool":
-        from ..adapters import make_field
-
-        return make_field(name, kind)
-    if Qgis.versionInt() >= 33800:
-        from qgis.PyQt.QtCore import QMetaType
-
-        return QgsField(name, QMetaType.Type.Bool)
-    return QgsField(name, QVariant.Type.Bool)
-
-
 def table_fields() -> QgsFields:
     """Fields of OUTPUT_TABLE."""
+    from ..adapters import make_field
+
     fields = QgsFields()
     for name, kind, _ in TABLE_FIELDS:
-        fields.append(_field(name, kind))
+        fields.append(make_field(name, kind))
     return fields
 
 
@@ -224,7 +212,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         qdt = self.parameterAsDateTime(parameters, name, context)
         if qdt is None or not qdt.isValid():
             raise QgsProcessingException(
-                f"{name} {raw!r} is not a valid date-time: use ISO 8601, e.g. 2031-03-11T06:00:00Z (UTC)")
+                f"{name} {show(raw)} is not a valid date-time: use ISO 8601, e.g. 2031-03-11T06:00:00Z (UTC)")
         return adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
 
     def _window(self, parameters: Dict[str, Any], context: QgsProcessingContext) -> Any:
@@ -275,7 +263,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         if not ok_class:
             raise QgsProcessingException(
                 f"MAX_CLASS must be a whole number 0..4 (0 smooth, 1 steady, 2 lively, 3 taxing, 4 punishing), "
-                f"got {max_class_raw!r}")
+                f"got {show(max_class_raw)}")
 
         context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
         source = self.parameterAsSource(parameters, common.ROUTE, context)
@@ -291,7 +279,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
                 "one feature and tick 'Selected features only', or run the sweep once per line")
         leg = legs[0]
         if leg.departure_utc is not None:
-            feedback.pushInfo(f"The route field depart_utc of {leg.name!r} is not used: the sweep departs at "
+            feedback.pushInfo(f"The route field depart_utc of {show(leg.name)} is not used: the sweep departs at "
                               "every step from DEPART_FROM to DEPART_TO")
         default_speed = leg.speed_kn if leg.speed_kn is not None else settings.speed_kn
         try:
@@ -312,7 +300,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         feedback.pushInfo(
             f"Sweeping {deps.size} departures ({str(deps[0])[:16]} to {str(deps[-1])[:16]} UTC) x {len(speeds)} "
             f"speed(s) ({', '.join(f'{v:g}' for v in speeds)} kn) x {len(settings.sea_state_paths)} source(s) on "
-            f"{leg.name!r}; best = {criterion}, worst acceptable class {max_class}")
+            f"{show(leg.name)}; best = {criterion}, worst acceptable class {max_class}")
         sources = open_sources(settings, feedback)
         depth = open_depth(settings)
         method = settings.method or "table"
@@ -345,7 +333,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
                         )
                         points_results.append((f"{leg.name} [{src.name}]", res))
             except SeawayInputError as exc:
-                raise QgsProcessingException(f"{leg.name!r}: {exc}") from exc
+                raise QgsProcessingException(f"{show(leg.name)}: {exc}") from exc
         except PassageCancelled as exc:
             raise QgsProcessingException("Cancelled: no outputs were written") from exc
         finally:
@@ -360,7 +348,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         sink, table_id = self.parameterAsSink(parameters, OUTPUT_TABLE, context, fields, QgsWkbTypes.Type.NoGeometry,
                                               QgsCoordinateReferenceSystem())
         if sink is None:
-            raise QgsProcessingException(f"OUTPUT_TABLE {table_dest!r} could not be created: check the path")
+            raise QgsProcessingException(f"OUTPUT_TABLE {show(table_dest)} could not be created: check the path")
         for row in result.rows:
             f = QgsFeature(fields)
             f.setAttributes(_row_attributes(row))
@@ -386,7 +374,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             psink, points_id = self.parameterAsSink(parameters, OUTPUT_POINTS, context, pfields,
                                                     QgsWkbTypes.Type.Point, crs)
             if psink is None:
-                raise QgsProcessingException(f"OUTPUT_POINTS {points_dest!r} could not be created: check the path")
+                raise QgsProcessingException(f"OUTPUT_POINTS {show(points_dest)} could not be created: check the path")
             for name, res in points_results:
                 for f in adapters.point_features(res, pfields, name):
                     psink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
@@ -431,7 +419,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             try:
                 write_sweep_html(report_path, report)
             except OSError as exc:
-                raise QgsProcessingException(f"OUTPUT_REPORT {report_path!r} could not be written: {exc}") from exc
+                raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = report_path
         out[SUMMARY] = summary
         out[RECOMMENDED_UTC] = str(np.datetime64(rec.depart_utc, "s")) + "Z"
@@ -454,10 +442,10 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             return
         lyr = QgsVectorLayer(table_id, os.path.basename(str(table_id)), "ogr")
         if not lyr.isValid():
-            feedback.pushWarning(f"could not reopen {table_id!r} to save its metadata")
+            feedback.pushWarning(f"could not reopen {show(table_id)} to save its metadata")
             return
         styling.apply_metadata(lyr, title, abstract)
         qmd = styling.qml_path_for(table_id)[: -len(".qml")] + ".qmd"
         msg, ok = lyr.saveNamedMetadata(qmd)
         if not ok:
-            feedback.pushWarning(f"metadata not saved to {qmd!r}: {msg}")
+            feedback.pushWarning(f"metadata not saved to {show(qmd)}: {msg}")
