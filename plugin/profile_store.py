@@ -18,7 +18,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import List, Optional, Union
 
-from ..processing.core.validation import SeawayInputError
+from ..processing.core.validation import SeawayInputError, show
 from ..processing.core.vessel import (
     VesselProfile,
     load_vessel_profile,
@@ -79,12 +79,12 @@ def profile_file_name(name: str) -> str:
     outside the store folder.
     """
     if not isinstance(name, str):
-        raise SeawayInputError(f"vessel profile name must be a string, got {name!r}")
+        raise SeawayInputError(f"vessel profile name must be a string, got {show(name)}")
     stem = _UNSAFE.sub("_", name.strip()).strip("._-")
     stem = re.sub(r"_+", "_", stem)[:MAX_STEM_CHARS].rstrip("._-")
     if not stem:
         raise SeawayInputError(
-            f"vessel profile name {name!r} has no letters or digits to build a file name from"
+            f"vessel profile name {show(name)} has no letters or digits to build a file name from"
         )
     return f"{stem}.json"
 
@@ -136,7 +136,7 @@ class ProfileStore:
         path = self.path_for(name)
         if not path.is_file():
             raise SeawayInputError(
-                f"no stored vessel profile named {name!r} (looked for {str(path)!r})"
+                f"no stored vessel profile named {show(name)} (looked for {show(str(path))})"
             )
         return load_vessel_profile(path)
 
@@ -148,16 +148,16 @@ class ProfileStore:
         folder, so the table is still found from the store.
         """
         if not isinstance(profile, VesselProfile):
-            raise SeawayInputError(f"profile must be a VesselProfile, got {profile!r}")
+            raise SeawayInputError(f"profile must be a VesselProfile, got {show(profile)}")
         path = self.path_for(profile.name)
         if path.exists() and not overwrite:
             try:
                 existing: Optional[str] = load_vessel_profile(path).name
             except SeawayInputError:
                 existing = None
-            shown = f" (holding profile {existing!r})" if existing is not None else ""
+            shown = f" (holding profile {show(existing)})" if existing is not None else ""
             raise ProfileExistsError(
-                f"vessel profile {profile.name!r}: file {str(path)!r}{shown} exists already; "
+                f"vessel profile {show(profile.name)}: file {show(str(path))}{shown} exists already; "
                 "confirm to replace it",
                 path,
                 existing,
@@ -179,7 +179,7 @@ class ProfileStore:
         path = self.path_for(name)
         if not path.is_file():
             raise SeawayInputError(
-                f"no stored vessel profile named {name!r} to delete (looked for {str(path)!r})"
+                f"no stored vessel profile named {show(name)} to delete (looked for {show(str(path))})"
             )
         path.unlink()
         return path
@@ -189,10 +189,10 @@ class ProfileStore:
         target = Path(path)
         if target.parent.resolve() != self._folder.resolve() or target.suffix != ".json":
             raise SeawayInputError(
-                f"path {str(target)!r} is not a profile file of the store {str(self._folder)!r}"
+                f"path {show(str(target))} is not a profile file of the store {show(str(self._folder))}"
             )
         if not target.is_file():
-            raise SeawayInputError(f"no vessel profile file {str(target)!r} to delete")
+            raise SeawayInputError(f"no vessel profile file {show(str(target))} to delete")
         target.unlink()
         return target
 

@@ -27,6 +27,7 @@ from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
 from .core.report import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .core.validation import show
 
 CLASS_FIELD = "comfort_class"
 TIME_FIELD = "eta_utc"
@@ -124,21 +125,21 @@ def save_output_style(dest: str, *, title: str, abstract: str) -> Tuple[str, Lis
     warnings: List[str] = []
     layer = QgsVectorLayer(dest, os.path.basename(str(dest)), "ogr")
     if not layer.isValid():
-        return "", [f"could not reopen {dest!r} to save its style"]
+        return "", [f"could not reopen {show(dest)} to save its style"]
     apply_comfort_style(layer, title=title, abstract=abstract)
     qml = qml_path_for(dest)
     msg, ok = layer.saveNamedStyle(qml)
     if not ok:
-        warnings.append(f"style not saved to {qml!r}: {msg}")
+        warnings.append(f"style not saved to {show(qml)}: {msg}")
     qmd = qml[: -len(".qml")] + ".qmd"
     msg, ok = layer.saveNamedMetadata(qmd)
     if not ok:
-        warnings.append(f"metadata not saved to {qmd!r}: {msg}")
+        warnings.append(f"metadata not saved to {show(qmd)}: {msg}")
     path, _ = _file_and_layer(dest)
     if path.lower().endswith(".gpkg"):
         err = layer.saveStyleToDatabase("default", "Seaway Comfort: comfort classes", True, "")
         if err:
-            warnings.append(f"default style not stored in {path!r}: {err}")
+            warnings.append(f"default style not stored in {show(path)}: {err}")
     return qml, warnings
 
 

@@ -30,7 +30,7 @@ from qgis.core import (
 )
 from qgis.PyQt.QtCore import QCoreApplication, QDateTime
 
-from ..core.validation import SeawayInputError
+from ..core.validation import SeawayInputError, show
 
 ROUTE = "ROUTE"
 SEA_STATE = "SEA_STATE"
@@ -186,9 +186,9 @@ def resolve_vessel_spec(spec: str) -> Any:
     except SeawayInputError as exc:
         stored = sorted(p.stem for p in user_vessel_dir().glob("*.json")) if user_vessel_dir().is_dir() else []
         extra = f"; profiles in your QGIS profile folder: {', '.join(stored)}" if stored else ""
-        raise QgsProcessingException(f"VESSEL {text!r}: {exc}{extra}") from exc
+        raise QgsProcessingException(f"VESSEL {show(text)}: {exc}{extra}") from exc
     except (OSError, ValueError, KeyError, TypeError) as exc:
-        raise QgsProcessingException(f"VESSEL {text!r} could not be read as a vessel profile: {exc}") from exc
+        raise QgsProcessingException(f"VESSEL {show(text)} could not be read as a vessel profile: {exc}") from exc
 
 
 def _station_names(profile: Any) -> List[str]:
@@ -221,12 +221,12 @@ def parse_passage_settings(
         raise QgsProcessingException("SEA_STATE: give at least one forecast file (GRIB2, NetCDF-CF or GeoTIFF)")
     for p in paths:
         if not os.path.isfile(p):
-            raise QgsProcessingException(f"SEA_STATE: file {p!r} does not exist")
+            raise QgsProcessingException(f"SEA_STATE: file {show(p)} does not exist")
     raw_names = alg.parameterAsString(parameters, SOURCE_NAMES, context) or ""
     names = tuple(n.strip() for n in raw_names.split(",") if n.strip()) if raw_names.strip() else ()
     if names and len(names) != len(paths):
         raise QgsProcessingException(
-            f"SOURCE_NAMES has {len(names)} names ({raw_names!r}) but SEA_STATE has {len(paths)} "
+            f"SOURCE_NAMES has {len(names)} names ({show(raw_names)}) but SEA_STATE has {len(paths)} "
             "files: give one name per file, comma-separated, or leave it empty"
         )
     if not names:
@@ -237,7 +237,7 @@ def parse_passage_settings(
     if depth_layer is not None:
         depth_path = depth_layer.source()
     elif parameters.get(DEPTH) not in (None, ""):
-        raise QgsProcessingException(f"DEPTH {parameters.get(DEPTH)!r} is not a readable raster")
+        raise QgsProcessingException(f"DEPTH {show(parameters.get(DEPTH))} is not a readable raster")
     departure = None
     raw_dep = parameters.get(DEPARTURE)
     if isinstance(raw_dep, QDateTime) and not raw_dep.isValid():
@@ -246,7 +246,7 @@ def parse_passage_settings(
         qdt = alg.parameterAsDateTime(parameters, DEPARTURE, context)
         if qdt is None or not qdt.isValid():
             raise QgsProcessingException(
-                f"DEPARTURE {parameters.get(DEPARTURE)!r} is not a valid date-time: use ISO 8601, "
+                f"DEPARTURE {show(parameters.get(DEPARTURE))} is not a valid date-time: use ISO 8601, "
                 "e.g. 2031-03-11T06:00:00Z (UTC)"
             )
         departure = adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
@@ -268,7 +268,7 @@ def parse_passage_settings(
     stations = _station_names(profile)
     if station is not None and station not in stations:
         raise QgsProcessingException(
-            f"STATION {station!r} is not on vessel {getattr(profile, 'name', vessel_spec)!r}: "
+            f"STATION {show(station)} is not on vessel {show(getattr(profile, 'name', vessel_spec))}: "
             f"choose one of {', '.join(stations)}"
         )
     method = METHOD_CHOICES[alg.parameterAsEnum(parameters, METHOD, context)]
@@ -316,14 +316,14 @@ def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[str]) -> 
         path = file_part(dest)
         if _norm(path) in ins:
             raise QgsProcessingException(
-                f"{name} {path!r} is also an input ({ins[_norm(path)]!r}): choose another output "
+                f"{name} {show(path)} is also an input ({show(ins[_norm(path)])}): choose another output "
                 "file; inputs are never overwritten"
             )
         folder = os.path.dirname(os.path.abspath(path)) or "."
         if not os.path.isdir(folder):
-            raise QgsProcessingException(f"{name}: folder {folder!r} does not exist: create it or choose another path")
+            raise QgsProcessingException(f"{name}: folder {show(folder)} does not exist: create it or choose another path")
         if not os.access(folder, os.W_OK) or (os.path.exists(path) and not os.access(path, os.W_OK)):
-            raise QgsProcessingException(f"{name}: {path!r} is not writable: choose another path")
+            raise QgsProcessingException(f"{name}: {show(path)} is not writable: choose another path")
 
 
 def read_route(

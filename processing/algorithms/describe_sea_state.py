@@ -17,7 +17,7 @@ from qgis.core import (
 
 from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
-from ..core.validation import SeawayInputError
+from ..core.validation import SeawayInputError, show
 from . import common
 
 INPUT = "INPUT"
@@ -86,13 +86,13 @@ class DescribeSeaStateAlgorithm(SeawayAlgorithm):
 
         path = self.parameterAsFile(parameters, INPUT, context)
         if not path or not os.path.isfile(path):
-            raise QgsProcessingException(f"INPUT {path!r} is not an existing file: choose a forecast file")
+            raise QgsProcessingException(f"INPUT {show(path)} is not an existing file: choose a forecast file")
         try:
             inv = describe_file(path)
         except SeawayInputError as exc:
-            raise QgsProcessingException(f"INPUT {path!r}: {exc}") from exc
+            raise QgsProcessingException(f"INPUT {show(path)}: {exc}") from exc
         except RuntimeError as exc:
-            raise QgsProcessingException(f"INPUT {path!r} could not be read: {exc}") from exc
+            raise QgsProcessingException(f"INPUT {show(path)} could not be read: {exc}") from exc
         text = summary_lines(inv) + inv.as_text().rstrip() + "\n"
         if CAUTION not in text:
             text += "\nCAUTION: " + CAUTION + "\n"
@@ -108,6 +108,6 @@ class DescribeSeaStateAlgorithm(SeawayAlgorithm):
                 with open(dest, "w", encoding="utf-8") as fh:
                     fh.write(body)
             except OSError as exc:
-                raise QgsProcessingException(f"OUTPUT_REPORT {dest!r} could not be written: {exc}") from exc
+                raise QgsProcessingException(f"OUTPUT_REPORT {show(dest)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = dest
         return out

@@ -20,7 +20,7 @@ from qgis.core import (
 
 from .base import SeawayAlgorithm
 from ..core.flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
-from ..core.validation import SeawayInputError
+from ..core.validation import SeawayInputError, show
 from . import common
 
 OUTPUT_POINTS = "OUTPUT_POINTS"
@@ -40,9 +40,9 @@ def open_sources(settings: common.PassageSettings, feedback: Optional[QgsProcess
         try:
             src = open_sea_state(path, source_name=name)
         except SeawayInputError as exc:
-            raise QgsProcessingException(f"SEA_STATE {path!r}: {exc}") from exc
+            raise QgsProcessingException(f"SEA_STATE {show(path)}: {exc}") from exc
         except RuntimeError as exc:  # GDAL errors
-            raise QgsProcessingException(f"SEA_STATE {path!r} could not be read: {exc}") from exc
+            raise QgsProcessingException(f"SEA_STATE {show(path)} could not be read: {exc}") from exc
         for w in getattr(src, "warnings", ()) or ():
             if feedback is not None:
                 feedback.pushWarning(f"{src.name}: {w}")
@@ -58,7 +58,7 @@ def open_depth(settings: common.PassageSettings) -> Any:
     try:
         return open_bathymetry(settings.depth_path)
     except (SeawayInputError, RuntimeError) as exc:
-        raise QgsProcessingException(f"DEPTH {settings.depth_path!r}: {exc}") from exc
+        raise QgsProcessingException(f"DEPTH {show(settings.depth_path)}: {exc}") from exc
 
 
 def provenance_text(settings: common.PassageSettings, route_source: str) -> str:
@@ -176,7 +176,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
                 departure = leg.departure_utc if leg.departure_utc is not None else settings.departure_utc
                 if departure is None:
                     raise QgsProcessingException(
-                        f"DEPARTURE: leg {leg.name!r} has no departure time: set DEPARTURE or fill the "
+                        f"DEPARTURE: leg {show(leg.name)} has no departure time: set DEPARTURE or fill the "
                         "route field depart_utc"
                     )
                 speed = leg.speed_kn if leg.speed_kn is not None else settings.speed_kn
@@ -198,7 +198,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
                             progress=progress, leg=len(results), method=settings.method,
                         )
                     except SeawayInputError as exc:
-                        raise QgsProcessingException(f"leg {leg.name!r}: {exc}") from exc
+                        raise QgsProcessingException(f"leg {show(leg.name)}: {exc}") from exc
                     results.append((label, res))
         except PassageCancelled as exc:
             raise QgsProcessingException("Cancelled: no outputs were written") from exc
@@ -212,14 +212,14 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         crs = QgsCoordinateReferenceSystem(adapters.WGS84)
         sink, points_id = self.parameterAsSink(parameters, OUTPUT_POINTS, context, fields, QgsWkbTypes.Type.Point, crs)
         if sink is None:
-            raise QgsProcessingException(f"OUTPUT_POINTS {points_dest!r} could not be created: check the path")
+            raise QgsProcessingException(f"OUTPUT_POINTS {show(points_dest)} could not be created: check the path")
         for name, res in results:
             for f in adapters.point_features(res, fields, name):
                 sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
         del sink
         sink, segs_id = self.parameterAsSink(parameters, OUTPUT_SEGMENTS, context, fields, QgsWkbTypes.Type.LineString, crs)
         if sink is None:
-            raise QgsProcessingException(f"OUTPUT_SEGMENTS {segs_dest!r} could not be created: check the path")
+            raise QgsProcessingException(f"OUTPUT_SEGMENTS {show(segs_dest)} could not be created: check the path")
         for name, res in results:
             for f in adapters.segment_features(res, fields, name):
                 sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
@@ -277,7 +277,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
             try:
                 write_html(report_path, report)
             except OSError as exc:
-                raise QgsProcessingException(f"OUTPUT_REPORT {report_path!r} could not be written: {exc}") from exc
+                raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = report_path
         feedback.setProgress(100)
         return out

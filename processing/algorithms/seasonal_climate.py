@@ -43,7 +43,7 @@ from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
 from ..core.flags import CAUTION
-from ..core.validation import SeawayInputError
+from ..core.validation import SeawayInputError, show
 from . import common
 from .base import SeawayAlgorithm
 
@@ -211,7 +211,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
             raise QgsProcessingException("HINDCAST: give at least one hindcast file (NetCDF-CF or GRIB2)")
         for p in paths:
             if not os.path.isfile(p):
-                raise QgsProcessingException(f"HINDCAST: file {p!r} does not exist")
+                raise QgsProcessingException(f"HINDCAST: file {show(p)} does not exist")
         speed = self.parameterAsDouble(parameters, common.SPEED_KN, context)
         if not speed > 0:
             raise QgsProcessingException(f"SPEED_KN must be > 0 kn, got {speed:g}")
@@ -221,7 +221,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
             if float(raw_max if raw_max not in (None, "") else 1) != max_class or not 0 <= max_class <= 4:
                 raise ValueError
         except (TypeError, ValueError):
-            raise QgsProcessingException(f"MAX_CLASS must be a whole number 0..4, got {raw_max!r}") from None
+            raise QgsProcessingException(f"MAX_CLASS must be a whole number 0..4, got {show(raw_max)}") from None
         months_text = self.parameterAsString(parameters, MONTHS, context)
         try:
             months = parse_months(months_text)
@@ -243,7 +243,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         station = (self.parameterAsString(parameters, common.STATION, context) or "").strip() or None
         if station is not None and station not in profile.station_names:
             raise QgsProcessingException(
-                f"STATION {station!r} is not on vessel {profile.name!r}: choose one of {', '.join(profile.station_names)}")
+                f"STATION {show(station)} is not on vessel {show(profile.name)}: choose one of {', '.join(profile.station_names)}")
         try:
             backend = make_backend("local", workers=workers, scheduler=scheduler, fallback_local=fallback)
         except SeawayInputError as exc:
@@ -271,7 +271,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         if not legs:
             raise QgsProcessingException("ROUTE: no line could be read from the route layer")
         if len(legs) > 1:
-            feedback.pushWarning(f"ROUTE has {len(legs)} lines; the seasonal climate uses the first one, {legs[0].name!r}")
+            feedback.pushWarning(f"ROUTE has {len(legs)} lines; the seasonal climate uses the first one, {show(legs[0].name)}")
         leg = legs[0]
         seg_dest = self.parameterAsOutputLayer(parameters, OUTPUT_SEGMENTS, context)
         csv_path = self.parameterAsFileOutput(parameters, OUTPUT_CSV, context) if parameters.get(OUTPUT_CSV) else ""
@@ -283,7 +283,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
             raise QgsProcessingException("OUTPUT_SEGMENTS, OUTPUT_CSV and OUTPUT_REPORT must be different files")
 
         where = f"Dask scheduler {s['scheduler']}" if s["scheduler"] else f"{getattr(s['backend'], 'workers', 1)} local process(es)"
-        feedback.pushInfo(f"Seasonal climate of {leg.name!r}: {len(s['paths'])} hindcast file(s), computed on {where}")
+        feedback.pushInfo(f"Seasonal climate of {show(leg.name)}: {len(s['paths'])} hindcast file(s), computed on {where}")
         feedback.setProgress(2)
 
         def progress(fraction: float) -> bool:
@@ -313,7 +313,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         crs = QgsCoordinateReferenceSystem(adapters.WGS84)
         sink, seg_id = self.parameterAsSink(parameters, OUTPUT_SEGMENTS, context, fields, QgsWkbTypes.Type.LineString, crs)
         if sink is None:
-            raise QgsProcessingException(f"OUTPUT_SEGMENTS {seg_dest!r} could not be created: check the path")
+            raise QgsProcessingException(f"OUTPUT_SEGMENTS {show(seg_dest)} could not be created: check the path")
         null = QVariant()
         month_pos = {m: k for k, m in enumerate(result.months)}
         for i in range(result.n - 1):
@@ -350,9 +350,9 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
                 qml = styling.qml_path_for(seg_id)
                 msg, ok = layer.saveNamedStyle(qml)
                 if not ok:
-                    feedback.pushWarning(f"style not saved to {qml!r}: {msg}")
+                    feedback.pushWarning(f"style not saved to {show(qml)}: {msg}")
             else:
-                feedback.pushWarning(f"could not reopen {seg_id!r} to save its style")
+                feedback.pushWarning(f"could not reopen {show(seg_id)} to save its style")
         if seg_id and context.willLoadLayerOnCompletion(seg_id):
             context.layerToLoadOnCompletionDetails(seg_id).setPostProcessor(ShareStylePostProcessor.create(title, abstract))
 

@@ -43,7 +43,7 @@ from .safety import circ1228_flags
 from .tables import ResponseTableSet, build_response_table_set
 from .transfer import ClosedFormTransfer
 from .units import G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
 from .vessel import Station, VesselProfile
 
 __all__ = ["SeaPartitions", "MotionAssessment", "assess_motions", "transfer_model", "AUTO_TABLE_MIN_SAMPLES"]
@@ -78,7 +78,7 @@ class SeaPartitions:
                 f"names {len(self.names)}"
             )
         if np.any(gam < 1.0):
-            raise SeawayInputError(f"SeaPartitions gamma must be >= 1, got {gam[gam < 1][0]!r}")
+            raise SeawayInputError(f"SeaPartitions gamma must be >= 1, got {show(gam[gam < 1][0])}")
         for k, v in (("hs_m", hs), ("tp_s", tp), ("wave_from_deg", wf), ("gamma", gam), ("spread_s", spr)):
             object.__setattr__(self, k, v)
         object.__setattr__(self, "names", tuple(str(x) for x in self.names))
@@ -278,9 +278,9 @@ def assess_motions(
     if method is None or method == "auto":
         method = "exact" if n < AUTO_TABLE_MIN_SAMPLES else "table"
     if method not in ("exact", "table"):
-        raise SeawayInputError(f"method must be 'exact', 'table' or None, got {method!r}")
+        raise SeawayInputError(f"method must be 'exact', 'table' or None, got {show(method)}")
     if np.any(gam < 1.0):
-        raise SeawayInputError(f"gamma must be >= 1, got {gam[gam < 1][0]!r}")
+        raise SeawayInputError(f"gamma must be >= 1, got {show(gam[gam < 1][0])}")
     transfer = transfer_model(profile)
     stations = (st,)
     if method == "exact":

@@ -25,7 +25,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from .units import G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, require_nonnegative
+from .validation import SeawayInputError, require_nonnegative, show
 
 __all__ = [
     "TaskCriterion",
@@ -90,7 +90,7 @@ def evaluate_criteria(
     """
     if task not in NORDFORSK_TASKS:
         raise SeawayInputError(
-            f"unknown criteria task {task!r}; known tasks: {', '.join(NORDFORSK_TASKS)}"
+            f"unknown criteria task {show(task)}; known tasks: {', '.join(NORDFORSK_TASKS)}"
         )
     c = NORDFORSK_TASKS[task]
     v = require_nonnegative("vacc_rms_m_s2", vacc_rms_m_s2)

@@ -29,7 +29,7 @@ from typing import Dict, Tuple
 import numpy as np
 
 from .units import FloatArray
-from .validation import SeawayInputError
+from .validation import SeawayInputError, show
 
 __all__ = [
     "DemoScenario",
@@ -228,7 +228,7 @@ def build_demo_scenario(folder: str) -> DemoScenario:
         raise SeawayInputError("folder must name an output folder for the demo, got ''")
     os.makedirs(folder, exist_ok=True)
     if not os.access(folder, os.W_OK):
-        raise SeawayInputError(f"folder {folder!r} is not writable: choose another output folder")
+        raise SeawayInputError(f"folder {show(folder)} is not writable: choose another output folder")
     f = demo_fields()
     nc = os.path.join(folder, "merrow_reach_forecast.nc")
     grb = os.path.join(folder, "merrow_reach_forecast.grib2")

@@ -17,7 +17,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from .units import FloatArray
-from .validation import SeawayInputError, as_float_array
+from .validation import SeawayInputError, as_float_array, show
 
 __all__ = ["trapezoid_weights", "trapezoid"]
 
@@ -47,7 +47,7 @@ def trapezoid_weights(x: ArrayLike) -> FloatArray:
     if not np.all(dx > 0):
         i = int(np.flatnonzero(~(dx > 0))[0])
         raise SeawayInputError(
-            f"x must be strictly increasing, got x[{i}]={arr[i]!r} >= x[{i + 1}]={arr[i + 1]!r}"
+            f"x must be strictly increasing, got x[{i}]={show(arr[i])} >= x[{i + 1}]={show(arr[i + 1])}"
         )
     w = np.empty_like(arr)
     w[0] = 0.5 * dx[0]
@@ -76,7 +76,7 @@ def trapezoid(y: ArrayLike, x: ArrayLike, axis: int = -1) -> FloatArray:
     try:
         ymov = np.moveaxis(yarr, axis, -1)
     except (ValueError, IndexError) as exc:  # numpy AxisError subclasses both (1.x and 2.x)
-        raise SeawayInputError(f"axis={axis!r} is out of range for y of shape {yarr.shape}") from exc
+        raise SeawayInputError(f"axis={show(axis)} is out of range for y of shape {yarr.shape}") from exc
     if ymov.shape[-1] != w.size:
         raise SeawayInputError(
             f"y has {ymov.shape[-1]} values along axis {axis} but x has {w.size}"

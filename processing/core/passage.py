@@ -39,7 +39,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from .flags import NOT_COMPUTED_FLAGS, SampleFlag, flag_codes_array, flag_counts
 from .units import SECONDS_PER_HOUR, FloatArray, m_s_from_kn, nm_from_m
-from .validation import SeawayInputError, as_float_array, require_in_range, require_positive
+from .validation import SeawayInputError, as_float_array, require_in_range, require_positive, show
 
 __all__ = [
     "NOT_COMPUTED_CLASS",
@@ -128,10 +128,10 @@ def as_utc_datetime64(name: str, value: object) -> np.datetime64:
             raise TypeError(type(value).__name__)
     except (TypeError, ValueError) as exc:
         raise SeawayInputError(
-            f"{name} must be a UTC date-time (ISO 8601 text, datetime or datetime64), got {value!r}"
+            f"{name} must be a UTC date-time (ISO 8601 text, datetime or datetime64), got {show(value)}"
         ) from exc
     if np.isnat(out):
-        raise SeawayInputError(f"{name} must be a valid date-time, got {value!r}")
+        raise SeawayInputError(f"{name} must be a valid date-time, got {show(value)}")
     return out
 
 

@@ -35,7 +35,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from .transfer import MotionTransfer
 from .units import RAD_PER_DEG, FloatArray
-from .validation import SeawayInputError
+from .validation import SeawayInputError, show
 
 __all__ = ["RaoTable", "load_rao_table", "rao_table_from_rows", "TableTransfer", "FREQ_COLUMNS", "AMPLITUDE_COLUMNS"]
 
@@ -103,10 +103,10 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
     if unknown:
         raise _err(source, f"unknown column(s) {', '.join(map(repr, unknown))}; allowed: {', '.join(_ALLOWED)}")
     if len(set(cols)) != len(cols):
-        raise _err(source, f"duplicate column names in header {cols!r}")
+        raise _err(source, f"duplicate column names in header {show(cols)}")
     fcols = [c for c in cols if c in FREQ_COLUMNS]
     if len(fcols) != 1:
-        raise _err(source, f"exactly one frequency column of {', '.join(FREQ_COLUMNS)} is required, got {fcols!r}")
+        raise _err(source, f"exactly one frequency column of {', '.join(FREQ_COLUMNS)} is required, got {show(fcols)}")
     need = ("heading_deg",) + AMPLITUDE_COLUMNS
     missing = [c for c in need if c not in cols]
     if missing:
@@ -124,9 +124,9 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
             try:
                 v = float(s)
             except ValueError:
-                raise _err(source, f"line {line} column {c} is not a number: {s!r}") from None
+                raise _err(source, f"line {line} column {c} is not a number: {show(s)}") from None
             if not math.isfinite(v):
-                raise _err(source, f"line {line} column {c} must be finite, got {s!r}")
+                raise _err(source, f"line {line} column {c} must be finite, got {show(s)}")
             data[c].append(v)
     if not rows:
         raise _err(source, "no data rows")
@@ -134,20 +134,20 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
     for c in (fcol,):
         bad = np.flatnonzero(f <= 0)
         if bad.size:
-            raise _err(source, f"line {ln[bad[0]]} column {c} must be > 0, got {f[bad[0]]!r}")
+            raise _err(source, f"line {ln[bad[0]]} column {c} must be > 0, got {show(f[bad[0]])}")
     bad = np.flatnonzero((h < 0) | (h >= 360))
     if bad.size:
-        raise _err(source, f"line {ln[bad[0]]} column heading_deg must lie in [0, 360), got {h[bad[0]]!r}")
+        raise _err(source, f"line {ln[bad[0]]} column heading_deg must lie in [0, 360), got {show(h[bad[0]])}")
     for c in AMPLITUDE_COLUMNS:
         a = np.array(data[c]); bad = np.flatnonzero(a < 0)
         if bad.size:
-            raise _err(source, f"line {ln[bad[0]]} column {c} is a negative amplitude: {a[bad[0]]!r}")
+            raise _err(source, f"line {ln[bad[0]]} column {c} is a negative amplitude: {show(a[bad[0]])}")
     for r in range(1, f.size):
         prev, cur = (f[r - 1], h[r - 1]), (f[r], h[r])
         if cur == prev:
-            raise _err(source, f"line {ln[r]} duplicates line {ln[r - 1]} ({fcol}={f[r]!r}, heading_deg={h[r]!r})")
+            raise _err(source, f"line {ln[r]} duplicates line {ln[r - 1]} ({fcol}={show(f[r])}, heading_deg={show(h[r])})")
         if cur < prev:
-            raise _err(source, f"line {ln[r]} is out of order: rows must be sorted by {fcol}, then heading_deg (got {fcol}={f[r]!r}, heading_deg={h[r]!r} after {fcol}={prev[0]!r}, heading_deg={prev[1]!r})")
+            raise _err(source, f"line {ln[r]} is out of order: rows must be sorted by {fcol}, then heading_deg (got {fcol}={show(f[r])}, heading_deg={show(h[r])} after {fcol}={show(prev[0])}, heading_deg={show(prev[1])})")
     fu = np.unique(f)
     heads = h[f == fu[0]]
     for fv in fu[1:]:
@@ -155,7 +155,7 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
         if hv.shape != heads.shape or np.any(hv != heads):
             miss = sorted(set(heads.tolist()) - set(hv.tolist()))
             extra = sorted(set(hv.tolist()) - set(heads.tolist()))
-            raise _err(source, f"grid is not rectangular: {fcol}={fv!r} has headings missing {miss} / extra {extra} compared with {fcol}={fu[0]!r}")
+            raise _err(source, f"grid is not rectangular: {fcol}={show(fv)} has headings missing {miss} / extra {extra} compared with {fcol}={show(fu[0])}")
     nf, nh = fu.size, heads.size
     if nf < 2 or nh < 2:
         raise _err(source, f"need at least 2 frequencies and 2 headings, got {nf} and {nh}")
@@ -185,7 +185,7 @@ def load_rao_table(path: Union[str, Path]) -> RaoTable:
     try:
         text = p.read_text(encoding="utf-8")
     except OSError as exc:
-        raise SeawayInputError(f"cannot read RAO table {str(p)!r}: {exc}") from None
+        raise SeawayInputError(f"cannot read RAO table {show(str(p))}: {exc}") from None
     lines = text.splitlines()
     rows: List[List[str]] = []
     numbers: List[int] = []

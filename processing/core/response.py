@@ -53,7 +53,7 @@ from .flags import SampleFlag
 from .heading import cos_deg, relative_heading_deg
 from .spectra import FrequencyGrid, direction_grid, frequency_grid_rad_s, jonswap_s_m2_s_rad
 from .units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
 from .vessel import Station
 
 __all__ = [
@@ -133,7 +133,7 @@ class MotionResponse:
     def station_index(self, name: str) -> int:
         if name not in self.station_names:
             raise SeawayInputError(
-                f"station {name!r} unknown; known stations: {', '.join(self.station_names)}"
+                f"station {show(name)} unknown; known stations: {', '.join(self.station_names)}"
             )
         return self.station_names.index(name)
 
@@ -173,7 +173,7 @@ def _per_partition(name: str, v: ArrayLike, p: int, low: float) -> FloatArray:
     if a is None:
         raise SeawayInputError(f"{name} must be a scalar or have one value per partition ({p}), got {np.shape(v)}")
     if np.any(a < low):
-        raise SeawayInputError(f"{name} must be >= {low:g}, got {a[a < low][0]!r}")
+        raise SeawayInputError(f"{name} must be >= {low:g}, got {show(a[a < low][0])}")
     return np.array(a, dtype=float)
 
 

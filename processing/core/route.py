@@ -30,6 +30,7 @@ from .validation import (
     require_in_range,
     require_nonnegative,
     require_positive,
+    show,
 )
 
 __all__ = [
@@ -158,7 +159,7 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
     total = int(pieces.sum()) + 1
     if total > MAX_ROUTE_SAMPLES:
         raise SeawayInputError(
-            f"spacing_nm={float(spacing)!r} would create {total} samples (more than "
+            f"spacing_nm={show(float(spacing))} would create {total} samples (more than "
             f"{MAX_ROUTE_SAMPLES}); choose a larger spacing"
         )
     counts = pieces.astype(np.int64)
@@ -196,8 +197,8 @@ def _dist_1d(dist_m: ArrayLike) -> FloatArray:
     if np.any(step < 0):
         i = int(np.flatnonzero(step < 0)[0])
         raise SeawayInputError(
-            f"dist_m must be non-decreasing, got dist_m[{i}]={dist[i]!r} > "
-            f"dist_m[{i + 1}]={dist[i + 1]!r}"
+            f"dist_m must be non-decreasing, got dist_m[{i}]={show(dist[i])} > "
+            f"dist_m[{i + 1}]={show(dist[i + 1])}"
         )
     return dist
 
@@ -261,10 +262,10 @@ def _departure_ms(departure_utc: DateLike) -> np.datetime64:
     except (TypeError, ValueError, DeprecationWarning) as exc:
         raise SeawayInputError(
             f"departure_utc must be a UTC datetime, numpy.datetime64 or ISO 8601 text, got "
-            f"{departure_utc!r}"
+            f"{show(departure_utc)}"
         ) from exc
     if np.isnat(dep):
-        raise SeawayInputError(f"departure_utc must be a valid time, got {departure_utc!r}")
+        raise SeawayInputError(f"departure_utc must be a valid time, got {show(departure_utc)}")
     return dep
 
 

@@ -33,7 +33,7 @@ from .dispersion import wavelength_m
 from .flags import SampleFlag
 from .heading import encounter_period, imo_angle_of_encounter_deg, relative_heading_deg
 from .units import G_STANDARD_M_S2, KNOT_M_S, RAD_PER_DEG, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
 
 __all__ = [
     "SYNC_ROLL_BAND",
@@ -84,7 +84,7 @@ def period_ratio_mask(te_s: ArrayLike, tr_s: float, band: Tuple[float, float]) -
     tr = float(require_positive("roll_period_s", tr_s))
     lo, hi = float(band[0]), float(band[1])
     if not 0 < lo < hi:
-        raise SeawayInputError(f"band must satisfy 0 < low < high, got {band!r}")
+        raise SeawayInputError(f"band must satisfy 0 < low < high, got {show(band)}")
     q = te / tr
     return np.asarray((q >= lo) & (q <= hi), dtype=bool)
 

@@ -36,6 +36,7 @@ from .validation import (
     as_float_array,
     require_nonnegative,
     require_positive,
+    show,
 )
 
 __all__ = [
@@ -140,7 +141,7 @@ def jonswap_s_m2_s_rad(
     gam = as_float_array("gamma", gamma)
     if np.any(gam < 1.0):
         bad = gam[gam < 1.0].ravel()[0]
-        raise SeawayInputError(f"gamma must be >= 1, got {bad!r}")
+        raise SeawayInputError(f"gamma must be >= 1, got {show(bad)}")
     sa = float(require_positive("sigma_a", sigma_a))
     sb = float(require_positive("sigma_b", sigma_b))
     w = _normalise_weights(normalise_weights, omega.size)
@@ -172,7 +173,7 @@ def jonswap_s_m2_s_rad(
         if lost.any():
             raise SeawayInputError(
                 "normalise_weights capture no energy for a sea state with hs_m > 0 "
-                f"(first: hs_m={hs[lost].ravel()[0]!r}, tp_s={tp[lost].ravel()[0]!r}); "
+                f"(first: hs_m={show(hs[lost].ravel()[0])}, tp_s={show(tp[lost].ravel()[0])}); "
                 "the frequency grid does not cover the spectral peak"
             )
         scale = np.where(m0 > 0, target / np.where(m0 > 0, m0, 1.0), 0.0)
@@ -265,10 +266,10 @@ def frequency_grid_rad_s(
     tmax = float(require_positive("tp_max_s", tp_max_s))
     if tmax < tmin:
         raise SeawayInputError(
-            f"tp_max_s must be >= tp_min_s, got tp_min_s={tmin!r}, tp_max_s={tmax!r}"
+            f"tp_max_s must be >= tp_min_s, got tp_min_s={show(tmin)}, tp_max_s={show(tmax)}"
         )
     if isinstance(n_freq, bool) or int(n_freq) != n_freq or int(n_freq) < 8:
-        raise SeawayInputError(f"n_freq must be an integer >= 8, got {n_freq!r}")
+        raise SeawayInputError(f"n_freq must be an integer >= 8, got {show(n_freq)}")
     lo = FREQ_GRID_LOW_FACTOR * 2.0 * math.pi / tmax
     hi = FREQ_GRID_HIGH_FACTOR * 2.0 * math.pi / tmin
     omega = np.geomspace(lo, hi, int(n_freq))
@@ -317,7 +318,7 @@ def spread_s_from_sigma_deg(sigma_deg: ArrayLike) -> FloatArray:
     if np.any(sig > limit):
         bad = sig[sig > limit].ravel()[0]
         raise SeawayInputError(
-            f"sigma_deg must be <= {limit:.4f} deg (uniform spreading) for cos-2s, got {bad!r}"
+            f"sigma_deg must be <= {limit:.4f} deg (uniform spreading) for cos-2s, got {show(bad)}"
         )
     sr = sig * RAD_PER_DEG
     return np.maximum(2.0 / (sr * sr) - 1.0, 0.0)
@@ -363,7 +364,7 @@ def direction_grid(
     if long_crested:
         return DirectionGrid(theta_rel_rad=np.zeros(1), weights=np.ones(1))
     if isinstance(n_dir, bool) or int(n_dir) != n_dir or int(n_dir) < 2:
-        raise SeawayInputError(f"n_dir must be an integer >= 2, got {n_dir!r}")
+        raise SeawayInputError(f"n_dir must be an integer >= 2, got {show(n_dir)}")
     sv = require_nonnegative("s", s)
     if sv.ndim != 0:
         raise SeawayInputError(f"s must be a scalar, got shape {sv.shape}")
@@ -373,7 +374,7 @@ def direction_grid(
     w = cos2s_spreading_per_rad(theta, sv) * dtheta
     total = w.sum()
     if not total > 0:  # pragma: no cover - D(0) > 0 always and theta = 0 or near it is a node
-        raise SeawayInputError(f"s={float(sv)!r} is too large for n_dir={n}: no weight left")
+        raise SeawayInputError(f"s={show(float(sv))} is too large for n_dir={n}: no weight left")
     w = w / total
     i = int(np.argmax(w))
     for _ in range(4):  # make np.sum(w) == 1.0 exactly in floating point, if reachable

@@ -73,7 +73,7 @@ from .passage import (
     source_time_range,
 )
 from .units import SECONDS_PER_HOUR, FloatArray, nm_from_m
-from .validation import SeawayInputError, as_float_array, require_nonnegative
+from .validation import SeawayInputError, as_float_array, require_nonnegative, show
 
 __all__ = [
     "CRITERIA",
@@ -131,9 +131,9 @@ def departure_times(depart_from_utc: object, depart_to_utc: object, step_h: floa
     try:
         step = float(step_h)
     except (TypeError, ValueError):
-        raise SeawayInputError(f"step_h must be a number of hours > 0, got {step_h!r}") from None
+        raise SeawayInputError(f"step_h must be a number of hours > 0, got {show(step_h)}") from None
     if not (math.isfinite(step) and step > 0.0):
-        raise SeawayInputError(f"step_h must be a number of hours > 0, got {step_h!r}")
+        raise SeawayInputError(f"step_h must be a number of hours > 0, got {show(step_h)}")
     if t1 < t0:
         raise SeawayInputError(
             f"depart_to_utc {t1.astype('datetime64[m]')} UTC lies before depart_from_utc "
@@ -141,7 +141,7 @@ def departure_times(depart_from_utc: object, depart_to_utc: object, step_h: floa
         )
     step_ms = int(round(step * SECONDS_PER_HOUR * 1000.0))
     if step_ms <= 0:
-        raise SeawayInputError(f"step_h must be at least 1 ms, got {step_h!r}")
+        raise SeawayInputError(f"step_h must be at least 1 ms, got {show(step_h)}")
     span_ms = int((t1 - t0).astype("timedelta64[ms]").astype(np.int64))
     n = span_ms // step_ms + 1
     if n > MAX_DEPARTURES:
@@ -171,15 +171,15 @@ def parse_speeds_kn(text: object, default_kn: float) -> Tuple[float, ...]:
                 v = float(p)
             except ValueError:
                 raise SeawayInputError(
-                    f"speeds_kn: {p!r} in {raw!r} is not a number of knots: give speeds like '8, 10.5'"
+                    f"speeds_kn: {show(p)} in {show(raw)} is not a number of knots: give speeds like '8, 10.5'"
                 ) from None
             vals.append(v)
         if not vals:
-            raise SeawayInputError(f"speeds_kn {raw!r} holds no speed: give speeds like '8, 10.5' or leave it empty")
+            raise SeawayInputError(f"speeds_kn {show(raw)} holds no speed: give speeds like '8, 10.5' or leave it empty")
     out: List[float] = []
     for v in vals:
         if not (math.isfinite(float(v)) and float(v) > 0.0):
-            raise SeawayInputError(f"speeds_kn: every speed must be > 0 kn, got {v!r}")
+            raise SeawayInputError(f"speeds_kn: every speed must be > 0 kn, got {show(v)}")
         if float(v) not in out:
             out.append(float(v))
     return tuple(out)
@@ -622,17 +622,17 @@ def sweep_departures(
     do not overlap, or when no departure lies inside the forecast of every source.
     """
     if criterion not in CRITERIA:
-        raise SeawayInputError(f"criterion must be one of {', '.join(CRITERIA)}, got {criterion!r}")
+        raise SeawayInputError(f"criterion must be one of {', '.join(CRITERIA)}, got {show(criterion)}")
     if isinstance(max_class, bool) or not isinstance(max_class, (int, np.integer)) or not 0 <= int(max_class) <= 4:
-        raise SeawayInputError(f"max_class must be a whole number 0..4 (comfort class), got {max_class!r}")
+        raise SeawayInputError(f"max_class must be a whole number 0..4 (comfort class), got {show(max_class)}")
     max_class = int(max_class)
     if method not in ("table", "exact"):
-        raise SeawayInputError(f"method must be 'table' or 'exact', got {method!r}")
+        raise SeawayInputError(f"method must be 'table' or 'exact', got {show(method)}")
     speeds_arr = np.atleast_1d(as_float_array("speeds_kn", speeds_kn)).ravel()
     if speeds_arr.size == 0:
         raise SeawayInputError("speeds_kn must hold at least one speed, got none")
     if np.any(~(speeds_arr > 0)):
-        raise SeawayInputError(f"speeds_kn must all be > 0 kn, got {speeds_arr.tolist()!r}")
+        raise SeawayInputError(f"speeds_kn must all be > 0 kn, got {show(speeds_arr.tolist())}")
     speeds = tuple(dict.fromkeys(float(v) for v in speeds_arr))
     deps = departure_times(depart_from_utc, depart_to_utc, step_h)
     if not sea_states:
@@ -643,7 +643,7 @@ def sweep_departures(
             f"sea-state sources need distinct names to be compared, got {', '.join(names)}: give each source "
             "its own name")
     if ROBUST_SOURCE in names:
-        raise SeawayInputError(f"a source may not be called {ROBUST_SOURCE!r} (that name marks the robust rows)")
+        raise SeawayInputError(f"a source may not be called {show(ROBUST_SOURCE)} (that name marks the robust rows)")
     ranges = tuple(source_time_range(s) for s in sea_states)
     tol_s = float(require_nonnegative("time_tolerance_s", time_tolerance_s))
     tol = np.timedelta64(int(round(tol_s * 1000.0)), "ms")

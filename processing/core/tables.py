@@ -38,7 +38,7 @@ from .response import (
     validity_flags,
 )
 from .units import G_STANDARD_M_S2, FloatArray, wrap_deg
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
 from .vessel import Station
 
 __all__ = [
@@ -187,11 +187,11 @@ def build_response_table(
     hg = _default_headings(full) if heading_grid_deg is None else as_float_array("heading_grid_deg", heading_grid_deg)
     for name, g in (("tp_grid_s", tpg), ("heading_grid_deg", hg)):
         if g.ndim != 1 or g.size < 2 or np.any(np.diff(g) <= 0):
-            raise SeawayInputError(f"{name} must be 1-D, strictly increasing, >= 2 values; got {g!r}")
+            raise SeawayInputError(f"{name} must be 1-D, strictly increasing, >= 2 values; got {show(g)}")
     if not full and (hg[0] != 0.0 or hg[-1] != 180.0):
-        raise SeawayInputError(f"heading_grid_deg must run from 0 to 180 deg, got {hg[0]!r}..{hg[-1]!r}")
+        raise SeawayInputError(f"heading_grid_deg must run from 0 to 180 deg, got {show(hg[0])}..{show(hg[-1])}")
     if full and (hg[0] != 0.0 or hg[-1] >= 360.0):
-        raise SeawayInputError(f"heading_grid_deg must run from 0 to < 360 deg for a full-circle table, got {hg[0]!r}..{hg[-1]!r}")
+        raise SeawayInputError(f"heading_grid_deg must run from 0 to < 360 deg for a full-circle table, got {show(hg[0])}..{show(hg[-1])}")
     depth = None
     if depth_m is not None:
         depth = float(require_positive("depth_m", depth_m, allow_inf=True))
@@ -200,7 +200,7 @@ def build_response_table(
     gam = float(as_float_array("gamma", gamma))
     spr = float(require_nonnegative("spread_s", spread_s))
     if gam < 1.0:
-        raise SeawayInputError(f"gamma must be >= 1, got {gam!r}")
+        raise SeawayInputError(f"gamma must be >= 1, got {show(gam)}")
     T, H = np.meshgrid(tpg, hg, indexing="ij")
     n = T.size
     um = unit_moments(
@@ -311,7 +311,7 @@ def build_response_table_set(transfer: Any, stations: Sequence[Station], speeds_
     ``kwargs`` go to :func:`build_response_table`."""
     sp = np.atleast_1d(require_nonnegative("speeds_m_s", speeds_m_s)).astype(float)
     if sp.ndim != 1 or np.any(np.diff(sp) <= 0):
-        raise SeawayInputError(f"speeds_m_s must be strictly increasing, got {sp!r}")
+        raise SeawayInputError(f"speeds_m_s must be strictly increasing, got {show(sp)}")
     if depths_m is None:
         inv = np.zeros(1)
     else:

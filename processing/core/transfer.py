@@ -53,7 +53,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from .heading import cos_deg
 from .units import G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
 
 __all__ = [
     "HeavePitchTransfer",
@@ -138,9 +138,9 @@ def jmo_heave_pitch(
     ``breadth`` "block" (B = Cb B0, default) or "full" (B = B0).
     """
     if kappa not in _KAPPA:
-        raise SeawayInputError(f"kappa must be one of {_KAPPA}, got {kappa!r}")
+        raise SeawayInputError(f"kappa must be one of {_KAPPA}, got {show(kappa)}")
     if breadth not in _BREADTH:
-        raise SeawayInputError(f"breadth must be one of {_BREADTH}, got {breadth!r}")
+        raise SeawayInputError(f"breadth must be one of {_BREADTH}, got {show(breadth)}")
     L = _scalar_pos("length_m", length_m)
     B0 = _scalar_pos("beam_m", beam_m)
     T = _scalar_pos("draught_m", draught_m)
@@ -193,7 +193,7 @@ def effective_slope_factor(
     Lloyd 1989 ch. 9); "beam": without exp(-kT); "none": r = 1.
     """
     if mode not in _SLOPE:
-        raise SeawayInputError(f"slope_reduction must be one of {_SLOPE}, got {mode!r}")
+        raise SeawayInputError(f"slope_reduction must be one of {_SLOPE}, got {show(mode)}")
     k = require_positive("k_rad_m", k_rad_m)
     if mode == "none":
         return np.ones(np.broadcast_shapes(k.shape, np.shape(rel_heading_deg)))
@@ -226,7 +226,7 @@ def roll_transfer_rad_per_m(
     k = require_positive("k_rad_m", k_rad_m)
     we = as_float_array("omega_e_rad_s", omega_e_rad_s)
     if slope_reduction not in _SLOPE:
-        raise SeawayInputError(f"slope_reduction must be one of {_SLOPE}, got {slope_reduction!r}")
+        raise SeawayInputError(f"slope_reduction must be one of {_SLOPE}, got {show(slope_reduction)}")
     B = _scalar_pos("beam_m", beam_m)
     T = _scalar_pos("draught_m", draught_m)
     sa = _sin_deg_abs(as_float_array("rel_heading_deg", rel_heading_deg))
@@ -261,7 +261,7 @@ def imo_roll_period_s(beam_m: ArrayLike, draught_m: ArrayLike, length_wl_m: Arra
     if np.any(C <= 0):
         raise SeawayInputError(
             f"IMO roll-period coefficient C = 0.373 + 0.023 B/d - 0.043 L/100 is <= 0 for "
-            f"beam_m={B!r}, draught_m={d!r}, length_wl_m={L!r}; give roll_period_s instead"
+            f"beam_m={show(B)}, draught_m={show(d)}, length_wl_m={show(L)}; give roll_period_s instead"
         )
     return np.asarray(2.0 * C * B / np.sqrt(gm), dtype=float)
 

@@ -7,7 +7,9 @@ errors: they become flags (see :mod:`.flags`).
 """
 from __future__ import annotations
 
-from typing import Optional
+from numbers import Number
+from os import PathLike
+from typing import Any, Optional
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -19,11 +21,32 @@ class SeawayInputError(ValueError):
     """Bad input to the core. The message names the argument, the offending value and the fix."""
 
 
+def show(value: Any) -> str:
+    """A value as a person reads it in a message, whatever numpy version made it.
+
+    numpy 2 writes scalars as ``np.float64(-1.0)``; here numbers are plain (``-1.0``, ``3``),
+    arrays and sequences are lists of plain numbers, paths and text are quoted, so the same
+    message reads the same on every numpy.
+    """
+    if isinstance(value, np.ndarray):
+        return show(value.tolist())
+    if isinstance(value, np.generic):
+        return show(value.item())
+    if isinstance(value, (list, tuple)):
+        inner = ", ".join(show(v) for v in value)
+        return f"[{inner}]" if isinstance(value, list) else f"({inner}{',' if len(value) == 1 else ''})"
+    if isinstance(value, PathLike):
+        return repr(str(value))
+    if isinstance(value, bool) or not isinstance(value, Number):
+        return repr(value)
+    return repr(value) if isinstance(value, (int, float)) else str(value)
+
+
 def _first_bad(values: np.ndarray, bad: np.ndarray) -> str:
     idx = np.flatnonzero(bad.ravel())
     first = values.ravel()[idx[0]]
     more = f" ({idx.size} values in all, first at index {int(idx[0])})" if idx.size > 1 else ""
-    return f"{first!r}{more}"
+    return f"{show(first)}{more}"
 
 
 def as_float_array(name: str, value: ArrayLike, *, allow_nan: bool = False) -> FloatArray:
@@ -31,7 +54,7 @@ def as_float_array(name: str, value: ArrayLike, *, allow_nan: bool = False) -> F
     try:
         arr = np.asarray(value, dtype=float)
     except (TypeError, ValueError) as exc:
-        raise SeawayInputError(f"{name} must be numeric, got {value!r}") from exc
+        raise SeawayInputError(f"{name} must be numeric, got {show(value)}") from exc
     if not allow_nan:
         bad = ~np.isfinite(arr)
         if bad.any():

@@ -30,7 +30,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any, Dict, List, Mapping, Optional, Tuple, Union
 
-from .validation import SeawayInputError
+from .validation import SeawayInputError, show
 
 __all__ = [
     "FORMAT_NAME",
@@ -83,10 +83,10 @@ def _err(source: str, msg: str) -> SeawayInputError:
 
 def _num(source: str, fname: str, value: Any) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise _err(source, f"{fname} must be a number, got {value!r}")
+        raise _err(source, f"{fname} must be a number, got {show(value)}")
     v = float(value)
     if not math.isfinite(v):
-        raise _err(source, f"{fname} must be finite, got {value!r}")
+        raise _err(source, f"{fname} must be finite, got {show(value)}")
     return v
 
 
@@ -106,12 +106,12 @@ class Station:
 
     def __post_init__(self) -> None:
         if not isinstance(self.name, str) or not self.name.strip():
-            raise SeawayInputError(f"station name must be a non-empty string, got {self.name!r}")
+            raise SeawayInputError(f"station name must be a non-empty string, got {show(self.name)}")
         for fname in ("x_m", "y_m", "z_m"):
-            object.__setattr__(self, fname, _num("", f"station {self.name!r} {fname}", getattr(self, fname)))
+            object.__setattr__(self, fname, _num("", f"station {show(self.name)} {fname}", getattr(self, fname)))
         if self.task not in _KNOWN_TASKS:
             raise SeawayInputError(
-                f"station {self.name!r} task must be one of {', '.join(_KNOWN_TASKS)}; got {self.task!r}"
+                f"station {show(self.name)} task must be one of {', '.join(_KNOWN_TASKS)}; got {show(self.task)}"
             )
 
 
@@ -156,9 +156,9 @@ class VesselProfile:
     base_dir: Optional[str] = field(default=None, compare=False)
 
     def __post_init__(self) -> None:
-        src = f"vessel {self.name!r}"
+        src = f"vessel {show(self.name)}"
         if not isinstance(self.name, str) or not self.name.strip():
-            raise SeawayInputError(f"vessel name must be a non-empty string, got {self.name!r}")
+            raise SeawayInputError(f"vessel name must be a non-empty string, got {show(self.name)}")
         for fname in ("length_wl_m", "beam_m", "draught_m", "block_coeff",
                       "roll_damping_ratio", "service_speed_kn"):
             object.__setattr__(self, fname, _num(src, fname, getattr(self, fname)))
@@ -168,35 +168,35 @@ class VesselProfile:
                 object.__setattr__(self, fname, _num(src, fname, v))
         L, B, T = self.length_wl_m, self.beam_m, self.draught_m
         if L <= 0:
-            raise _err(src, f"length_wl_m must be > 0, got {L!r}")
+            raise _err(src, f"length_wl_m must be > 0, got {show(L)}")
         if B <= 0:
-            raise _err(src, f"beam_m must be > 0, got {B!r}")
+            raise _err(src, f"beam_m must be > 0, got {show(B)}")
         if B > L:
-            raise _err(src, f"beam_m ({B!r}) must not exceed length_wl_m ({L!r})")
+            raise _err(src, f"beam_m ({show(B)}) must not exceed length_wl_m ({show(L)})")
         if T <= 0:
-            raise _err(src, f"draught_m must be > 0, got {T!r}")
+            raise _err(src, f"draught_m must be > 0, got {show(T)}")
         if T > B:
-            raise _err(src, f"draught_m ({T!r}) must not exceed beam_m ({B!r})")
+            raise _err(src, f"draught_m ({show(T)}) must not exceed beam_m ({show(B)})")
         if not CB_MIN <= self.block_coeff <= CB_MAX:
-            raise _err(src, f"block_coeff must lie in [{CB_MIN}, {CB_MAX}], got {self.block_coeff!r}")
+            raise _err(src, f"block_coeff must lie in [{CB_MIN}, {CB_MAX}], got {show(self.block_coeff)}")
         if self.waterplane_coeff is not None and not (
             self.block_coeff <= self.waterplane_coeff <= 1.0
         ):
             raise _err(
                 src,
-                f"waterplane_coeff must lie in [block_coeff={self.block_coeff!r}, 1.0], "
-                f"got {self.waterplane_coeff!r}",
+                f"waterplane_coeff must lie in [block_coeff={show(self.block_coeff)}, 1.0], "
+                f"got {show(self.waterplane_coeff)}",
             )
         if self.gm_m is None and self.roll_period_s is None:
             raise _err(src, "one of gm_m or roll_period_s is required, got neither")
         if self.gm_m is not None and self.gm_m <= 0:
-            raise _err(src, f"gm_m must be > 0 (a vessel with GM <= 0 is unstable), got {self.gm_m!r}")
+            raise _err(src, f"gm_m must be > 0 (a vessel with GM <= 0 is unstable), got {show(self.gm_m)}")
         if self.roll_period_s is not None and self.roll_period_s <= 0:
-            raise _err(src, f"roll_period_s must be > 0, got {self.roll_period_s!r}")
+            raise _err(src, f"roll_period_s must be > 0, got {show(self.roll_period_s)}")
         if not 0.0 < self.roll_damping_ratio < 1.0:
-            raise _err(src, f"roll_damping_ratio must lie in (0, 1), got {self.roll_damping_ratio!r}")
+            raise _err(src, f"roll_damping_ratio must lie in (0, 1), got {show(self.roll_damping_ratio)}")
         if self.service_speed_kn <= 0:
-            raise _err(src, f"service_speed_kn must be > 0, got {self.service_speed_kn!r}")
+            raise _err(src, f"service_speed_kn must be > 0, got {show(self.service_speed_kn)}")
         stations = tuple(self.stations)
         object.__setattr__(self, "stations", stations)
         if not stations:
@@ -204,23 +204,23 @@ class VesselProfile:
         seen: set = set()
         for st in stations:
             if not isinstance(st, Station):
-                raise _err(src, f"stations must hold Station objects, got {st!r}")
+                raise _err(src, f"stations must hold Station objects, got {show(st)}")
             if st.name in seen:
-                raise _err(src, f"duplicate station name {st.name!r}")
+                raise _err(src, f"duplicate station name {show(st.name)}")
             seen.add(st.name)
             if abs(st.x_m) > L / 2:
-                raise _err(src, f"station {st.name!r} x_m={st.x_m!r} lies outside the hull (|x| <= L/2 = {L / 2:g} m)")
+                raise _err(src, f"station {show(st.name)} x_m={show(st.x_m)} lies outside the hull (|x| <= L/2 = {L / 2:g} m)")
             if abs(st.y_m) > B / 2:
-                raise _err(src, f"station {st.name!r} y_m={st.y_m!r} lies outside the hull (|y| <= B/2 = {B / 2:g} m)")
+                raise _err(src, f"station {show(st.name)} y_m={show(st.y_m)} lies outside the hull (|y| <= B/2 = {B / 2:g} m)")
             zmax = L / 2 + B
             if not -T <= st.z_m <= zmax:
                 raise _err(
                     src,
-                    f"station {st.name!r} z_m={st.z_m!r} is unreasonable (allowed -draught "
+                    f"station {show(st.name)} z_m={show(st.z_m)} is unreasonable (allowed -draught "
                     f"{-T:g} m to L/2 + B = {zmax:g} m above the waterline)",
                 )
         if self.rao_table is not None and (not isinstance(self.rao_table, str) or not self.rao_table):
-            raise _err(src, f"rao_table must be a non-empty path string or null, got {self.rao_table!r}")
+            raise _err(src, f"rao_table must be a non-empty path string or null, got {show(self.rao_table)}")
 
     # ------------------------------------------------------------------ derived values
     @property
@@ -251,7 +251,7 @@ class VesselProfile:
             if st.name == name:
                 return st
         raise SeawayInputError(
-            f"station {name!r} is not defined for vessel {self.name!r}; known stations: "
+            f"station {show(name)} is not defined for vessel {show(self.name)}; known stations: "
             f"{', '.join(self.station_names)}"
         )
 
@@ -284,10 +284,10 @@ def profile_from_dict(d: Mapping[str, Any], *, source: str = "<dict>", base_dir:
         raise _err(source, f"a vessel profile must be a JSON object, got {type(d).__name__}")
     fmt = d.get("format")
     if fmt != FORMAT_NAME:
-        raise _err(source, f"format must be {FORMAT_NAME!r}, got {fmt!r}")
+        raise _err(source, f"format must be {show(FORMAT_NAME)}, got {show(fmt)}")
     ver = d.get("format_version")
     if ver != FORMAT_VERSION or isinstance(ver, bool):
-        raise _err(source, f"format_version {ver!r} is not supported (this version reads {FORMAT_VERSION})")
+        raise _err(source, f"format_version {show(ver)} is not supported (this version reads {FORMAT_VERSION})")
     unknown = [k for k in d if k not in _ALLOWED]
     if unknown:
         raise _err(source, f"unknown key(s) {', '.join(map(repr, unknown))}; allowed keys: {', '.join(_ALLOWED)}")
@@ -300,12 +300,12 @@ def profile_from_dict(d: Mapping[str, Any], *, source: str = "<dict>", base_dir:
     stations: List[Station] = []
     for i, s in enumerate(raw_st):
         if not isinstance(s, Mapping):
-            raise _err(source, f"stations[{i}] must be an object, got {s!r}")
+            raise _err(source, f"stations[{i}] must be an object, got {show(s)}")
         bad = [k for k in s if k not in _STATION_KEYS]
         if bad:
             raise _err(source, f"stations[{i}]: unknown key(s) {', '.join(map(repr, bad))}; allowed keys: {', '.join(_STATION_KEYS)}")
         if "name" not in s or "x_m" not in s:
-            raise _err(source, f"stations[{i}] needs at least 'name' and 'x_m', got {dict(s)!r}")
+            raise _err(source, f"stations[{i}] needs at least 'name' and 'x_m', got {show(dict(s))}")
         try:
             stations.append(Station(
                 name=s["name"], x_m=s["x_m"], y_m=s.get("y_m", 0.0), z_m=s.get("z_m", 0.0),
@@ -319,7 +319,7 @@ def profile_from_dict(d: Mapping[str, Any], *, source: str = "<dict>", base_dir:
             kwargs[k] = d[k]
     desc = kwargs.get("description", "")
     if not isinstance(desc, str):
-        raise _err(source, f"description must be a string, got {desc!r}")
+        raise _err(source, f"description must be a string, got {show(desc)}")
     try:
         return VesselProfile(stations=tuple(stations), base_dir=base_dir, **kwargs)
     except SeawayInputError as exc:
@@ -346,7 +346,7 @@ def load_vessel_profile(path: Union[str, Path]) -> VesselProfile:
     try:
         text = p.read_text(encoding="utf-8")
     except OSError as exc:
-        raise SeawayInputError(f"cannot read vessel profile {str(p)!r}: {exc}") from None
+        raise SeawayInputError(f"cannot read vessel profile {show(str(p))}: {exc}") from None
     try:
         data = json.loads(text)
     except json.JSONDecodeError as exc:
@@ -358,7 +358,7 @@ def save_vessel_profile(p: VesselProfile, path: Union[str, Path], *, overwrite: 
     """Write a profile as JSON; refuses to overwrite an existing file unless ``overwrite``."""
     out = Path(path)
     if out.exists() and not overwrite:
-        raise SeawayInputError(f"{str(out)!r} exists already; pass overwrite=True to replace it")
+        raise SeawayInputError(f"{show(str(out))} exists already; pass overwrite=True to replace it")
     out.write_text(json.dumps(profile_to_dict(p), indent=2) + "\n", encoding="utf-8")
     return out
 
@@ -372,7 +372,7 @@ def builtin_profile(name: str) -> VesselProfile:
     """Load a shipped example profile by name (see :func:`builtin_profile_names`)."""
     names = builtin_profile_names()
     if name not in names:
-        raise SeawayInputError(f"unknown built-in vessel {name!r}; known: {', '.join(names)}")
+        raise SeawayInputError(f"unknown built-in vessel {show(name)}; known: {', '.join(names)}")
     return load_vessel_profile(BUILTIN_DIR / f"{name}.json")
 
 
@@ -387,6 +387,6 @@ def resolve_vessel(name_or_path: Union[str, Path, VesselProfile]) -> VesselProfi
     if p.suffix.lower() == ".json" or p.exists():
         return load_vessel_profile(p)
     raise SeawayInputError(
-        f"vessel {s!r} is neither a built-in profile ({', '.join(builtin_profile_names())}) "
+        f"vessel {show(s)} is neither a built-in profile ({', '.join(builtin_profile_names())}) "
         "nor an existing JSON file"
     )

@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from typing import Any, Callable, Optional, Sequence
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .backends import ClimateCancelled, DaskBackend, LocalPoolBackend, SerialBackend, make_backend
 from .chunks import DEFAULT_CHUNK_STEPS, plan_chunks, run_chunk
 from .engine import ClimateSetup, prepare_climate
@@ -65,7 +65,7 @@ def compute_climate(
                             long_crested=long_crested)
     be = backend if backend is not None else LocalPoolBackend(workers=2)
     if not hasattr(be, "map"):
-        raise SeawayInputError(f"backend must be a climate backend object, got {be!r}")
+        raise SeawayInputError(f"backend must be a climate backend object, got {show(be)}")
     tasks = plan_chunks(setup, chunk_steps)
     results = be.map(tasks, progress)
     notes = list(getattr(be, "notes", []) or [])

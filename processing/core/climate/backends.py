@@ -30,7 +30,7 @@ import sys
 from dataclasses import dataclass, field
 from typing import Callable, List, Optional, Sequence
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .chunks import ChunkResult, ChunkTask, run_chunk
 
 __all__ = ["ClimateCancelled", "SerialBackend", "LocalPoolBackend", "DaskBackend", "make_backend",
@@ -93,8 +93,8 @@ def python_executable() -> str:
         if cand and os.path.isfile(cand):
             return cand
     raise SeawayInputError(
-        f"no Python interpreter of this installation found for worker processes (looked in {bindir!r} "
-        f"and {sys.exec_prefix!r}); use WORKERS=1 / --workers 1"
+        f"no Python interpreter of this installation found for worker processes (looked in {show(bindir)} "
+        f"and {show(sys.exec_prefix)}); use WORKERS=1 / --workers 1"
     )
 
 
@@ -126,7 +126,7 @@ class LocalPoolBackend:
 
     def __post_init__(self) -> None:
         if not isinstance(self.workers, int) or self.workers < 1:
-            raise SeawayInputError(f"workers must be a whole number >= 1, got {self.workers!r}")
+            raise SeawayInputError(f"workers must be a whole number >= 1, got {show(self.workers)}")
 
     def map(self, tasks: Sequence[ChunkTask], progress: Optional[Progress] = None) -> List[ChunkResult]:
         if self.workers == 1 or len(tasks) <= 1:
@@ -188,7 +188,7 @@ class DaskBackend:
                 client = Client(self.address, timeout=f"{float(self.connect_timeout_s)}s")
             except (OSError, TimeoutError, ValueError) as exc:
                 raise SeawayInputError(
-                    f"the Dask scheduler at {self.address!r} cannot be reached "
+                    f"the Dask scheduler at {show(self.address)} cannot be reached "
                     f"({type(exc).__name__}: {exc}); check the address (tcp://host:port) and that the "
                     "scheduler runs"
                 ) from None
@@ -245,4 +245,4 @@ def make_backend(kind: str = "local", *, workers: int = 2, scheduler: Optional[s
     if k == "dask":
         return DaskBackend(address=scheduler or None, workers=int(workers), fallback_local=bool(fallback_local),
                            processes=bool(processes))
-    raise SeawayInputError(f"backend must be 'serial', 'local' or 'dask', got {kind!r}")
+    raise SeawayInputError(f"backend must be 'serial', 'local' or 'dask', got {show(kind)}")

@@ -16,7 +16,7 @@ from typing import List, Optional, Sequence, Tuple
 import numpy as np
 from numpy.typing import NDArray
 
-from ..validation import SeawayInputError, require_positive
+from ..validation import SeawayInputError, require_positive, show
 from .engine import ClimateSetup, classify_steps
 from .windows import N_MONTHS, WaitPartial, departure_status, waiting_partial
 
@@ -79,7 +79,7 @@ def plan_chunks(setup: ClimateSetup, chunk_steps: int = DEFAULT_CHUNK_STEPS) -> 
     """Split the series into chunks of ``chunk_steps`` departure steps with the passage overlap."""
     cs = int(require_positive("chunk_steps", chunk_steps))
     if cs != float(chunk_steps):
-        raise SeawayInputError(f"chunk_steps must be a whole number, got {chunk_steps!r}")
+        raise SeawayInputError(f"chunk_steps must be a whole number, got {show(chunk_steps)}")
     n_all = setup.series.n_steps
     p = setup.passage_steps
     tasks: List[ChunkTask] = []

@@ -21,7 +21,7 @@ import time
 from typing import List, Optional, Sequence, TextIO, Tuple
 
 from ..flags import CAUTION
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 
 __all__ = ["main", "build_parser", "read_route", "parse_lonlat", "ProgressBar"]
 
@@ -35,12 +35,12 @@ def parse_lonlat(text: str) -> Tuple[List[float], List[float]]:
             x, y = (float(v) for v in part.split(","))
         except ValueError:
             raise SeawayInputError(
-                f"--route-lonlat vertex {k + 1} {part.strip()!r} is not 'lon,lat' in decimal degrees"
+                f"--route-lonlat vertex {k + 1} {show(part.strip())} is not 'lon,lat' in decimal degrees"
             ) from None
         lon.append(x)
         lat.append(y)
     if len(lon) < 2:
-        raise SeawayInputError(f"--route-lonlat {text!r} needs at least two 'lon,lat' vertices separated by ';'")
+        raise SeawayInputError(f"--route-lonlat {show(text)} needs at least two 'lon,lat' vertices separated by ';'")
     return lon, lat
 
 
@@ -70,22 +70,22 @@ def read_route(path: str) -> Tuple[List[float], List[float]]:
         with open(path, "r", encoding="utf-8-sig") as fh:
             text = fh.read()
     except OSError as exc:
-        raise SeawayInputError(f"--route file {path!r} cannot be read: {exc}") from None
+        raise SeawayInputError(f"--route file {show(path)} cannot be read: {exc}") from None
     stripped = text.lstrip()
     if stripped.startswith("{"):
         try:
             coords = _geojson_line(json.loads(text), path)
         except json.JSONDecodeError as exc:
-            raise SeawayInputError(f"--route file {path!r} is not valid GeoJSON: {exc}") from None
+            raise SeawayInputError(f"--route file {show(path)} is not valid GeoJSON: {exc}") from None
         if not coords or len(coords) < 2:
-            raise SeawayInputError(f"--route file {path!r} holds no LineString with at least two vertices")
+            raise SeawayInputError(f"--route file {show(path)} holds no LineString with at least two vertices")
         try:
             return [float(c[0]) for c in coords], [float(c[1]) for c in coords]
         except (TypeError, ValueError, IndexError):
-            raise SeawayInputError(f"--route file {path!r}: coordinates must be [lon, lat] numbers") from None
+            raise SeawayInputError(f"--route file {show(path)}: coordinates must be [lon, lat] numbers") from None
     rows = [r for r in csv.reader(text.splitlines()) if r and any(c.strip() for c in r)]
     if not rows:
-        raise SeawayInputError(f"--route file {path!r} is empty")
+        raise SeawayInputError(f"--route file {show(path)} is empty")
     head = [c.strip().lower() for c in rows[0]]
     ix = iy = None
     for xn, yn in (("lon", "lat"), ("lon_deg", "lat_deg"), ("longitude", "latitude"), ("x", "y")):
@@ -106,9 +106,9 @@ def read_route(path: str) -> Tuple[List[float], List[float]]:
             lon.append(float(r[ix]))
             lat.append(float(r[iy]))
         except (ValueError, IndexError):
-            raise SeawayInputError(f"--route file {path!r} row {n + 2}: {r!r} has no numeric lon/lat") from None
+            raise SeawayInputError(f"--route file {show(path)} row {n + 2}: {show(r)} has no numeric lon/lat") from None
     if len(lon) < 2:
-        raise SeawayInputError(f"--route file {path!r} needs at least two vertices, found {len(lon)}")
+        raise SeawayInputError(f"--route file {show(path)} needs at least two vertices, found {len(lon)}")
     return lon, lat
 
 

@@ -41,7 +41,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from ..units import FloatArray
-from ..validation import SeawayInputError, require_in_range, require_positive
+from ..validation import SeawayInputError, require_in_range, require_positive, show
 from .hindcast import HindcastSeries, PointWeights, point_weights, read_point_values
 
 __all__ = [
@@ -156,7 +156,7 @@ def prepare_climate(
     speed = float(require_positive("speed_kn", speed_kn))
     mc = float(require_in_range("max_class", max_class, 0, 4))
     if mc != int(mc):
-        raise SeawayInputError(f"max_class must be a whole number 0..4, got {max_class!r}")
+        raise SeawayInputError(f"max_class must be a whole number 0..4, got {show(max_class)}")
     g = float(require_in_range("gamma", gamma, 1.0, 20.0))
     s = float(require_in_range("spread_s", spread_s, 0.0, 200.0))
     require_positive("spacing_nm", spacing_nm)
@@ -177,7 +177,7 @@ def prepare_climate(
         table = build_response_table(transfer_model(prof), [st], float(m_s_from_kn(speed)),
                                      gamma=g, spread_s=s, long_crested=bool(long_crested))
     if st.name not in table.station_names:
-        raise SeawayInputError(f"the response table has no station {st.name!r} (has: {', '.join(table.station_names)})")
+        raise SeawayInputError(f"the response table has no station {show(st.name)} (has: {', '.join(table.station_names)})")
     return ClimateSetup(
         lon_deg=np.asarray(rs.lon_deg, dtype=float), lat_deg=np.asarray(rs.lat_deg, dtype=float),
         dist_m=dist, course_deg=np.asarray(rs.course_deg, dtype=float),

@@ -53,7 +53,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from ..units import FloatArray
-from ..validation import SeawayInputError, as_float_array, require_in_range
+from ..validation import SeawayInputError, as_float_array, require_in_range, show
 
 __all__ = [
     "HindcastGap",
@@ -201,7 +201,7 @@ def open_hindcast(
     from ..seastate.derived import MEAN_PERIOD_RATIOS
 
     if overlap not in ("first", "last", "error"):
-        raise SeawayInputError(f"overlap must be 'first', 'last' or 'error', got {overlap!r}")
+        raise SeawayInputError(f"overlap must be 'first', 'last' or 'error', got {show(overlap)}")
     if isinstance(paths, (str, os.PathLike)):
         paths = [os.fspath(paths)]
     files = [os.fspath(p) for p in paths]
@@ -226,7 +226,7 @@ def open_hindcast(
                                              ("dir (wave direction)", "dir" in have)) if not ok]
             if lacking:
                 raise SeawayInputError(
-                    f"hindcast file {f!r} lacks {' and '.join(lacking)} as a combined-sea variable "
+                    f"hindcast file {show(f)} lacks {' and '.join(lacking)} as a combined-sea variable "
                     f"(found: {', '.join(sorted(have)) or 'none'}); the climate needs hs, a period and dir"
                 )
             layers = {"hs": src.layer("hs"), "per": src.layer(per), "dir": src.layer("dir")}
@@ -238,8 +238,8 @@ def open_hindcast(
                     grid0, file0 = g, f
                 elif _grid_key(g) != _grid_key(grid0):
                     raise SeawayInputError(
-                        f"hindcast file {f!r} ({name}: {_grid_text(g)}) does not use the grid of "
-                        f"{file0!r} ({_grid_text(grid0)}); all hindcast files of one climate must share "
+                        f"hindcast file {show(f)} ({name}: {_grid_text(g)}) does not use the grid of "
+                        f"{show(file0)} ({_grid_text(grid0)}); all hindcast files of one climate must share "
                         "one grid - regrid them first"
                     )
             per_file.append({"path": f, "layers": layers, "ratio": 1.0 if per == "tp" else MEAN_PERIOD_RATIOS[per]})
@@ -262,7 +262,7 @@ def open_hindcast(
             if off.any():
                 bad = np.datetime64(int(t[np.flatnonzero(off)[0]]), "s")
                 raise SeawayInputError(
-                    f"hindcast file {pf['path']!r} variable {layer.file_variable!r} has time {bad}Z off the "
+                    f"hindcast file {show(pf['path'])} variable {show(layer.file_variable)} has time {bad}Z off the "
                     f"regular {step / 3600.0:g} h axis starting {np.datetime64(start, 's')}Z; "
                     "all files must share one time step"
                 )
@@ -457,9 +457,9 @@ class _Reader:
             raw = ds.ReadAsArray(pw.col0, pw.row0, pw.ncols, pw.nrows,  # type: ignore[attr-defined]
                                  band_list=[int(b) for b in bands])
         except RuntimeError as exc:
-            raise SeawayInputError(f"GDAL could not read hindcast file {name!r}: {exc}") from None
+            raise SeawayInputError(f"GDAL could not read hindcast file {show(name)}: {exc}") from None
         if raw is None:
-            raise SeawayInputError(f"GDAL could not read bands {bands[0]}..{bands[-1]} of hindcast file {name!r}")
+            raise SeawayInputError(f"GDAL could not read bands {bands[0]}..{bands[-1]} of hindcast file {show(name)}")
         # every block is read once: drop it from GDAL's block cache so that memory stays bounded
         # whatever the number of years (the cache would otherwise fill up to GDAL_CACHEMAX)
         ds.FlushCache()  # type: ignore[attr-defined]

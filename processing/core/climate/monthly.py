@@ -27,7 +27,7 @@ from numpy.typing import NDArray
 
 from ..flags import CAUTION
 from ..units import FloatArray
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .chunks import ChunkResult, N_CLASS_BINS
 from .engine import ClimateSetup
 from .windows import N_MONTHS, WaitTotals, merge_waits
@@ -66,10 +66,10 @@ def parse_months(text: object) -> Tuple[int, ...]:
                 out.append(v)
     except ValueError:
         raise SeawayInputError(
-            f"months {text!r} is not a list of months 1..12 (examples: '1-12', '6,7,8', '11-2')"
+            f"months {show(text)} is not a list of months 1..12 (examples: '1-12', '6,7,8', '11-2')"
         ) from None
     if not out:
-        raise SeawayInputError(f"months {text!r} selects no month")
+        raise SeawayInputError(f"months {show(text)} selects no month")
     return tuple(sorted(set(out)))
 
 

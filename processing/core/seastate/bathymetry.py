@@ -26,7 +26,7 @@ from numpy.typing import NDArray
 
 from ..flags import SampleFlag
 from ..units import FloatArray
-from ..validation import SeawayInputError, as_float_array, require_in_range
+from ..validation import SeawayInputError, as_float_array, require_in_range, show
 from .grid import read_window_for
 from .layer import gdal_call, grid_from_dataset, open_gdal
 from .variables import HEIGHT, unit_conversion
@@ -149,7 +149,7 @@ def _pick_dataset(path: str) -> Tuple[str, dict]:
     subs = ds.GetSubDatasets()
     if not subs:
         if ds.RasterCount < 1:
-            raise SeawayInputError(f"bathymetry file {path!r} has no raster band")
+            raise SeawayInputError(f"bathymetry file {show(path)} has no raster band")
         md = dict(ds.GetMetadata() or {})
         md.update(ds.GetRasterBand(1).GetMetadata() or {})
         return path, md
@@ -162,7 +162,7 @@ def _pick_dataset(path: str) -> Tuple[str, dict]:
     if len(subs) == 1:
         return subs[0][0], md
     raise SeawayInputError(
-        f"bathymetry file {path!r} has several variables ({', '.join(s[0].rsplit(':', 1)[-1] for s in subs)}) "
+        f"bathymetry file {show(path)} has several variables ({', '.join(s[0].rsplit(':', 1)[-1] for s in subs)}) "
         "and none has a depth or elevation standard_name"
     )
 
@@ -198,7 +198,7 @@ def _auto_convention(ds, md: dict) -> Tuple[str, str]:  # type: ignore[no-untype
 def open_bathymetry(path: str, *, convention: str = "auto") -> Bathymetry:
     """Open a bathymetry raster; ``convention`` "auto", "depth_positive_down" or "elevation_positive_up"."""
     if convention not in CONVENTIONS:
-        raise SeawayInputError(f"convention must be one of {', '.join(CONVENTIONS)}, got {convention!r}")
+        raise SeawayInputError(f"convention must be one of {', '.join(CONVENTIONS)}, got {show(convention)}")
     name, md = _pick_dataset(str(path))
     ds = open_gdal(name, what="bathymetry file")
     units = ds.GetRasterBand(1).GetUnitType() or md.get("units", "")

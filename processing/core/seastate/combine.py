@@ -21,6 +21,7 @@ from ..units import FloatArray
 from .derived import MEAN_PERIOD_RATIOS, dominant_partition, hs_m_from_partitions, tp_s_from_mean_period
 from .layer import VariableLayer
 from .sampler import LayerSample
+from ..validation import show
 
 
 @dataclass(frozen=True)
@@ -60,8 +61,8 @@ def combine_samples(s: Dict[str, LayerSample], n: int, layers: Dict[str, Variabl
         flags |= ls.flags & keep
         if np.any(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)):
             layer = layers[c]
-            warn = (f"{layer.file} variable {layer.file_variable!r} ({c}): implausible values; "
-                    f"check the file's units (units read: {layer.units.unit_in!r})")
+            warn = (f"{layer.file} variable {show(layer.file_variable)} ({c}): implausible values; "
+                    f"check the file's units (units read: {show(layer.units.unit_in)})")
             count = int(np.count_nonzero(ls.flags & int(SampleFlag.IMPLAUSIBLE_VALUE)))
             notes.append(f"{warn} - at {count} samples")
             if warn not in warnings:

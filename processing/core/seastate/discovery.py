@@ -5,7 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import Dict, List, Optional, Tuple
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .variables import DIRECTION
 
 DIRECTION_CONVENTIONS = ("auto", "from", "to")
@@ -25,7 +25,7 @@ class Discovery:
 def check_direction_convention(value: str) -> str:
     if value not in DIRECTION_CONVENTIONS:
         raise SeawayInputError(
-            f"direction_convention must be one of {', '.join(DIRECTION_CONVENTIONS)}, got {value!r}"
+            f"direction_convention must be one of {', '.join(DIRECTION_CONVENTIONS)}, got {show(value)}"
         )
     return value
 
@@ -50,7 +50,7 @@ def resolve_going_to(kind: str, declared: Optional[bool], convention: str, *, wh
     if declared is not None and declared != want:
         warnings.append(
             f"{where}: the file says {'going-to' if declared else 'coming-from'} but "
-            f"direction_convention={convention!r} was given; the given convention is used"
+            f"direction_convention={show(convention)} was given; the given convention is used"
         )
     return want, ("going-to (caller): turned by 180 deg to coming-from" if want
                   else "coming-from (caller)")
@@ -65,7 +65,7 @@ def invert_variable_map(variable_map: Optional[Dict[str, str]]) -> Dict[str, str
         canonical_kind(canonical)
         if not isinstance(file_name, str) or not file_name:
             raise SeawayInputError(
-                f"variable_map[{canonical!r}] must be a non-empty file variable name, got {file_name!r}"
+                f"variable_map[{show(canonical)}] must be a non-empty file variable name, got {show(file_name)}"
             )
         out[file_name] = canonical
     return out

@@ -13,7 +13,7 @@ from typing import Dict, List, Optional, Sequence
 
 import numpy as np
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .layer import VariableLayer, grid_from_dataset, open_gdal
 from .timeaxis import as_utc_seconds, parse_iso_utc, require_increasing
@@ -32,7 +32,7 @@ def discover_geotiff(path: str, inverse_map: Dict[str, str], direction_conventio
     hit = next((n for n in names if n in inverse_map), None)
     if hit is not None:
         canonical = inverse_map[hit]
-        how = f"variable_map {canonical!r} -> {hit!r}"
+        how = f"variable_map {show(canonical)} -> {show(hit)}"
         declared = cf.going_to if (cf and cf.canonical == canonical) else None
         priority = -1
     elif cf is not None:
@@ -44,7 +44,7 @@ def discover_geotiff(path: str, inverse_map: Dict[str, str], direction_conventio
             raise SeawayInputError(f"{path}: {msg}")
         disc.ignored.append((base, msg))
         return disc
-    where = f"{path} variable {canonical!r}"
+    where = f"{path} variable {show(canonical)}"
     try:
         kind = canonical_kind(canonical)
         band1 = ds.GetRasterBand(1)

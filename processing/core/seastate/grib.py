@@ -17,7 +17,7 @@ from typing import Dict, List, Optional, Tuple
 
 import numpy as np
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .layer import VariableLayer, grid_from_dataset, open_gdal
 from .timeaxis import parse_grib_time
@@ -75,7 +75,7 @@ def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: 
         mapped = qualified if qualified in inverse_map else (element if element in inverse_map else None)
         if mapped is not None:
             canonical, priority = inverse_map[mapped], -1
-            how = f"variable_map {canonical!r} -> GRIB {mapped}"
+            how = f"variable_map {show(canonical)} -> GRIB {mapped}"
             note = ""
         elif param is not None:
             hit = grib_canonical(param, ltype, lval)
@@ -89,7 +89,7 @@ def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: 
         else:
             disc.ignored.append((f"{element} (band {b})", "not a GRIB2 wave parameter we use"))
             continue
-        where = f"{path} variable {canonical!r} (GRIB {element}, band {b})"
+        where = f"{path} variable {show(canonical)} (GRIB {element}, band {b})"
         try:
             t = parse_grib_time(md.get("GRIB_VALID_TIME"), where=where)
         except SeawayInputError as exc:
@@ -104,7 +104,7 @@ def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: 
     for canonical, grp in groups.items():
         entries: List[Tuple[int, int]] = grp["entries"]  # type: ignore[assignment]
         element = str(grp["element"])
-        where = f"{path} variable {canonical!r} (GRIB {element})"
+        where = f"{path} variable {show(canonical)} (GRIB {element})"
         entries.sort(key=lambda e: e[0])
         kept: List[Tuple[int, int]] = []
         for t, b in entries:

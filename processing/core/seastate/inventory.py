@@ -8,6 +8,7 @@ from typing import Any, Dict, Optional, Tuple
 import numpy as np
 
 from ..flags import CAUTION
+from ..validation import show
 
 
 @dataclass(frozen=True)
@@ -64,7 +65,7 @@ class Inventory:
         for v in self.variables:
             g = v.grid
             lines.append(
-                f"  {v.canonical:<11} {'' if v.used else '(not used) '}from {v.file_variable!r} in {v.file}"
+                f"  {v.canonical:<11} {'' if v.used else '(not used) '}from {show(v.file_variable)} in {v.file}"
             )
             lines.append(f"      recognised by: {v.recognised_by}")
             lines.append(f"      units: {v.conversion}" + (f"; {v.direction_note}" if v.direction_note else ""))

@@ -20,7 +20,7 @@ from typing import Any, Callable, Dict, List, Optional, Tuple
 import numpy as np
 from numpy.typing import NDArray
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .grid import GridGeometry, Window
 from .variables import UnitConversion
 
@@ -68,8 +68,8 @@ def open_gdal(name: str, *, what: str) -> "gdal.Dataset":
     if name.upper().startswith(("NETCDF:", "HDF5:")):
         plain = name.split(":", 1)[1].rsplit(":", 1)[0].strip('"')
     if not os.path.exists(plain):
-        raise SeawayInputError(f"{what} {plain!r} does not exist")
-    return gdal_call(f"GDAL cannot open {what} {name!r}", gdal.Open, name, gdal.GA_ReadOnly)
+        raise SeawayInputError(f"{what} {show(plain)} does not exist")
+    return gdal_call(f"GDAL cannot open {what} {show(name)}", gdal.Open, name, gdal.GA_ReadOnly)
 
 
 def grid_from_dataset(ds: "gdal.Dataset", *, where: str) -> GridGeometry:
@@ -142,7 +142,7 @@ class DatasetCache:
         band = self.get(name).GetRasterBand(bandno)
         parts: List[NDArray[np.float64]] = []
         for xoff, xsize in window.col_runs:
-            raw = gdal_call(f"{layer.file} variable {layer.file_variable!r}: GDAL could not read band {bandno}",
+            raw = gdal_call(f"{layer.file} variable {show(layer.file_variable)}: GDAL could not read band {bandno}",
                             band.ReadAsArray, xoff, window.row0, xsize, window.nrows)
             parts.append(np.asarray(raw))
         raw = parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1)

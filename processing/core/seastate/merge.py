@@ -14,6 +14,7 @@ from typing import Dict, List
 import numpy as np
 
 from .layer import VariableLayer
+from ..validation import show
 
 
 def same_grid(a: VariableLayer, b: VariableLayer) -> bool:
@@ -41,11 +42,11 @@ def merge_layers(layers_in_order: List[VariableLayer], warnings: List[str]) -> D
         if old.file == layer.file:
             if layer.priority < old.priority:
                 chosen[c] = layer
-                warnings.append(f"{layer.file}: {c!r} found as {old.file_variable!r} and "
-                                f"{layer.file_variable!r}; {layer.file_variable!r} is used")
+                warnings.append(f"{layer.file}: {show(c)} found as {show(old.file_variable)} and "
+                                f"{show(layer.file_variable)}; {show(layer.file_variable)} is used")
             else:
-                warnings.append(f"{layer.file}: {c!r} found as {old.file_variable!r} and "
-                                f"{layer.file_variable!r}; {old.file_variable!r} is used")
+                warnings.append(f"{layer.file}: {show(c)} found as {show(old.file_variable)} and "
+                                f"{show(layer.file_variable)}; {show(old.file_variable)} is used")
             continue
         if same_grid(old, layer) and old.units.factor == layer.units.factor and old.going_to == layer.going_to:
             t_old = set(int(t) for t in old.times_s)
@@ -53,7 +54,7 @@ def merge_layers(layers_in_order: List[VariableLayer], warnings: List[str]) -> D
             if dup:
                 holder = file_of(old.bands[int(np.flatnonzero(old.times_s == dup[0])[0])][0])
                 warnings.append(
-                    f"{c!r}: {layer.file} repeats {len(dup)} time(s) already read (first "
+                    f"{show(c)}: {layer.file} repeats {len(dup)} time(s) already read (first "
                     f"{np.datetime64(int(dup[0]), 's')}Z from {holder}); {holder} is used"
                 )
             entries = list(zip(old.times_s.tolist(), old.bands))
@@ -67,5 +68,5 @@ def merge_layers(layers_in_order: List[VariableLayer], warnings: List[str]) -> D
             continue
         overlap = not (layer.times_s[-1] < old.times_s[0] or layer.times_s[0] > old.times_s[-1])
         why = "for the same times" if overlap else "on a different grid"
-        warnings.append(f"{c!r} is in both {old.file} and {layer.file} {why}; {old.file} is used")
+        warnings.append(f"{show(c)} is in both {old.file} and {layer.file} {why}; {old.file} is used")
     return chosen

@@ -14,7 +14,7 @@ from typing import Dict, List, Optional, Tuple
 
 import numpy as np
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .grid import GridGeometry
 from .layer import VariableLayer, gdal, gdal_call, grid_from_dataset, open_gdal
@@ -60,7 +60,7 @@ def discover_netcdf(path: str, inverse_map: Dict[str, str], direction_convention
     """Scan a NetCDF file for sea-state variables."""
     disc = Discovery(path, "netcdf")
     for gdal_name, var in _variable_datasets(path):
-        where = f"{path} variable {var!r}"
+        where = f"{path} variable {show(var)}"
         ds = open_gdal(gdal_name, what="NetCDF variable")
         md = ds.GetMetadata() or {}
         band_md = ds.GetRasterBand(1).GetMetadata() if ds.RasterCount else {}
@@ -69,13 +69,13 @@ def discover_netcdf(path: str, inverse_map: Dict[str, str], direction_convention
         cf = CF_STANDARD_NAMES.get(std)
         if var in inverse_map:
             canonical = inverse_map[var]
-            how = f"variable_map {canonical!r} -> {var!r}"
+            how = f"variable_map {show(canonical)} -> {show(var)}"
             declared = cf.going_to if (cf and cf.canonical == canonical) else None
             priority = -1
         elif cf is not None:
             canonical, how, declared, priority = cf.canonical, f"CF standard_name {std}", cf.going_to, cf.priority
         else:
-            disc.ignored.append((var, f"standard_name {std!r} not a sea-state quantity we use"
+            disc.ignored.append((var, f"standard_name {show(std)} not a sea-state quantity we use"
                                  if std else "no standard_name and not in variable_map"))
             continue
         try:
@@ -103,7 +103,7 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
         size = _braced(md.get(f"NETCDF_DIM_{d}_DEF", ""))
         if size and int(size[0]) > 1:
             raise SeawayInputError(
-                f"{where}: extra dimension {d!r} of size {size[0]}; only (time, y, x) variables are read"
+                f"{where}: extra dimension {show(d)} of size {size[0]}; only (time, y, x) variables are read"
             )
     units = md.get(f"{tdim}#units")
     calendar = md.get(f"{tdim}#calendar")
@@ -113,7 +113,7 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
         if item is None:
             raise SeawayInputError(f"{where}: band {b} has no {tdim} coordinate")
         raw.append(float(item))
-    times = decode_cf_time(raw, units, calendar, where=f"{where} time axis {tdim!r}")
+    times = decode_cf_time(raw, units, calendar, where=f"{where} time axis {show(tdim)}")
     times_s = times.astype(np.int64)
     require_increasing(times_s, where=where)
     if ds.GetMetadata("GEOLOCATION"):
@@ -175,7 +175,7 @@ def _check_regular_axes(path: str, var: str, grid: GridGeometry, where: str) -> 
         if iv is None:
             continue
         try:
-            c = np.asarray(gdal_call(f"{where}: coordinate {dim.GetName()!r}", iv.ReadAsArray), dtype=float).ravel()
+            c = np.asarray(gdal_call(f"{where}: coordinate {show(dim.GetName())}", iv.ReadAsArray), dtype=float).ravel()
         except SeawayInputError:
             continue
         if c.size < 2:
@@ -185,6 +185,6 @@ def _check_regular_axes(path: str, var: str, grid: GridGeometry, where: str) -> 
         step = float(np.median(np.abs(d)))
         if np.max(np.abs(np.abs(d) - step)) > 1e-3 * step or abs(step - cell) > 1e-3 * cell:
             raise SeawayInputError(
-                f"{where}: coordinate {dim.GetName()!r} is not evenly spaced (steps "
+                f"{where}: coordinate {show(dim.GetName())} is not evenly spaced (steps "
                 f"{np.min(np.abs(d)):g} to {np.max(np.abs(d)):g}); only regular grids are read"
             )

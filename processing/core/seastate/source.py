@@ -13,7 +13,7 @@ from typing import Callable, Dict, List, Optional, Sequence, Tuple, Union
 import numpy as np
 
 from ..flags import SampleFlag
-from ..validation import SeawayInputError, as_float_array, require_in_range, require_nonnegative
+from ..validation import SeawayInputError, as_float_array, require_in_range, require_nonnegative, show
 from .combine import SampledSeaState, combine_samples
 from .discovery import Discovery, check_direction_convention, invert_variable_map
 from .geotiff import discover_geotiff
@@ -143,14 +143,14 @@ class SeaStateSource:
         if np.all(s.flags & int(SampleFlag.OUTSIDE_GRID)):
             raise SeawayInputError(
                 f"the route lies entirely outside the grid of {layer.file} variable "
-                f"{layer.file_variable!r} (grid extent {layer.grid.extent()}, {layer.grid.crs_label}; "
+                f"{show(layer.file_variable)} (grid extent {layer.grid.extent()}, {layer.grid.crs_label}; "
                 f"route lon {lon.min():g}..{lon.max():g}, lat {lat.min():g}..{lat.max():g})"
             )
         a, b = to_datetime64([layer.times_s[0], layer.times_s[-1]])
         ta, tb = to_datetime64([t.min(), t.max()])
         raise SeawayInputError(
             f"no route sample lies inside both the grid and the time range of {layer.file} variable "
-            f"{layer.file_variable!r} (forecast {a}Z..{b}Z; route times {ta}Z..{tb}Z)"
+            f"{show(layer.file_variable)} (forecast {a}Z..{b}Z; route times {ta}Z..{tb}Z)"
         )
 
 def _as_paths(paths: Union[str, os.PathLike, Sequence[Union[str, os.PathLike]]]) -> List[str]:
@@ -163,7 +163,7 @@ def _as_paths(paths: Union[str, os.PathLike, Sequence[Union[str, os.PathLike]]])
     out = []
     for p in items:
         if not isinstance(p, (str, os.PathLike)):
-            raise SeawayInputError(f"paths must be file names, got {p!r}")
+            raise SeawayInputError(f"paths must be file names, got {show(p)}")
         out.append(os.fspath(p))
     return out
 

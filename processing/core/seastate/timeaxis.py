@@ -20,7 +20,7 @@ from typing import Any, Optional, Sequence
 import numpy as np
 from numpy.typing import NDArray
 
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 
 _UNIT_SECONDS = {
     "second": 1, "seconds": 1, "sec": 1, "secs": 1, "s": 1,
@@ -42,7 +42,7 @@ _REF_RE = re.compile(
 def _parse_reference(text: str, where: str) -> np.datetime64:
     m = _REF_RE.match(text)
     if not m:
-        raise SeawayInputError(f"{where}: cannot read the reference date {text!r} of the time units")
+        raise SeawayInputError(f"{where}: cannot read the reference date {show(text)} of the time units")
     y, mo, d = int(m["y"]), int(m["mo"]), int(m["d"])
     h = int(m["h"] or 0)
     mi = int(m["mi"] or 0)
@@ -50,9 +50,9 @@ def _parse_reference(text: str, where: str) -> np.datetime64:
     try:
         base = np.datetime64(f"{y:04d}-{mo:02d}-{d:02d}", "s")
     except ValueError as exc:
-        raise SeawayInputError(f"{where}: invalid reference date {text!r}: {exc}") from None
+        raise SeawayInputError(f"{where}: invalid reference date {show(text)}: {exc}") from None
     if not (0 <= h < 24 and 0 <= mi < 60 and 0 <= sec < 61):
-        raise SeawayInputError(f"{where}: invalid reference time of day in {text!r}")
+        raise SeawayInputError(f"{where}: invalid reference time of day in {show(text)}")
     base = base + np.timedelta64(h * 3600 + mi * 60 + int(round(sec)), "s")
     tz = (m["tz"] or "").upper()
     if tz and tz not in ("Z", "UTC", "GMT"):
@@ -75,25 +75,25 @@ def decode_cf_time(
     parts = re.split(r"\s+since\s+", (units or "").strip(), maxsplit=1, flags=re.IGNORECASE)
     if len(parts) != 2 or not parts[0] or not parts[1]:
         raise SeawayInputError(
-            f"{where}: no usable time units (got {units!r}); expected '<unit> since <date>'"
+            f"{where}: no usable time units (got {show(units)}); expected '<unit> since <date>'"
         )
     cal = (calendar or "standard").strip().lower()
     if cal not in _OK_CALENDARS:
         raise SeawayInputError(
-            f"{where}: calendar {calendar!r} is not supported; only standard, gregorian and "
+            f"{where}: calendar {show(calendar)} is not supported; only standard, gregorian and "
             "proleptic_gregorian can be decoded to real UTC dates"
         )
     unit_word, ref_text = parts
     unit_key = unit_word.strip().lower()
     if unit_key not in _UNIT_SECONDS:
         raise SeawayInputError(
-            f"{where}: time unit {unit_word.strip()!r} in {units!r} is not supported "
+            f"{where}: time unit {show(unit_word.strip())} in {show(units)} is not supported "
             "(use seconds, minutes, hours or days; months/years have no fixed length in CF)"
         )
     ref = _parse_reference(ref_text, where)
     vals = np.asarray(values, dtype=float)
     if not np.all(np.isfinite(vals)):
-        raise SeawayInputError(f"{where}: time values contain NaN or infinity: {vals!r}")
+        raise SeawayInputError(f"{where}: time values contain NaN or infinity: {show(vals)}")
     secs = np.rint(vals * _UNIT_SECONDS[unit_key]).astype(np.int64)
     out = ref + secs.astype("timedelta64[s]")
     if cal in ("standard", "gregorian") and out.size and out.min() < _GREGORIAN_START:
@@ -107,7 +107,7 @@ def parse_grib_time(text: Optional[str], *, where: str) -> np.datetime64:
     """A GRIB time from GDAL metadata: bare epoch seconds (GDAL >= 3.6) or "  1704078000 sec UTC"."""
     m = re.match(r"^\s*(-?\d+)", text or "")
     if not m:
-        raise SeawayInputError(f"{where}: no valid time in GRIB metadata (got {text!r})")
+        raise SeawayInputError(f"{where}: no valid time in GRIB metadata (got {show(text)})")
     return np.datetime64(int(m.group(1)), "s")
 
 
@@ -116,7 +116,7 @@ def parse_iso_utc(text: str, *, where: str) -> np.datetime64:
     try:
         return _parse_reference(str(text).replace("T", " ", 1), where)
     except SeawayInputError:
-        raise SeawayInputError(f"{where}: {text!r} is not an ISO 8601 UTC date-time") from None
+        raise SeawayInputError(f"{where}: {show(text)} is not an ISO 8601 UTC date-time") from None
 
 
 def as_utc_seconds(name: str, times: Any) -> NDArray[np.int64]:
@@ -142,7 +142,7 @@ def as_utc_seconds(name: str, times: Any) -> NDArray[np.int64]:
                 raise SeawayInputError(f"{name}[{i}] is NaT (missing time)")
             out[i] = item.astype("datetime64[s]").astype(np.int64)
         else:
-            raise SeawayInputError(f"{name}[{i}] = {item!r} is not a date-time")
+            raise SeawayInputError(f"{name}[{i}] = {show(item)} is not a date-time")
     return out
 
 

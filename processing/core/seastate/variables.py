@@ -29,7 +29,7 @@ from dataclasses import dataclass
 from typing import Dict, Optional, Tuple
 
 from ..units import FOOT_M
-from ..validation import SeawayInputError
+from ..validation import SeawayInputError, show
 
 PARTITIONS: Tuple[str, ...] = ("wind", "swell1", "swell2", "swell3")
 """Partition names in their fixed output order."""
@@ -61,7 +61,7 @@ def canonical_kind(canonical: str) -> str:
         return CANONICAL_KIND[canonical]
     except KeyError:
         raise SeawayInputError(
-            f"unknown canonical sea-state variable {canonical!r}; known: {', '.join(CANONICAL_KIND)}"
+            f"unknown canonical sea-state variable {show(canonical)}; known: {', '.join(CANONICAL_KIND)}"
         ) from None
 
 
@@ -218,7 +218,7 @@ def unit_conversion(kind: str, unit_text: Optional[str], *, where: str) -> UnitC
     table = _UNITS[kind]
     if key not in table:
         raise SeawayInputError(
-            f"{where}: unit {raw!r} is not a known {kind} unit (expected one of "
+            f"{where}: unit {show(raw)} is not a known {kind} unit (expected one of "
             f"{', '.join(sorted(table))})"
         )
     factor = table[key]

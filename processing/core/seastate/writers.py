@@ -17,7 +17,7 @@ from typing import Callable, Mapping, Optional, Sequence, Union
 import numpy as np
 from numpy.typing import ArrayLike
 
-from ..validation import SeawayInputError, as_float_array
+from ..validation import SeawayInputError, as_float_array, show
 from .layer import gdal, gdal_call, osr, require_gdal
 from .timeaxis import as_utc_seconds
 from .variables import CF_STANDARD_NAMES, canonical_kind
@@ -100,12 +100,12 @@ def write_cf_netcdf(
     unit_word, _, ref = time_units.partition(" since ")
     factor = {"seconds": 1, "minutes": 60, "hours": 3600, "days": 86400}.get(unit_word.strip())
     if factor is None:
-        raise SeawayInputError(f"time_units {time_units!r} must be seconds/minutes/hours/days since ...")
+        raise SeawayInputError(f"time_units {show(time_units)} must be seconds/minutes/hours/days since ...")
     ref_s = as_utc_seconds("time_units reference", ref.strip().replace(" ", "T", 1))[0]
     tvals = (t_s - ref_s) / factor
 
     drv = gdal.GetDriverByName("netCDF")
-    ds = gdal_call(f"cannot create NetCDF file {path!r}", drv.CreateMultiDimensional, path)
+    ds = gdal_call(f"cannot create NetCDF file {show(path)}", drv.CreateMultiDimensional, path)
     rg = ds.GetRootGroup()
     nt, ny, nx = t_s.size, lat.size, lon.size
     dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, nt)
@@ -135,11 +135,11 @@ def write_cf_netcdf(
         sf = scale_factor.get(std) if isinstance(scale_factor, Mapping) else scale_factor
         ao = add_offset.get(std, 0.0) if isinstance(add_offset, Mapping) else add_offset
         if sf is not None:
-            v = gdal_call(f"{path}: cannot create variable {name!r}", rg.CreateMDArray, name, [dt, dy, dx],
+            v = gdal_call(f"{path}: cannot create variable {show(name)}", rg.CreateMDArray, name, [dt, dy, dx],
                           gdal.ExtendedDataType.Create(gdal.GDT_Int16))
             fill = -32767.0
         else:
-            v = gdal_call(f"{path}: cannot create variable {name!r}", rg.CreateMDArray, name, [dt, dy, dx],
+            v = gdal_call(f"{path}: cannot create variable {show(name)}", rg.CreateMDArray, name, [dt, dy, dx],
                           gdal.ExtendedDataType.Create(gdal.GDT_Float32))
             fill = float(fill_value)
         if std in CF_STANDARD_NAMES:
@@ -162,7 +162,7 @@ def write_cf_netcdf(
             step = np.asarray(step, dtype=float)
             if step.shape != (ny, nx):
                 raise SeawayInputError(
-                    f"variables[{std!r}] step {i} has shape {step.shape}, expected ({ny}, {nx})"
+                    f"variables[{show(std)}] step {i} has shape {step.shape}, expected ({ny}, {nx})"
                 )
             step = step[:, order]
             if sf is not None:
@@ -171,7 +171,7 @@ def write_cf_netcdf(
                 out = packed.astype(np.int16)
             else:
                 out = np.where(np.isfinite(step), step, fill).astype(np.float32)
-            gdal_call(f"{path}: cannot write {name!r} step {i}", v.WriteArray,
+            gdal_call(f"{path}: cannot write {show(name)} step {i}", v.WriteArray,
                       np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
         del v
     del rg, ds
@@ -229,15 +229,15 @@ def write_grib2(
     b = 0
     for name in names:
         if name not in _GRIB_CODES:
-            raise SeawayInputError(f"write_grib2: no GRIB2 code for variable {name!r}; known: {', '.join(_GRIB_CODES)}")
+            raise SeawayInputError(f"write_grib2: no GRIB2 code for variable {show(name)}; known: {', '.join(_GRIB_CODES)}")
         cat, num, ltype, lval = GRIB_PERPW_CODE if (name == "tp" and use_perpw_for_tp) else _GRIB_CODES[name]
         data = np.asarray(variables[name], dtype=float)
         if data.shape != (t_s.size, lat.size, lon.size):
-            raise SeawayInputError(f"variables[{name!r}] has shape {data.shape}, expected "
+            raise SeawayInputError(f"variables[{show(name)}] has shape {data.shape}, expected "
                                    f"({t_s.size}, {lat.size}, {lon.size})")
         if not np.all(np.isfinite(data)):
             raise SeawayInputError(
-                f"variables[{name!r}] holds NaN/inf: GRIB2 simple packing as written by GDAL 3.6 "
+                f"variables[{show(name)}] holds NaN/inf: GRIB2 simple packing as written by GDAL 3.6 "
                 "cannot keep missing values (complex packing failed here); fill them or write NetCDF"
             )
         for i in range(t_s.size):
@@ -246,7 +246,7 @@ def write_grib2(
             mem.GetRasterBand(b).WriteArray(arr)
             opts.append(f"BAND_{b}_PDS_TEMPLATE_ASSEMBLED_VALUES={cat} {num} 2 0 0 0 0 1 "
                         f"{int(round(hours[i]))} {ltype} 0 {lval} 255 0 0")
-    gdal_call(f"cannot write GRIB2 file {path!r}", gdal.GetDriverByName("GRIB").CreateCopy, path, mem,
+    gdal_call(f"cannot write GRIB2 file {show(path)}", gdal.GetDriverByName("GRIB").CreateCopy, path, mem,
               options=opts)
     return path
 
@@ -278,7 +278,7 @@ def write_geotiff_stack(
     if data.shape[1:] != (ys.size, xs.size):
         raise SeawayInputError(f"values has shape {data.shape}, expected (nt, {ys.size}, {xs.size})")
     srs = osr.SpatialReference()
-    gdal_call(f"crs {crs!r} is not a CRS GDAL knows", srs.SetFromUserInput, crs)
+    gdal_call(f"crs {show(crs)} is not a CRS GDAL knows", srs.SetFromUserInput, crs)
     mem = _mem_dataset(xs, ys, data.shape[0], srs.ExportToWkt(), gdal.GDT_Float32,
                        geographic=bool(srs.IsGeographic()))
     if variable in CF_STANDARD_NAMES:
@@ -303,7 +303,7 @@ def write_geotiff_stack(
         if write_times and t_s is not None:
             band.SetDescription(f"{np.datetime64(int(t_s[i]), 's')}Z")
     # band-interleaved tiles: a window of one time step is read without touching the other steps
-    gdal_call(f"cannot write GeoTIFF {path!r}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem,
+    gdal_call(f"cannot write GeoTIFF {show(path)}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem,
               options=["TILED=YES", "INTERLEAVE=BAND"])
     return path
 
@@ -323,7 +323,7 @@ def write_bathymetry_geotiff(
     (``elevation_positive_up``); ``write_positive`` adds the CF-style ``positive`` metadata item."""
     require_gdal()
     if convention not in ("depth_positive_down", "elevation_positive_up"):
-        raise SeawayInputError(f"convention must be depth_positive_down or elevation_positive_up, got {convention!r}")
+        raise SeawayInputError(f"convention must be depth_positive_down or elevation_positive_up, got {show(convention)}")
     lon = as_float_array("lon_deg", lon_deg).ravel()
     lat = as_float_array("lat_deg", lat_deg).ravel()
     data = np.asarray(values, dtype=float)
@@ -336,5 +336,5 @@ def write_bathymetry_geotiff(
     band.SetUnitType(units)
     if write_positive:
         mem.SetMetadataItem("positive", "down" if convention == "depth_positive_down" else "up")
-    gdal_call(f"cannot write GeoTIFF {path!r}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem)
+    gdal_call(f"cannot write GeoTIFF {show(path)}", gdal.GetDriverByName("GTiff").CreateCopy, path, mem)
     return path
