@@ -23,6 +23,7 @@ from pathlib import Path
 from typing import Dict, List, Optional, Sequence
 
 from .core.flags import CAUTION
+from .core.validation import show
 
 QGIS_PROCESS = "/usr/bin/qgis_process.bin"
 PACKAGE_NAME = "seaway_comfort"
@@ -91,56 +92,48 @@ def _style_depth(layer: object) -> None:
 def write_project(out_dir: Path, points: str, segments: str, bathymetry: str, report: str,
                   land: str = "") -> str:
     """A QGIS project with the styled outputs (QML applied) and the bathymetry underneath."""
+    from .standalone import run_with_qgis
+
+    return run_with_qgis(lambda: _write_project(out_dir, points, segments, bathymetry, report, land))
+
+
+def _write_project(out_dir: Path, points: str, segments: str, bathymetry: str, report: str,
+                   land: str) -> str:
     from qgis.PyQt.QtGui import QColor
-    from qgis.core import (
-        QgsApplication,
-        QgsCoordinateReferenceSystem,
-        QgsProject,
-        QgsRasterLayer,
-        QgsVectorLayer,
-    )
+    from qgis.core import QgsCoordinateReferenceSystem, QgsProject, QgsRasterLayer, QgsVectorLayer
 
-    own_app = None
-    if QgsApplication.instance() is None:
-        os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
-        own_app = QgsApplication([], False)
-        own_app.initQgis()
-    try:
-        from .styling import qml_path_for
+    from .styling import qml_path_for
 
-        project = QgsProject()
-        project.setCrs(QgsCoordinateReferenceSystem("EPSG:4326"))
-        project.setTitle("Seaway Comfort demo: Merrow Reach (invented scenario)")
-        layers = []
-        depth = QgsRasterLayer(bathymetry, "Depth (invented bathymetry, m)", "gdal")
-        if depth.isValid():
-            _style_depth(depth)
-            layers.append(depth)
-        if land and os.path.exists(land):
-            island = QgsVectorLayer(land, "Land (invented)", "ogr")
-            if island.isValid():
-                island.renderer().symbol().setColor(QColor("#d8c9a3"))
-                layers.append(island)
-        for path, name in ((segments, "Passage segments"), (points, "Passage samples")):
-            layer = QgsVectorLayer(path, name, "ogr")
-            if not layer.isValid():
-                raise RuntimeError(f"output {path!r} could not be opened")
-            qml = qml_path_for(path)
-            if os.path.exists(qml):
-                layer.loadNamedStyle(qml)
-            layers.append(layer)
-        for layer in layers:
-            project.addMapLayer(layer)
-        project.writeEntry("SeawayComfort", "/report", report)
-        project.writeEntry("SeawayComfort", "/caution", CAUTION)
-        target = str(out_dir / "seaway_demo.qgz")
-        if not project.write(target):
-            raise RuntimeError(f"could not write {target}: {project.error()}")
-        project.clear()
-        return target
-    finally:
-        if own_app is not None:
-            own_app.exitQgis()
+    project = QgsProject()
+    project.setCrs(QgsCoordinateReferenceSystem("EPSG:4326"))
+    project.setTitle("Seaway Comfort demo: Merrow Reach (invented scenario)")
+    layers = []
+    depth = QgsRasterLayer(bathymetry, "Depth (invented bathymetry, m)", "gdal")
+    if depth.isValid():
+        _style_depth(depth)
+        layers.append(depth)
+    if land and os.path.exists(land):
+        island = QgsVectorLayer(land, "Land (invented)", "ogr")
+        if island.isValid():
+            island.renderer().symbol().setColor(QColor("#d8c9a3"))
+            layers.append(island)
+    for path, name in ((segments, "Passage segments"), (points, "Passage samples")):
+        layer = QgsVectorLayer(path, name, "ogr")
+        if not layer.isValid():
+            raise RuntimeError(f"output {show(path)} could not be opened")
+        qml = qml_path_for(path)
+        if os.path.exists(qml):
+            layer.loadNamedStyle(qml)
+        layers.append(layer)
+    for layer in layers:
+        project.addMapLayer(layer)
+    project.writeEntry("SeawayComfort", "/report", report)
+    project.writeEntry("SeawayComfort", "/caution", CAUTION)
+    target = str(out_dir / "seaway_demo.qgz")
+    if not project.write(target):
+        raise RuntimeError(f"could not write {target}: {project.error()}")
+    project.clear()
+    return target
 
 
 def main(argv: Optional[List[str]] = None) -> int:
