@@ -49,10 +49,18 @@ FAST = settings(max_examples=200, deadline=None, suppress_health_check=[HealthCh
 @FAST
 @given(st.lists(periods, min_size=2, max_size=20, unique=True), depths)
 def test_wavelength_increases_with_period(ts: list, depth: float) -> None:
-    """[Airy] At fixed depth, L is strictly increasing in T."""
+    """[Airy] At fixed depth, L increases with T (dL/dT > 0 from omega^2 = g k tanh kh).
+
+    In floating point two periods a few ulps apart can give the same L, so the property is
+    stated as: never decreasing (to rounding), and strictly increasing wherever the periods
+    differ by more than 1e-9 relative (the solver's own tolerance is far below that).
+    """
     t = np.sort(np.array(ts))
     length = wavelength_m(t, depth)
-    assert np.all(np.diff(length) > 0)
+    step = np.diff(length)
+    assert np.all(step >= -1e-12 * length[1:])
+    distinct = np.diff(t) > 1e-9 * t[1:]
+    assert np.all(step[distinct] > 0)
 
 
 @FAST
