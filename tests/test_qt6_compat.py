@@ -101,11 +101,13 @@ UNSCOPED_MEMBERS: Dict[str, FrozenSet[str]] = {
 def plugin_sources() -> List[Path]:
     """Every .py file that ships with the plugin (tests and dev folders excluded)."""
     out = []
-    for path in sorted(ROOT.rglob("*.py")):
-        rel = path.relative_to(ROOT)
-        if rel.parts[0] in SKIP_TOP or "__pycache__" in rel.parts:
-            continue
-        out.append(path)
+    # walk only the shipped top-level entries: never descend into .build/ (a Debian chroot lives there)
+    tops = [p for p in ROOT.iterdir() if p.name not in SKIP_TOP and not p.name.startswith(".")]
+    for top in sorted(tops):
+        for path in sorted(top.rglob("*.py")) if top.is_dir() else [top]:
+            rel = path.relative_to(ROOT)
+            if path.suffix == ".py" and "__pycache__" not in rel.parts:
+                out.append(path)
     return out
 
 
