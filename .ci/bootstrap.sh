@@ -2,7 +2,8 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 # Install what Seaway Comfort needs on Debian 12 (run as root, or as a user with sudo):
 # Debian's QGIS and the numpy/scipy/pyproj/shapely/GDAL it is built against, then a venv made
-# with --system-site-packages for test-only tools. numpy/GDAL are NEVER pip-installed over
+# with --system-site-packages for test-only tools (.venv, or $SEAWAY_VENV: the chroot tests use
+# their own). numpy/GDAL are NEVER pip-installed over
 # Debian's (that breaks the compiled bindings): a constraints file pins them to Debian's versions.
 set -euo pipefail
 here="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -37,11 +38,12 @@ if [ "${#missing[@]}" -gt 0 ]; then
 fi
 
 PY=/usr/bin/python3
-stamp=.venv/.seaway-bootstrap
+VENV="${SEAWAY_VENV:-.venv}"
+stamp="$VENV/.seaway-bootstrap"
 want="$(printf '%s\n' "${VENV_PACKAGES[@]}" | sha1sum | cut -c1-12)"
-if [ ! -x .venv/bin/python ] || [ "$(cat "$stamp" 2>/dev/null)" != "$want" ]; then
-    echo "bootstrap: creating .venv (system site packages) with test tools"
-    "$PY" -m venv --system-site-packages .venv
+if [ ! -x "$VENV/bin/python" ] || [ "$(cat "$stamp" 2>/dev/null)" != "$want" ]; then
+    echo "bootstrap: creating $VENV (system site packages) with test tools"
+    "$PY" -m venv --system-site-packages "$VENV"
     cons="$(mktemp)"
     "$PY" - > "$cons" <<'PYEOF'
 import importlib
@@ -52,15 +54,15 @@ for mod, dist in (("numpy", "numpy"), ("scipy", "scipy"), ("pyproj", "pyproj"),
     except Exception:
         pass
 PYEOF
-    .venv/bin/python -m pip install -q --disable-pip-version-check -c "$cons" "${VENV_PACKAGES[@]}"
+    "$VENV/bin/python" -m pip install -q --disable-pip-version-check -c "$cons" "${VENV_PACKAGES[@]}"
     rm -f "$cons"
     echo "$want" > "$stamp"
 fi
 # pyproj inside a venv looks for PROJ data under the venv prefix: point it at Debian's.
-if [ -d /usr/share/proj ] && [ ! -e .venv/share/proj ]; then
-    mkdir -p .venv/share && ln -s /usr/share/proj .venv/share/proj
+if [ -d /usr/share/proj ] && [ ! -e "$VENV/share/proj" ]; then
+    mkdir -p "$VENV/share" && ln -s /usr/share/proj "$VENV/share/proj"
 fi
-.venv/bin/python - <<'PYEOF'
+"$VENV/bin/python" - <<'PYEOF'
 import numpy, osgeo, qgis.core, scipy, pyproj, shapely
 pyproj.CRS("EPSG:3857")  # PROJ database reachable
 print(f"bootstrap: ok (QGIS {qgis.core.Qgis.QGIS_VERSION}, numpy {numpy.__version__}, "
