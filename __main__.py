@@ -29,7 +29,7 @@ def main(argv: Optional[List[str]] = None) -> int:
 
         return int(demo_main(rest))
     if command == "seasonal":
-        from .processing.core.climate.cli import main as seasonal_main
+        from .processing.seasonal_cli import main as seasonal_main
 
         return int(seasonal_main(rest))
     return 2

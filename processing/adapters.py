@@ -24,7 +24,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime, QVariant
 
 from .core.flags import flag_codes_array
-from .core.passage import NOT_COMPUTED_CLASS, PassageResult
+from .core.passage.pipeline import NOT_COMPUTED_CLASS, PassageResult
 from .core.validation import show
 
 WGS84 = "EPSG:4326"
@@ -61,7 +61,7 @@ def datetime64_from_qdatetime(q: QDateTime, *, assume_utc: bool = True) -> np.da
 
 def datetime64_from_value(value: Any, *, what: str) -> Optional[np.datetime64]:
     """A UTC datetime64 from an attribute value (QDateTime, QDate, ISO text); None when NULL."""
-    from .core.passage import as_utc_datetime64
+    from .core.passage.pipeline import as_utc_datetime64
     from .core.validation import SeawayInputError
 
     if value is None or (isinstance(value, QVariant) and value.isNull()):

@@ -138,7 +138,7 @@ def _write_project(out_dir: Path, points: str, segments: str, bathymetry: str, r
 
 def main(argv: Optional[List[str]] = None) -> int:
     """Build and run the demo; 0 on success."""
-    from .core.demo_scenario import build_demo_scenario
+    from .core.demo.scenario import build_demo_scenario
 
     parser = argparse.ArgumentParser(prog="python -m seaway_comfort demo",
                                      description="Run the invented Merrow Reach demo passage.")

@@ -26,7 +26,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
-from .core.report import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .core.reports.passage import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 from .core.validation import show
 
 CLASS_FIELD = "comfort_class"
@@ -35,7 +35,7 @@ OUTLINE = "#3a3a3a"
 
 
 def _labels() -> Tuple[str, ...]:
-    from .core.comfort import COMFORT_CLASS_LABELS
+    from .core.comfort.indices import COMFORT_CLASS_LABELS
 
     return tuple(COMFORT_CLASS_LABELS)
 

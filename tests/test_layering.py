@@ -5,6 +5,9 @@
   only processing/core/seastate may use GDAL (osgeo).
 - Imports go one way: plugin -> processing (algorithms) -> processing/core. The core never
   reaches up into the algorithms or the plugin, the algorithms never into the plugin.
+- Inside the core, subpackages stand on floors and import only from lower floors (CORE_FLOORS):
+  base modules -> waves, vessel, seastate -> comfort, demo -> motions -> api -> passage ->
+  sweep, climate, routing -> reports. An algorithm never imports a sibling algorithm.
 - Inside the package every import of our own modules is relative: no absolute
   `seaway_comfort...` and no absolute `processing` / `plugin` (they would resolve to QGIS's
   own `processing` or to nothing, depending on sys.path).
@@ -63,6 +66,26 @@ def imports(path: Path, root: Path = ROOT) -> Iterator[Tuple[int, str, bool]]:
                 yield node.lineno, "seaway_comfort" + ("." + target if target else ""), True
 
 
+# Floor of each part of processing/core (a module may import only from a LOWER floor, or
+# from its own subpackage). Base modules sit on floor 0.
+CORE_FLOORS = {
+    "units": 0, "validation": 0, "flags": 0, "numerics": 0,
+    "waves": 1, "vessel": 1, "seastate": 1,
+    "comfort": 2, "demo": 2,
+    "motions": 3,
+    "api": 4,
+    "passage": 5,
+    "sweep": 6, "climate": 6, "routing": 6,
+    "reports": 7,
+}
+
+
+def core_part(module: str) -> str:
+    """'seaway_comfort.processing.core.waves.spectra' -> 'waves' ('' outside the core)."""
+    parts = module.split(".")
+    return parts[3] if parts[:3] == ["seaway_comfort", "processing", "core"] and len(parts) > 3 else ""
+
+
 SOURCES = package_sources()
 
 
@@ -95,7 +118,36 @@ def test_import_rules(path: Path, root: Path = ROOT):
                     problems.append(f"line {line}: core reaches outside the core: '{name}'")
             if (in_core or in_algorithms) and name.startswith("seaway_comfort.plugin"):
                 problems.append(f"line {line}: '{rel}' imports the GUI layer '{name}'")
+            problems.extend(floor_problems(rel, line, name))
     assert not problems, f"{rel}:\n" + "\n".join(problems)
+
+
+def floor_problems(rel: str, line: int, name: str) -> List[str]:
+    """Core floors and algorithm siblings, for one relative import ``name`` in file ``rel``."""
+    here = core_part("seaway_comfort." + rel[:-3].replace("/", "."))
+    there = core_part(name)
+    base = CORE_FLOORS.get(here) == 0 and CORE_FLOORS.get(there) == 0  # base modules share floor 0
+    if here and there and here != there and not base:
+        if there not in CORE_FLOORS or here not in CORE_FLOORS:
+            return [f"line {line}: core part '{here}' or '{there}' has no floor in CORE_FLOORS"]
+        if CORE_FLOORS[there] >= CORE_FLOORS[here]:
+            return [f"line {line}: core part '{here}' (floor {CORE_FLOORS[here]}) imports '{there}' "
+                    f"(floor {CORE_FLOORS[there]}): imports go down only"]
+    alg = "seaway_comfort.processing.algorithms."
+    face = rel == "processing/algorithms/__init__.py"  # the package lists its algorithms
+    if rel.startswith("processing/algorithms/") and name.startswith(alg) and not face:
+        sibling = name[len(alg):].split(".")[0]
+        if sibling not in ("base", "common", rel.split("/")[-1][:-3]):
+            return [f"line {line}: algorithm imports its sibling algorithm '{sibling}'"]
+    return []
+
+
+def test_floor_rules_catch_violations() -> None:
+    """An upward core import and a sibling-algorithm import are both reported."""
+    assert floor_problems("processing/core/waves/spectra.py", 1, "seaway_comfort.processing.core.passage.route")
+    assert not floor_problems("processing/core/passage/route.py", 1, "seaway_comfort.processing.core.waves.spectra")
+    assert floor_problems("processing/algorithms/departure_sweep.py", 1,
+                          "seaway_comfort.processing.algorithms.route_comfort")
 
 
 def test_rules_catch_violations(tmp_path):

@@ -79,7 +79,7 @@ def _advanced(p: QgsProcessingParameterDefinition) -> QgsProcessingParameterDefi
 def passage_parameters() -> List[QgsProcessingParameterDefinition]:
     """The input parameters of a passage computation, in dialog order."""
     tr = Tr.tr
-    from ..core.vessel import builtin_profile_names
+    from ..core.vessel.profile import builtin_profile_names
 
     names = builtin_profile_names()
     default_vessel = DEFAULT_VESSEL if DEFAULT_VESSEL in names else (names[0] if names else "")
@@ -170,7 +170,7 @@ def user_vessel_dir() -> Path:
 
 def resolve_vessel_spec(spec: str) -> Any:
     """A vessel profile from a built-in name, a user-profile name or a JSON file path."""
-    from ..core.vessel import builtin_profile_names, load_vessel_profile, resolve_vessel
+    from ..core.vessel.profile import builtin_profile_names, load_vessel_profile, resolve_vessel
 
     text = (spec or "").strip()
     if not text:
@@ -347,3 +347,45 @@ def read_route(
     if not legs:
         raise QgsProcessingException("ROUTE: no line could be read from the route layer")
     return legs, route_src
+
+
+def open_sources(settings: PassageSettings, feedback: Optional[Any]) -> List[Any]:
+    """Open every forecast file as one sea-state source (named from SOURCE_NAMES or the file)."""
+    from ..core.seastate import open_sea_state
+
+    sources = []
+    for i, path in enumerate(settings.sea_state_paths):
+        name = settings.source_names[i] if settings.source_names else None
+        try:
+            src = open_sea_state(path, source_name=name)
+        except SeawayInputError as exc:
+            raise QgsProcessingException(f"SEA_STATE {show(path)}: {exc}") from exc
+        except RuntimeError as exc:  # GDAL errors
+            raise QgsProcessingException(f"SEA_STATE {show(path)} could not be read: {exc}") from exc
+        for w in getattr(src, "warnings", ()) or ():
+            if feedback is not None:
+                feedback.pushWarning(f"{src.name}: {w}")
+        sources.append(src)
+    return sources
+
+
+def open_depth(settings: PassageSettings) -> Any:
+    from ..core.seastate import open_bathymetry
+
+    if not settings.depth_path:
+        return None
+    try:
+        return open_bathymetry(settings.depth_path)
+    except (SeawayInputError, RuntimeError) as exc:
+        raise QgsProcessingException(f"DEPTH {show(settings.depth_path)}: {exc}") from exc
+
+
+def flag_warning_lines(counts: Dict[str, int], n_total: int) -> List[str]:
+    """One log line per flag code: how many samples and why."""
+    from ..core.flags import FLAG_CODES, FLAG_EXPLANATIONS
+
+    by_code = {code: flag for flag, code in FLAG_CODES.items()}
+    return [
+        f"{code}: {n} of {n_total} samples - {FLAG_EXPLANATIONS[by_code[code]]}"
+        for code, n in sorted(counts.items(), key=lambda kv: -kv[1])
+    ]

@@ -162,7 +162,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         )
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
-        from ..core.sweep import CRITERION_LABELS, CRITERIA
+        from ..core.sweep.engine import CRITERION_LABELS, CRITERIA
 
         for p in common.passage_parameters():
             if p.name() not in NOT_SHARED:
@@ -216,7 +216,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         return adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
 
     def _window(self, parameters: Dict[str, Any], context: QgsProcessingContext) -> Any:
-        from ..core.sweep import MAX_DEPARTURES, departure_times
+        from ..core.sweep.engine import MAX_DEPARTURES, departure_times
 
         t0 = self._datetime(parameters, DEPART_FROM, context)
         t1 = self._datetime(parameters, DEPART_TO, context)
@@ -244,11 +244,10 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         import numpy as np
 
         from .. import adapters, styling
-        from ..core.passage import PassageCancelled, compute_passage
-        from ..core.report import ReportInputs
-        from ..core.sweep import CRITERIA, parse_speeds_kn, sweep_departures
-        from ..core.sweep_report import build_sweep_report, sweep_text_summary, write_sweep_html
-        from .route_comfort import flag_warning_lines, open_depth, open_sources
+        from ..core.passage.pipeline import PassageCancelled, compute_passage
+        from ..core.reports.passage import ReportInputs
+        from ..core.sweep.engine import CRITERIA, parse_speeds_kn, sweep_departures
+        from ..core.reports.sweep import build_sweep_report, sweep_text_summary, write_sweep_html
 
         feedback = feedback or QgsProcessingFeedback()
         settings = common.parse_passage_settings(self, parameters, context)
@@ -301,8 +300,8 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             f"Sweeping {deps.size} departures ({str(deps[0])[:16]} to {str(deps[-1])[:16]} UTC) x {len(speeds)} "
             f"speed(s) ({', '.join(f'{v:g}' for v in speeds)} kn) x {len(settings.sea_state_paths)} source(s) on "
             f"{show(leg.name)}; best = {criterion}, worst acceptable class {max_class}")
-        sources = open_sources(settings, feedback)
-        depth = open_depth(settings)
+        sources = common.open_sources(settings, feedback)
+        depth = common.open_depth(settings)
         method = settings.method or "table"
 
         def progress(fraction: float) -> bool:
@@ -397,7 +396,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         from ..core.flags import flag_counts
 
         counts = flag_counts(result.flags)
-        flag_lines = flag_warning_lines(counts, int(result.flags.size))
+        flag_lines = common.flag_warning_lines(counts, int(result.flags.size))
         warnings.extend(line.replace(" samples - ", " passages - ") for line in flag_lines)
         summary = sweep_text_summary(result)
         feedback.pushInfo(summary)

@@ -19,7 +19,7 @@ from qgis.core import (
 )
 
 from .base import SeawayAlgorithm
-from ..core.flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
+from ..core.flags import CAUTION
 from ..core.validation import SeawayInputError, show
 from . import common
 
@@ -28,37 +28,6 @@ OUTPUT_SEGMENTS = "OUTPUT_SEGMENTS"
 OUTPUT_REPORT = "OUTPUT_REPORT"
 SUMMARY = "SUMMARY"
 N_SAMPLES = "N_SAMPLES"
-
-
-def open_sources(settings: common.PassageSettings, feedback: Optional[QgsProcessingFeedback]) -> List[Any]:
-    """Open every forecast file as one sea-state source (named from SOURCE_NAMES or the file)."""
-    from ..core.seastate import open_sea_state
-
-    sources = []
-    for i, path in enumerate(settings.sea_state_paths):
-        name = settings.source_names[i] if settings.source_names else None
-        try:
-            src = open_sea_state(path, source_name=name)
-        except SeawayInputError as exc:
-            raise QgsProcessingException(f"SEA_STATE {show(path)}: {exc}") from exc
-        except RuntimeError as exc:  # GDAL errors
-            raise QgsProcessingException(f"SEA_STATE {show(path)} could not be read: {exc}") from exc
-        for w in getattr(src, "warnings", ()) or ():
-            if feedback is not None:
-                feedback.pushWarning(f"{src.name}: {w}")
-        sources.append(src)
-    return sources
-
-
-def open_depth(settings: common.PassageSettings) -> Any:
-    from ..core.seastate import open_bathymetry
-
-    if not settings.depth_path:
-        return None
-    try:
-        return open_bathymetry(settings.depth_path)
-    except (SeawayInputError, RuntimeError) as exc:
-        raise QgsProcessingException(f"DEPTH {show(settings.depth_path)}: {exc}") from exc
 
 
 def provenance_text(settings: common.PassageSettings, route_source: str) -> str:
@@ -75,15 +44,6 @@ def provenance_text(settings: common.PassageSettings, route_source: str) -> str:
         f"Spacing {settings.spacing_nm:g} NM, JONSWAP gamma {settings.gamma:g}, cos-2s s {settings.spread_s:g}"
         f"{', long-crested' if settings.long_crested else ''}. {CAUTION}"
     )
-
-
-def flag_warning_lines(counts: Dict[str, int], n_total: int) -> List[str]:
-    """One log line per flag code: how many samples and why."""
-    by_code = {code: flag for flag, code in FLAG_CODES.items()}
-    return [
-        f"{code}: {n} of {n_total} samples - {FLAG_EXPLANATIONS[by_code[code]]}"
-        for code, n in sorted(counts.items(), key=lambda kv: -kv[1])
-    ]
 
 
 class RouteComfortAlgorithm(SeawayAlgorithm):
@@ -142,8 +102,8 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback
     ) -> Dict[str, Any]:
         from .. import adapters, styling
-        from ..core.passage import PassageCancelled, compute_passage
-        from ..core.report import ReportInputs, build_report, text_summary, write_html
+        from ..core.passage.pipeline import PassageCancelled, compute_passage
+        from ..core.reports.passage import ReportInputs, build_report, text_summary, write_html
 
         feedback = feedback or QgsProcessingFeedback()
         settings = common.parse_passage_settings(self, parameters, context)
@@ -162,8 +122,8 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
                 "OUTPUT_POINTS, OUTPUT_SEGMENTS and OUTPUT_REPORT must be different files"
             )
 
-        sources = open_sources(settings, feedback)
-        depth = open_depth(settings)
+        sources = common.open_sources(settings, feedback)
+        depth = common.open_depth(settings)
         groups: List[Tuple[str, List[Any]]]
         if settings.source_mode == "compare" and len(sources) > 1:
             groups = [(s.name, [s]) for s in sources]
@@ -263,7 +223,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         import numpy as np
 
         counts = flag_counts(np.concatenate([r.flags for _, r in results])) if results else {}
-        for line in flag_warning_lines(counts, n_total):
+        for line in common.flag_warning_lines(counts, n_total):
             all_warnings.append(line)
         report = build_report(results, rinputs, warnings=all_warnings)
         if all_warnings:

@@ -69,7 +69,7 @@ def _advanced(p: QgsProcessingParameterDefinition) -> QgsProcessingParameterDefi
 
 def share_renderer() -> QgsGraduatedSymbolRenderer:
     """Graduated renderer on :data:`STYLE_FIELD` with the climate palette (our own colours)."""
-    from ..core.climate.report import SHARE_BOUNDS, SHARE_PALETTE
+    from ..core.reports.climate import SHARE_BOUNDS, SHARE_PALETTE
 
     edges = [0.0, *SHARE_BOUNDS, 1.0]
     ranges = []
@@ -159,7 +159,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         )
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
-        from ..core.vessel import builtin_profile_names
+        from ..core.vessel.profile import builtin_profile_names
 
         names = builtin_profile_names()
         default_vessel = common.DEFAULT_VESSEL if common.DEFAULT_VESSEL in names else (names[0] if names else "")
@@ -259,7 +259,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
 
         from .. import adapters, styling
         from ..core.climate import ClimateCancelled, compute_climate
-        from ..core.climate.report import climate_text_summary, write_climate_html
+        from ..core.reports.climate import climate_text_summary, write_climate_html
 
         feedback = feedback or QgsProcessingFeedback()
         s = self._settings(parameters, context)

@@ -14,7 +14,7 @@ e.g. ``import seaway_comfort``)::
 
     import numpy as np
     from seaway_comfort.processing.core.api import assess_motions
-    from seaway_comfort.processing.core.vessel import builtin_profile
+    from seaway_comfort.processing.core.vessel.profile import builtin_profile
 
     boat = builtin_profile("harbour_workboat_12m")
     res = assess_motions(boat, hs_m=[0.8, 1.2, 1.6], tp_s=[5.0, 6.0, 7.0],
@@ -33,18 +33,30 @@ from typing import Any, Dict, Optional, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .comfort import mean_abs_from_rms, comfort_class as _comfort_class, msi_percent
-from .criteria import evaluate_criteria
+from .comfort.indices import mean_abs_from_rms, comfort_class as _comfort_class, msi_percent
+from .comfort.criteria import evaluate_criteria
 from .flags import CAUTION, SampleFlag
-from .heading import relative_heading_deg
-from .rao_table import TableTransfer, load_rao_table
-from .response import MotionResponse, combine_quantities, motion_response, prepare_sea, validity_flags
-from .safety import circ1228_flags
-from .tables import ResponseTableSet, build_response_table_set
-from .transfer import ClosedFormTransfer
+from .waves.encounter import relative_heading_deg
+from .motions.rao_table import TableTransfer, load_rao_table
+from .motions.response import (
+    MotionResponse,
+    combine_quantities,
+    motion_response,
+    prepare_sea,
+    validity_flags,
+)
+from .comfort.guidance import circ1228_flags
+from .motions.tables import ResponseTableSet, build_response_table_set
+from .motions.closed_form import ClosedFormTransfer
 from .units import G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
-from .vessel import Station, VesselProfile
+from .validation import (
+    SeawayInputError,
+    as_float_array,
+    require_nonnegative,
+    require_positive,
+    show,
+)
+from .vessel.profile import Station, VesselProfile
 
 __all__ = ["SeaPartitions", "MotionAssessment", "assess_motions", "transfer_model", "AUTO_TABLE_MIN_SAMPLES"]
 

@@ -27,7 +27,10 @@ import numpy as np  # noqa: E402
 from seaway_comfort.processing.core import climate as C  # noqa: E402
 from seaway_comfort.processing.core.climate.backends import dask_available  # noqa: E402
 from seaway_comfort.processing.core.climate.engine import prepare_climate  # noqa: E402
-from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, write_seasonal_hindcast  # noqa: E402
+from seaway_comfort.processing.core.demo.synthetic_hindcast import (
+    SeasonalCycle,
+    write_seasonal_hindcast,
+)
 
 ROUTE_LON = [-20.0, -15.0, -10.5]
 ROUTE_LAT = [40.0, 43.5, 44.5]
@@ -40,7 +43,7 @@ def _route_for_500_samples(series):
     s = prepare_climate(ROUTE_LON, ROUTE_LAT, series, VESSEL, speed_kn=SPEED_KN, spacing_nm=1.0)
     length_nm = s.dist_m[-1] / 1852.0
     lo, hi = 0.5 * length_nm / 500, 2.0 * length_nm / 500
-    from seaway_comfort.processing.core.route import densify_route
+    from seaway_comfort.processing.core.passage.route import densify_route
 
     for _ in range(60):
         mid = 0.5 * (lo + hi)

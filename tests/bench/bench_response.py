@@ -31,11 +31,11 @@ import _pkg  # noqa: E402,F401  (exposes the checkout as `seaway_comfort`)
 
 import numpy as np  # noqa: E402
 
-from seaway_comfort.processing.core.heading import relative_heading_deg  # noqa: E402
-from seaway_comfort.processing.core.response import motion_response  # noqa: E402
-from seaway_comfort.processing.core.tables import build_response_table  # noqa: E402
-from seaway_comfort.processing.core.transfer import ClosedFormTransfer  # noqa: E402
-from seaway_comfort.processing.core.vessel import builtin_profile  # noqa: E402
+from seaway_comfort.processing.core.waves.encounter import relative_heading_deg  # noqa: E402
+from seaway_comfort.processing.core.motions.response import motion_response  # noqa: E402
+from seaway_comfort.processing.core.motions.tables import build_response_table  # noqa: E402
+from seaway_comfort.processing.core.motions.closed_form import ClosedFormTransfer  # noqa: E402
+from seaway_comfort.processing.core.vessel.profile import builtin_profile  # noqa: E402
 
 
 _CPU: List[float] = []

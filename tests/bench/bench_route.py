@@ -46,7 +46,7 @@ def _best_of(fn: Callable[[], object], repeat: int) -> float:
 
 
 def make_forecast(folder: str, days: int) -> str:
-    from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+    from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 
     lon = np.round(np.arange(-1.0, 10.0001, 0.1), 6)
     lat = np.round(np.arange(-1.0, 6.0001, 0.1), 6)
@@ -96,9 +96,9 @@ def main(argv: List[str]) -> int:
     repeat = 1 if args.quick else 3
     os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
-    from seaway_comfort.processing.core.passage import plan_passage, respond, sample_sea
+    from seaway_comfort.processing.core.passage.pipeline import plan_passage, respond, sample_sea
     from seaway_comfort.processing.core.seastate import open_sea_state
-    from seaway_comfort.processing.core.vessel import resolve_vessel
+    from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
     tmp = tempfile.mkdtemp(prefix="seaway_bench_route_")
     try:

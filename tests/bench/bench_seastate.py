@@ -31,7 +31,7 @@ import _pkg  # noqa: E402,F401  (exposes the checkout as `seaway_comfort`)
 import numpy as np  # noqa: E402
 
 from seaway_comfort.processing.core.seastate import open_sea_state  # noqa: E402
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf, write_geotiff_stack  # noqa: E402
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf, write_geotiff_stack  # noqa: E402
 
 T0 = np.datetime64("2031-01-05T00:00:00", "s")  # invented scenario
 

@@ -54,7 +54,7 @@ def _best_of(fn: Callable[[], object], repeat: int) -> float:
 
 def make_forecast(path: str, days: int, phase: float) -> str:
     """A smooth invented sea: a swell slowly varying in space and time; phase shifts it in time."""
-    from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+    from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 
     lon = np.round(np.arange(-1.0, 3.0001, 0.1), 6)
     lat = np.round(np.arange(-0.5, 2.5001, 0.1), 6)
@@ -81,10 +81,10 @@ def main() -> None:
     from geographiclib.geodesic import Geodesic
 
     from seaway_comfort.processing.core import api as _api
-    from seaway_comfort.processing.core.passage import compute_passage
+    from seaway_comfort.processing.core.passage.pipeline import compute_passage
     from seaway_comfort.processing.core.seastate import open_sea_state
-    from seaway_comfort.processing.core.sweep import sweep_departures
-    from seaway_comfort.processing.core.vessel import resolve_vessel
+    from seaway_comfort.processing.core.sweep.engine import sweep_departures
+    from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
     folder = tempfile.mkdtemp(prefix="seaway_bench_sweep_")
     try:

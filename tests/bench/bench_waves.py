@@ -24,11 +24,8 @@ import _pkg  # noqa: E402,F401  (exposes the checkout as `seaway_comfort`)
 import numpy as np  # noqa: E402
 from scipy.optimize import brentq  # noqa: E402
 
-from seaway_comfort.processing.core.dispersion import wavenumber_rad_m  # noqa: E402
-from seaway_comfort.processing.core.spectra import (  # noqa: E402
-    frequency_grid_rad_s,
-    jonswap_s_m2_s_rad,
-)
+from seaway_comfort.processing.core.waves.dispersion import wavenumber_rad_m  # noqa: E402
+from seaway_comfort.processing.core.waves.spectra import frequency_grid_rad_s, jonswap_s_m2_s_rad
 from seaway_comfort.processing.core.units import G_STANDARD_M_S2  # noqa: E402
 
 

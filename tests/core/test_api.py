@@ -10,12 +10,16 @@ import numpy as np
 import pytest
 
 from seaway_comfort.processing.core.api import MotionAssessment, SeaPartitions, assess_motions
-from seaway_comfort.processing.core.comfort import COMFORT_CLASS_LABELS, mean_abs_from_rms, msi_percent
-from seaway_comfort.processing.core.criteria import NORDFORSK_TASKS
+from seaway_comfort.processing.core.comfort.indices import (
+    COMFORT_CLASS_LABELS,
+    mean_abs_from_rms,
+    msi_percent,
+)
+from seaway_comfort.processing.core.comfort.criteria import NORDFORSK_TASKS
 from seaway_comfort.processing.core.flags import CAUTION, SampleFlag
 from seaway_comfort.processing.core.units import KNOT_M_S
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import builtin_profile
+from seaway_comfort.processing.core.vessel.profile import builtin_profile
 
 BOAT = builtin_profile("harbour_workboat_12m")
 
@@ -146,7 +150,7 @@ def test_profile_with_rao_table_uses_it(tmp_path):
          "beam_m": 6.0, "draught_m": 1.5, "block_coeff": 0.5, "gm_m": 1.0, "rao_table": "unit.csv",
          "stations": [{"name": "s", "x_m": 0.0}]}
     (tmp_path / "unit.json").write_text(json.dumps(d))
-    from seaway_comfort.processing.core.vessel import load_vessel_profile
+    from seaway_comfort.processing.core.vessel.profile import load_vessel_profile
 
     prof = load_vessel_profile(tmp_path / "unit.json")
     for method in ("exact", "table"):

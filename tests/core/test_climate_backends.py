@@ -16,7 +16,10 @@ import pytest
 
 from seaway_comfort.processing.core import climate as C
 from seaway_comfort.processing.core.climate.backends import dask_available, python_executable
-from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, write_seasonal_hindcast
+from seaway_comfort.processing.core.demo.synthetic_hindcast import (
+    SeasonalCycle,
+    write_seasonal_hindcast,
+)
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 FIELDS = ("class_share", "ok_share", "exceed_share", "valid_steps", "missing_steps", "route_class_share",

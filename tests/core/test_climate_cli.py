@@ -19,9 +19,12 @@ import numpy as np
 import pytest
 
 from seaway_comfort.processing.core import climate as C
-from seaway_comfort.processing.core.climate.cli import main, parse_lonlat, read_route
-from seaway_comfort.processing.core.climate.report import render_climate_html, share_bin
-from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, write_seasonal_hindcast
+from seaway_comfort.processing.seasonal_cli import main, parse_lonlat, read_route
+from seaway_comfort.processing.core.reports.climate import render_climate_html, share_bin
+from seaway_comfort.processing.core.demo.synthetic_hindcast import (
+    SeasonalCycle,
+    write_seasonal_hindcast,
+)
 from seaway_comfort.processing.core.flags import CAUTION
 from seaway_comfort.processing.core.validation import SeawayInputError
 

@@ -17,9 +17,15 @@ from scipy.interpolate import RegularGridInterpolator
 
 from seaway_comfort.processing.core import climate as C
 from seaway_comfort.processing.core.climate.hindcast import point_weights, read_point_values
-from seaway_comfort.processing.core.climate.synthetic import (DIR_NAME, HS_NAME, TP_NAME, SeasonalCycle,
-                                                              step_times_utc, write_seasonal_hindcast)
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+from seaway_comfort.processing.core.demo.synthetic_hindcast import (
+    DIR_NAME,
+    HS_NAME,
+    TP_NAME,
+    SeasonalCycle,
+    step_times_utc,
+    write_seasonal_hindcast,
+)
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 LON = np.arange(-10.0, -5.99, 0.5)

@@ -35,13 +35,21 @@ from geographiclib.geodesic import Geodesic
 from seaway_comfort.processing.core import climate as C
 from seaway_comfort.processing.core.api import assess_motions, transfer_model
 from seaway_comfort.processing.core.climate.engine import classify_sea, prepare_climate
-from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, seasonal_hs_m, write_seasonal_hindcast
-from seaway_comfort.processing.core.comfort import comfort_class, mean_abs_from_rms, msi_percent
-from seaway_comfort.processing.core.criteria import evaluate_criteria
+from seaway_comfort.processing.core.demo.synthetic_hindcast import (
+    SeasonalCycle,
+    seasonal_hs_m,
+    write_seasonal_hindcast,
+)
+from seaway_comfort.processing.core.comfort.indices import (
+    comfort_class,
+    mean_abs_from_rms,
+    msi_percent,
+)
+from seaway_comfort.processing.core.comfort.criteria import evaluate_criteria
 from seaway_comfort.processing.core.flags import CAUTION
-from seaway_comfort.processing.core.tables import build_response_table
+from seaway_comfort.processing.core.motions.tables import build_response_table
 from seaway_comfort.processing.core.units import KNOT_M_S
-from seaway_comfort.processing.core.vessel import resolve_vessel
+from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
 VESSEL = "coastal_survey_35m"
 STATION = "bridge"

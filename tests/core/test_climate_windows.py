@@ -10,7 +10,11 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core.climate.windows import departure_status, merge_waits, waiting_partial
+from seaway_comfort.processing.core.climate.windows import (
+    departure_status,
+    merge_waits,
+    waiting_partial,
+)
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 

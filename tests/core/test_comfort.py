@@ -12,7 +12,7 @@ import numpy as np
 import pytest
 from scipy.stats import norm
 
-from seaway_comfort.processing.core.comfort import (
+from seaway_comfort.processing.core.comfort.indices import (
     COMFORT_CLASS_DESCRIPTIONS,
     COMFORT_CLASS_LABELS,
     comfort_class,

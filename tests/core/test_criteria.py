@@ -9,7 +9,7 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core.criteria import NORDFORSK_TASKS, evaluate_criteria
+from seaway_comfort.processing.core.comfort.criteria import NORDFORSK_TASKS, evaluate_criteria
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 G = 9.80665

@@ -15,7 +15,7 @@ import numpy as np
 import pytest
 from osgeo import gdal
 
-from seaway_comfort.processing.core import demo_scenario as ds
+from seaway_comfort.processing.core.demo import scenario as ds
 
 gdal.UseExceptions()
 HS_STD = "sea_surface_wave_significant_height"

@@ -18,7 +18,7 @@ import numpy as np
 import pytest
 from scipy.optimize import brentq
 
-from seaway_comfort.processing.core.dispersion import (
+from seaway_comfort.processing.core.waves.dispersion import (
     WaveKinematics,
     group_speed_m_s,
     phase_speed_m_s,

@@ -18,8 +18,8 @@ import math
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core.dispersion import wave_kinematics, wavenumber_rad_m
-from seaway_comfort.processing.core.heading import (
+from seaway_comfort.processing.core.waves.dispersion import wave_kinematics, wavenumber_rad_m
+from seaway_comfort.processing.core.waves.encounter import (
     EncounterPeriod,
     cos_deg,
     encounter_frequency_rad_s,

@@ -20,13 +20,13 @@ import numpy as np
 import pytest
 from geographiclib.geodesic import Geodesic
 
-from seaway_comfort.processing.core import passage
+from seaway_comfort.processing.core.passage import pipeline as passage
 from seaway_comfort.processing.core.flags import SampleFlag
 from seaway_comfort.processing.core.seastate import open_bathymetry, open_sea_state
-from seaway_comfort.processing.core.seastate.writers import write_bathymetry_geotiff, write_cf_netcdf
+from seaway_comfort.processing.core.demo.writers import write_bathymetry_geotiff, write_cf_netcdf
 from seaway_comfort.processing.core.units import G_STANDARD_M_S2, KNOT_M_S
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import resolve_vessel
+from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
 HS = "sea_surface_wave_significant_height"
 TP = "sea_surface_wave_period_at_variance_spectral_density_maximum"
@@ -127,8 +127,11 @@ def test_head_seas_value_from_encounter_table(uniform_source, profile):
 def test_pipeline_keeps_core_numbers(uniform_source, profile):
     """Wavelength, heading, encounter and motions equal the core functions called directly."""
     from seaway_comfort.processing.core.api import assess_motions
-    from seaway_comfort.processing.core.dispersion import wave_kinematics
-    from seaway_comfort.processing.core.heading import encounter_period, relative_heading_deg
+    from seaway_comfort.processing.core.waves.dispersion import wave_kinematics
+    from seaway_comfort.processing.core.waves.encounter import (
+        encounter_period,
+        relative_heading_deg,
+    )
 
     r = _run(uniform_source, profile, [0.0, 0.5, 0.5], [0.0, 0.3, 0.8], speed_kn=8.0, spacing_nm=3.0)
     assert r.computed.all()
@@ -200,7 +203,7 @@ def test_flagged_samples_are_kept_with_nan(uniform_source, profile):
 
 def test_msdv_steady_motion_iso2631(uniform_source, profile):
     """Uniform sea, straight leg: MSDV at arrival = a_w,rms * sqrt(T) (ISO 2631-1 Annex D)."""
-    from seaway_comfort.processing.core.comfort import vomiting_share_pct
+    from seaway_comfort.processing.core.comfort.indices import vomiting_share_pct
 
     r = _run(uniform_source, profile, [0.0, 0.0], [0.0, 1.5], speed_kn=10.0, spacing_nm=1.0)
     aw = r.vacc_wf_rms_m_s2

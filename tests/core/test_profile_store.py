@@ -20,7 +20,7 @@ from seaway_comfort.plugin.profile_store import (
     vessel_folder,
 )
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import (
+from seaway_comfort.processing.core.vessel.profile import (
     FORMAT_NAME,
     Station,
     VesselProfile,

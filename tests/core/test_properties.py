@@ -19,20 +19,20 @@ from geographiclib.geodesic import Geodesic
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from seaway_comfort.processing.core.dispersion import (
+from seaway_comfort.processing.core.waves.dispersion import (
     solve_kh,
     wave_kinematics,
     wavelength_m,
     wavenumber_rad_m,
 )
-from seaway_comfort.processing.core.heading import (
+from seaway_comfort.processing.core.waves.encounter import (
     encounter_frequency_rad_s,
     encounter_period,
     fold_heading_deg,
     relative_heading_deg,
 )
-from seaway_comfort.processing.core.route import densify_route
-from seaway_comfort.processing.core.spectra import (
+from seaway_comfort.processing.core.passage.route import densify_route
+from seaway_comfort.processing.core.waves.spectra import (
     direction_grid,
     frequency_grid_rad_s,
     jonswap_s_m2_s_rad,

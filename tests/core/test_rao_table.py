@@ -13,11 +13,11 @@ import numpy as np
 import pytest
 from scipy.interpolate import RegularGridInterpolator
 
-from seaway_comfort.processing.core.rao_table import TableTransfer, load_rao_table
-from seaway_comfort.processing.core.response import motion_response
-from seaway_comfort.processing.core.transfer import ClosedFormTransfer
+from seaway_comfort.processing.core.motions.rao_table import TableTransfer, load_rao_table
+from seaway_comfort.processing.core.motions.response import motion_response
+from seaway_comfort.processing.core.motions.closed_form import ClosedFormTransfer
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import Station
+from seaway_comfort.processing.core.vessel.profile import Station
 
 HEADER = "period_s,heading_deg,heave_m_per_m,pitch_deg_per_m,roll_deg_per_m"
 

@@ -17,9 +17,9 @@ from html.parser import HTMLParser
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core import report as rp
+from seaway_comfort.processing.core.reports import passage as rp
 from seaway_comfort.processing.core.flags import CAUTION, SampleFlag
-from seaway_comfort.processing.core.passage import NOT_COMPUTED_CLASS, PassageResult
+from seaway_comfort.processing.core.passage.pipeline import NOT_COMPUTED_CLASS, PassageResult
 
 VOID = {"area", "base", "br", "col", "embed", "hr", "img", "input", "link", "meta", "source", "track", "wbr"}
 EVIL = '<script>alert("x")</script><img src=x onerror=alert(1)>'

@@ -11,13 +11,18 @@ import math
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core.comfort import mean_abs_from_rms, msdv_m_s15, msi_percent, vomiting_share_pct
+from seaway_comfort.processing.core.comfort.indices import (
+    mean_abs_from_rms,
+    msdv_m_s15,
+    msi_percent,
+    vomiting_share_pct,
+)
 from seaway_comfort.processing.core.numerics import trapezoid_weights
-from seaway_comfort.processing.core.response import motion_response, unit_moments
-from seaway_comfort.processing.core.spectra import FrequencyGrid
-from seaway_comfort.processing.core.transfer import ClosedFormTransfer
+from seaway_comfort.processing.core.motions.response import motion_response, unit_moments
+from seaway_comfort.processing.core.waves.spectra import FrequencyGrid
+from seaway_comfort.processing.core.motions.closed_form import ClosedFormTransfer
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import Station, builtin_profile
+from seaway_comfort.processing.core.vessel.profile import Station, builtin_profile
 
 G = 9.81
 # [D] values (independent implementations of JMO 2004 + DNV-RP-C205 JONSWAP + the encounter-domain

@@ -21,7 +21,7 @@ import numpy as np
 import pytest
 from geographiclib.geodesic import Geodesic
 
-from seaway_comfort.processing.core.route import (
+from seaway_comfort.processing.core.passage.route import (
     RouteSamples,
     arrival_times_utc,
     densify_route,

@@ -12,7 +12,7 @@ import numpy as np
 import pytest
 
 from seaway_comfort.processing.core.flags import SampleFlag
-from seaway_comfort.processing.core.safety import (
+from seaway_comfort.processing.core.comfort.guidance import (
     circ1228_flags,
     high_wave_attack_mask,
     period_ratio_mask,

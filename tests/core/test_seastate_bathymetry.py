@@ -12,7 +12,7 @@ import pytest
 
 from seaway_comfort.processing.core.flags import SampleFlag
 from seaway_comfort.processing.core.seastate import open_bathymetry
-from seaway_comfort.processing.core.seastate.writers import write_bathymetry_geotiff
+from seaway_comfort.processing.core.demo.writers import write_bathymetry_geotiff
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 LON = np.round(np.arange(-5.0, 5.001, 0.5), 6)

@@ -15,7 +15,11 @@ from pyproj import Transformer
 
 from seaway_comfort.processing.core.flags import SampleFlag
 from seaway_comfort.processing.core.seastate import open_sea_state
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf, write_geotiff_stack, write_grib2
+from seaway_comfort.processing.core.demo.writers import (
+    write_cf_netcdf,
+    write_geotiff_stack,
+    write_grib2,
+)
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 T0 = np.datetime64("2025-02-01T00:00:00", "s")

@@ -16,7 +16,7 @@ from osgeo import gdal
 from seaway_comfort.processing.core.flags import SampleFlag
 from seaway_comfort.processing.core.seastate import describe_file, open_sea_state
 from seaway_comfort.processing.core.seastate.grib import identify_band
-from seaway_comfort.processing.core.seastate.writers import write_grib2
+from seaway_comfort.processing.core.demo.writers import write_grib2
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 LON = np.arange(0.0, 360.0, 5.0)     # 0..355, GDAL re-wraps to -180..175 on read
@@ -182,7 +182,7 @@ def test_writer_refuses_missing_values(tmp_path):
 def test_regional_grid_across_antimeridian(tmp_path, fmt):
     # a Pacific grid 150E..150W; the field is linear in the eastward distance from 150E, so a route
     # crossing 180 must see it continue smoothly (the grid's own 360-degree window, not a wrap)
-    from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+    from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 
     lon = np.arange(150.0, 210.01, 1.0)
     lat = np.arange(10.0, -10.01, -1.0)

@@ -11,8 +11,12 @@ import pytest
 from osgeo import gdal
 
 from seaway_comfort.processing.core.seastate import open_sea_state
-from seaway_comfort.processing.core.seastate.grid import GridGeometry, great_circle_km, read_window_for
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+from seaway_comfort.processing.core.seastate.grid import (
+    GridGeometry,
+    great_circle_km,
+    read_window_for,
+)
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 

@@ -16,7 +16,7 @@ from scipy.interpolate import RegularGridInterpolator
 
 from seaway_comfort.processing.core.flags import SampleFlag
 from seaway_comfort.processing.core.seastate import describe_file, open_sea_state
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 HS = "sea_surface_wave_significant_height"

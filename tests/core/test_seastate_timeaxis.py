@@ -14,7 +14,12 @@ import numpy as np
 import pytest
 
 from seaway_comfort.processing.core.seastate.timeaxis import (
-    as_utc_seconds, decode_cf_time, parse_grib_time, parse_iso_utc, require_increasing)
+    as_utc_seconds,
+    decode_cf_time,
+    parse_grib_time,
+    parse_iso_utc,
+    require_increasing,
+)
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 

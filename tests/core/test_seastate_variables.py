@@ -12,7 +12,11 @@ from scipy import integrate
 
 from seaway_comfort.processing.core.seastate import derived
 from seaway_comfort.processing.core.seastate.variables import (
-    CF_STANDARD_NAMES, GRIB_WAVE_PARAMETERS, grib_canonical, unit_conversion)
+    CF_STANDARD_NAMES,
+    GRIB_WAVE_PARAMETERS,
+    grib_canonical,
+    unit_conversion,
+)
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 # WMO Manual on Codes, Vol. I.2, FM 92 GRIB2, Code table 4.2, discipline 10, category 0 (waves):

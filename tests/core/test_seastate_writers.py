@@ -11,8 +11,12 @@ import numpy as np
 import pytest
 from osgeo import gdal
 
-from seaway_comfort.processing.core.seastate.writers import (
-    write_bathymetry_geotiff, write_cf_netcdf, write_geotiff_stack, write_grib2)
+from seaway_comfort.processing.core.demo.writers import (
+    write_bathymetry_geotiff,
+    write_cf_netcdf,
+    write_geotiff_stack,
+    write_grib2,
+)
 from seaway_comfort.processing.core.validation import SeawayInputError
 
 LON = np.arange(0.0, 10.01, 2.0)

@@ -26,7 +26,7 @@ from scipy import integrate
 from scipy.special import gamma as gamma_fn
 
 from seaway_comfort.processing.core.numerics import trapezoid, trapezoid_weights
-from seaway_comfort.processing.core.spectra import (
+from seaway_comfort.processing.core.waves.spectra import (
     DirectionGrid,
     FrequencyGrid,
     cos2s_spreading_per_rad,

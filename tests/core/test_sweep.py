@@ -22,15 +22,15 @@ import numpy as np
 import pytest
 from geographiclib.geodesic import Geodesic
 
-from seaway_comfort.processing.core import sweep
+from seaway_comfort.processing.core.sweep import engine as sweep
 from seaway_comfort.processing.core.api import assess_motions
 from seaway_comfort.processing.core.flags import CAUTION, SampleFlag
-from seaway_comfort.processing.core.passage import PassageCancelled, compute_passage
+from seaway_comfort.processing.core.passage.pipeline import PassageCancelled, compute_passage
 from seaway_comfort.processing.core.seastate import open_sea_state
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 from seaway_comfort.processing.core.units import KNOT_M_S, NAUTICAL_MILE_M
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import resolve_vessel
+from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
 HS = "sea_surface_wave_significant_height"
 TP = "sea_surface_wave_period_at_variance_spectral_density_maximum"

@@ -16,12 +16,13 @@ from html.parser import HTMLParser
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core import sweep, sweep_report as sr
+from seaway_comfort.processing.core.sweep import engine as sweep
+from seaway_comfort.processing.core.reports import sweep as sr
 from seaway_comfort.processing.core.flags import CAUTION
-from seaway_comfort.processing.core.report import COMFORT_PALETTE, ReportInputs
+from seaway_comfort.processing.core.reports.passage import COMFORT_PALETTE, ReportInputs
 from seaway_comfort.processing.core.seastate import open_sea_state
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf
-from seaway_comfort.processing.core.vessel import resolve_vessel
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
+from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
 VOID = {"area", "base", "br", "col", "embed", "hr", "img", "input", "link", "meta", "source", "track", "wbr"}
 EVIL = '<script>alert("x")</script>&<b>'

@@ -9,12 +9,15 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core.heading import relative_heading_deg
-from seaway_comfort.processing.core.response import motion_response
-from seaway_comfort.processing.core.tables import build_response_table, build_response_table_set
-from seaway_comfort.processing.core.transfer import ClosedFormTransfer
+from seaway_comfort.processing.core.waves.encounter import relative_heading_deg
+from seaway_comfort.processing.core.motions.response import motion_response
+from seaway_comfort.processing.core.motions.tables import (
+    build_response_table,
+    build_response_table_set,
+)
+from seaway_comfort.processing.core.motions.closed_form import ClosedFormTransfer
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import builtin_profile
+from seaway_comfort.processing.core.vessel.profile import builtin_profile
 
 FIELDS = ("heave_rms_m", "pitch_rms_deg", "roll_rms_deg", "heave_tz_s", "pitch_tz_s", "roll_tz_s",
           "vacc_rms_m_s2", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "vacc_omega_rad_s")
@@ -103,8 +106,8 @@ def test_bad_grids():
 
 def test_full_circle_rao_table_uses_headings_0_to_360():
     # An RAO table without port/starboard symmetry (headings to 345 deg) must not be folded.
-    from seaway_comfort.processing.core.rao_table import TableTransfer, rao_table_from_rows
-    from seaway_comfort.processing.core.vessel import Station
+    from seaway_comfort.processing.core.motions.rao_table import TableTransfer, rao_table_from_rows
+    from seaway_comfort.processing.core.vessel.profile import Station
 
     header = ["omega_rad_s", "heading_deg", "heave_m_per_m", "pitch_deg_per_m", "roll_deg_per_m"]
     rows = []

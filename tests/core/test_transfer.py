@@ -9,10 +9,10 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from seaway_comfort.processing.core.transfer import (
+from seaway_comfort.processing.core.vessel.roll_period import imo_roll_period_s
+from seaway_comfort.processing.core.motions.closed_form import (
     ClosedFormTransfer,
     effective_slope_factor,
-    imo_roll_period_s,
     jmo_heave_pitch,
     jmo_validity_mask,
     roll_transfer_rad_per_m,

@@ -10,9 +10,10 @@ import json
 
 import pytest
 
-from seaway_comfort.processing.core import criteria, vessel
+from seaway_comfort.processing.core.comfort import criteria
+from seaway_comfort.processing.core.vessel import profile as vessel
 from seaway_comfort.processing.core.validation import SeawayInputError
-from seaway_comfort.processing.core.vessel import (
+from seaway_comfort.processing.core.vessel.profile import (
     Station,
     VesselProfile,
     builtin_profile,

@@ -24,8 +24,8 @@ qgis = pytest.importorskip("qgis")
 from geographiclib.geodesic import Geodesic  # noqa: E402
 
 from seaway_comfort.processing.core.seastate import open_sea_state  # noqa: E402
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf  # noqa: E402
-from seaway_comfort.processing.core.vessel import resolve_vessel  # noqa: E402
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf  # noqa: E402
+from seaway_comfort.processing.core.vessel.profile import resolve_vessel  # noqa: E402
 
 ALG = "seawaycomfort:departuresweep"
 HS = "sea_surface_wave_significant_height"
@@ -125,7 +125,7 @@ def _num(v):
 
 
 def _core(seas, **kw):
-    from seaway_comfort.processing.core.sweep import sweep_departures
+    from seaway_comfort.processing.core.sweep.engine import sweep_departures
 
     srcs = [open_sea_state(p, source_name=n) for p, n in zip(seas, ("model A", "model B"))]
     try:

@@ -16,7 +16,7 @@ qgis = pytest.importorskip("qgis")
 
 from osgeo import gdal  # noqa: E402
 
-from seaway_comfort.processing.core import demo_scenario as ds  # noqa: E402
+from seaway_comfort.processing.core.demo import scenario as ds  # noqa: E402
 from seaway_comfort.processing.core.flags import CAUTION  # noqa: E402
 
 ALG = "seawaycomfort:describeseastate"

@@ -16,7 +16,7 @@ import pytest
 pytestmark = pytest.mark.qgis
 qgis = pytest.importorskip("qgis")
 
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf  # noqa: E402
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf  # noqa: E402
 
 HS = "sea_surface_wave_significant_height"
 TP = "sea_surface_wave_period_at_variance_spectral_density_maximum"
@@ -50,7 +50,7 @@ def test_rendered_points_show_comfort_classes(seaway_provider, ramp_sea, tmp_pat
     from qgis.PyQt.QtCore import QSize
     from qgis.PyQt.QtGui import QColor
 
-    from seaway_comfort.processing.core.report import COMFORT_PALETTE
+    from seaway_comfort.processing.core.reports.passage import COMFORT_PALETTE
 
     route = tmp_path / "route.geojson"
     route.write_text('{"type":"FeatureCollection","features":[{"type":"Feature","properties":{},'

@@ -29,7 +29,7 @@ from seaway_comfort.plugin import translation  # noqa: E402
 from seaway_comfort.plugin.profile_store import ProfileStore  # noqa: E402
 from seaway_comfort.plugin.vessel_manager import VesselManagerDialog  # noqa: E402
 from seaway_comfort.processing.core.flags import CAUTION  # noqa: E402
-from seaway_comfort.processing.core.vessel import BUILTIN_DIR, builtin_profile_names  # noqa: E402
+from seaway_comfort.processing.core.vessel.profile import BUILTIN_DIR, builtin_profile_names  # noqa: E402
 
 PROVIDER_ID = "seawaycomfort"
 REPO = Path(__file__).resolve().parents[2]

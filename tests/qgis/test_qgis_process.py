@@ -23,7 +23,7 @@ import pytest
 pytestmark = pytest.mark.qgis
 qgis = pytest.importorskip("qgis")
 
-from seaway_comfort.processing.core import demo_scenario as ds  # noqa: E402
+from seaway_comfort.processing.core.demo import scenario as ds  # noqa: E402
 from seaway_comfort.processing.core.flags import CAUTION  # noqa: E402
 
 QGIS_PROCESS = "/usr/bin/qgis_process.bin"
@@ -65,9 +65,9 @@ def test_help_lists_the_interface(qp_env):
 def test_routecomfort_with_two_sources(qp_env, demo, tmp_path):
     from qgis.core import QgsVectorLayer
 
-    from seaway_comfort.processing.core.passage import compute_passage
+    from seaway_comfort.processing.core.passage.pipeline import compute_passage
     from seaway_comfort.processing.core.seastate import open_bathymetry, open_sea_state
-    from seaway_comfort.processing.core.vessel import resolve_vessel
+    from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 
     points = tmp_path / "pts.gpkg"
     proc = _qp(qp_env, "--json", "run", "seawaycomfort:routecomfort", "--",

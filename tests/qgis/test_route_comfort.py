@@ -21,8 +21,8 @@ qgis = pytest.importorskip("qgis")
 from geographiclib.geodesic import Geodesic  # noqa: E402
 
 from seaway_comfort.processing.core.seastate import open_sea_state  # noqa: E402
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf  # noqa: E402
-from seaway_comfort.processing.core.vessel import resolve_vessel  # noqa: E402
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf  # noqa: E402
+from seaway_comfort.processing.core.vessel.profile import resolve_vessel  # noqa: E402
 
 ALG = "seawaycomfort:routecomfort"
 HS = "sea_surface_wave_significant_height"
@@ -95,7 +95,7 @@ def _features(path):
 
 
 def _core(sea, lon, lat, departure, speed):
-    from seaway_comfort.processing.core.passage import compute_passage
+    from seaway_comfort.processing.core.passage.pipeline import compute_passage
 
     src = open_sea_state(sea)
     try:
@@ -343,7 +343,7 @@ def test_vessel_from_user_profile_folder(seaway_provider, route, sea, tmp_path):
     import shutil
 
     from seaway_comfort.processing.algorithms.common import user_vessel_dir
-    from seaway_comfort.processing.core.vessel import BUILTIN_DIR
+    from seaway_comfort.processing.core.vessel.profile import BUILTIN_DIR
 
     folder = user_vessel_dir()
     folder.mkdir(parents=True, exist_ok=True)

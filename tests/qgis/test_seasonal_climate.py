@@ -22,8 +22,11 @@ pytestmark = pytest.mark.qgis
 qgis = pytest.importorskip("qgis")
 
 from seaway_comfort.processing.core import climate as C  # noqa: E402
-from seaway_comfort.processing.core.climate.report import SHARE_PALETTE  # noqa: E402
-from seaway_comfort.processing.core.climate.synthetic import SeasonalCycle, write_seasonal_hindcast  # noqa: E402
+from seaway_comfort.processing.core.reports.climate import SHARE_PALETTE  # noqa: E402
+from seaway_comfort.processing.core.demo.synthetic_hindcast import (
+    SeasonalCycle,
+    write_seasonal_hindcast,
+)
 from seaway_comfort.processing.core.flags import CAUTION  # noqa: E402
 
 ALG = "seawaycomfort:seasonalclimate"

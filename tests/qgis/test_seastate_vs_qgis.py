@@ -13,7 +13,7 @@ pytestmark = pytest.mark.qgis
 qgis = pytest.importorskip("qgis")
 
 from seaway_comfort.processing.core.seastate import open_sea_state  # noqa: E402
-from seaway_comfort.processing.core.seastate.writers import write_cf_netcdf, write_geotiff_stack  # noqa: E402
+from seaway_comfort.processing.core.demo.writers import write_cf_netcdf, write_geotiff_stack  # noqa: E402
 
 T0 = np.datetime64("2030-05-01T00:00:00", "s")
 TIMES = T0 + np.arange(3) * np.timedelta64(3, "h")

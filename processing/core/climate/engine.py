@@ -147,10 +147,10 @@ def prepare_climate(
     ``gamma`` JONSWAP peak enhancement (>= 1), ``spread_s`` cos-2s spreading exponent.
     """
     from ..api import transfer_model
-    from ..route import densify_route, elapsed_time_s
-    from ..tables import build_response_table
+    from ..passage.route import densify_route, elapsed_time_s
+    from ..motions.tables import build_response_table
     from ..units import m_s_from_kn
-    from ..vessel import resolve_vessel
+    from ..vessel.profile import resolve_vessel
 
     prof = resolve_vessel(profile)
     speed = float(require_positive("speed_kn", speed_kn))
@@ -191,10 +191,10 @@ def prepare_climate(
 def classify_sea(setup: ClimateSetup, hs_m: FloatArray, tp_s: FloatArray, wave_from_deg: FloatArray) -> StepClasses:
     """Comfort class, criteria exceedance and method-limit flag for (nt, n) sea states at the
     route samples (module docstring for the chain of formulas)."""
-    from ..comfort import comfort_class, mean_abs_from_rms, msi_percent
-    from ..criteria import evaluate_criteria
+    from ..comfort.indices import comfort_class, mean_abs_from_rms, msi_percent
+    from ..comfort.criteria import evaluate_criteria
     from ..flags import SampleFlag
-    from ..heading import relative_heading_deg
+    from ..waves.encounter import relative_heading_deg
 
     hs = np.asarray(hs_m, dtype=float)
     tp = np.asarray(tp_s, dtype=float)

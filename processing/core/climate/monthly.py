@@ -270,7 +270,7 @@ def write_climate_csv(result: ClimateResult, path: Optional[str] = None) -> str:
     departures_known, wait_censored (these four on route rows only), flags (sample flag codes,
     sample rows only).
     """
-    from ..comfort import COMFORT_CLASS_LABELS
+    from ..comfort.indices import COMFORT_CLASS_LABELS
 
     buf = io.StringIO()
     wr = csv.writer(buf, lineterminator="\n")

@@ -8,7 +8,13 @@ from __future__ import annotations
 
 from .bathymetry import Bathymetry, DepthSample, open_bathymetry
 from .inventory import GridDescription, IgnoredEntry, Inventory, VariableEntry
-from .source import SampledSeaState, SamplingCancelled, SeaStateSource, describe_file, open_sea_state
+from .source import (
+    SampledSeaState,
+    SamplingCancelled,
+    SeaStateSource,
+    describe_file,
+    open_sea_state,
+)
 
 __all__ = [
     "Bathymetry", "DepthSample", "open_bathymetry",

@@ -18,7 +18,12 @@ from numpy.typing import NDArray
 
 from ..flags import CAUTION, NOT_COMPUTED_FLAGS, SampleFlag
 from ..units import FloatArray
-from .derived import MEAN_PERIOD_RATIOS, dominant_partition, hs_m_from_partitions, tp_s_from_mean_period
+from .derived import (
+    MEAN_PERIOD_RATIOS,
+    dominant_partition,
+    hs_m_from_partitions,
+    tp_s_from_mean_period,
+)
 from .layer import VariableLayer
 from .sampler import LayerSample
 from ..validation import show

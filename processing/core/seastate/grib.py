@@ -21,8 +21,14 @@ from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .layer import VariableLayer, grid_from_dataset, open_gdal
 from .timeaxis import parse_grib_time
-from .variables import (GRIB_BY_ELEMENT, GRIB_WAVE_PARAMETERS, GribParameter, canonical_kind,
-                        grib_canonical, unit_conversion)
+from .variables import (
+    GRIB_BY_ELEMENT,
+    GRIB_WAVE_PARAMETERS,
+    GribParameter,
+    canonical_kind,
+    grib_canonical,
+    unit_conversion,
+)
 
 
 def _ints(text: str) -> List[int]:

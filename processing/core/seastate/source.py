@@ -13,7 +13,13 @@ from typing import Callable, Dict, List, Optional, Sequence, Tuple, Union
 import numpy as np
 
 from ..flags import SampleFlag
-from ..validation import SeawayInputError, as_float_array, require_in_range, require_nonnegative, show
+from ..validation import (
+    SeawayInputError,
+    as_float_array,
+    require_in_range,
+    require_nonnegative,
+    show,
+)
 from .combine import SampledSeaState, combine_samples
 from .discovery import Discovery, check_direction_convention, invert_variable_map
 from .geotiff import discover_geotiff

@@ -72,7 +72,7 @@ def write_seasonal_hindcast(
     Existing files with the same name are reused (the content is a pure function of the
     arguments encoded in the name).
     """
-    from ..seastate.writers import write_cf_netcdf
+    from .writers import write_cf_netcdf
 
     lon = np.arange(-10.0, -5.99, 0.5) if lon_deg is None else np.asarray(lon_deg, dtype=float)
     lat = np.arange(40.0, 44.01, 0.5) if lat_deg is None else np.asarray(lat_deg, dtype=float)

@@ -29,9 +29,9 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from scipy.special import gammaln
 
-from .numerics import trapezoid_weights
-from .units import DEG_PER_RAD, RAD_PER_DEG, FloatArray
-from .validation import (
+from ..numerics import trapezoid_weights
+from ..units import DEG_PER_RAD, RAD_PER_DEG, FloatArray
+from ..validation import (
     SeawayInputError,
     as_float_array,
     require_nonnegative,

@@ -47,14 +47,20 @@ from typing import Any, Optional, Sequence, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .comfort import _wf2_unchecked
-from .dispersion import wavenumber_rad_m
-from .flags import SampleFlag
-from .heading import cos_deg, relative_heading_deg
-from .spectra import FrequencyGrid, direction_grid, frequency_grid_rad_s, jonswap_s_m2_s_rad
-from .units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
-from .vessel import Station
+from ..comfort.indices import _wf2_unchecked
+from ..waves.dispersion import wavenumber_rad_m
+from ..flags import SampleFlag
+from ..waves.encounter import cos_deg, relative_heading_deg
+from ..waves.spectra import FrequencyGrid, direction_grid, frequency_grid_rad_s, jonswap_s_m2_s_rad
+from ..units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray
+from ..validation import (
+    SeawayInputError,
+    as_float_array,
+    require_nonnegative,
+    require_positive,
+    show,
+)
+from ..vessel.profile import Station
 
 __all__ = [
     "ROWS",

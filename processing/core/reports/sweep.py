@@ -24,9 +24,9 @@ from typing import List, Optional, Sequence, Tuple
 
 import numpy as np
 
-from .flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS, flag_counts
-from .report import COMFORT_PALETTE, METHOD_NOTES, NOT_COMPUTED_COLOUR, ReportInputs
-from .sweep import CRITERION_LABELS, CRITERION_UNITS, ROBUST_SOURCE, SweepResult, SweepRow
+from ..flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS, flag_counts
+from .passage import COMFORT_PALETTE, METHOD_NOTES, NOT_COMPUTED_COLOUR, ReportInputs
+from ..sweep.engine import CRITERION_LABELS, CRITERION_UNITS, ROBUST_SOURCE, SweepResult, SweepRow
 
 __all__ = [
     "SweepReport",
@@ -142,7 +142,7 @@ def heat_map_png(result: SweepResult) -> Optional[bytes]:
     from matplotlib.colors import BoundaryNorm, ListedColormap
     from matplotlib.patches import Patch
 
-    from .comfort import COMFORT_CLASS_LABELS
+    from ..comfort.indices import COMFORT_CLASS_LABELS
 
     cmap = ListedColormap([NOT_COMPUTED_COLOUR, *COMFORT_PALETTE])
     norm = BoundaryNorm(np.arange(-1.5, 5.0, 1.0), cmap.N)
@@ -235,7 +235,7 @@ def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
     rec = res.recommendation
     crit = res.criterion
     digits = 2 if crit == "dose" else 1
-    from .comfort import COMFORT_CLASS_LABELS
+    from ..comfort.indices import COMFORT_CLASS_LABELS
 
     caution = f'<div class="caution"><strong>Caution.</strong> {_esc(report.caution)}</div>'
     parts = [

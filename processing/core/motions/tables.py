@@ -28,7 +28,7 @@ from typing import Any, Optional, Sequence, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .flags import SampleFlag
+from ..flags import SampleFlag
 from .response import (
     MotionResponse,
     combine_quantities,
@@ -37,9 +37,15 @@ from .response import (
     unit_moments,
     validity_flags,
 )
-from .units import G_STANDARD_M_S2, FloatArray, wrap_deg
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
-from .vessel import Station
+from ..units import G_STANDARD_M_S2, FloatArray, wrap_deg
+from ..validation import (
+    SeawayInputError,
+    as_float_array,
+    require_nonnegative,
+    require_positive,
+    show,
+)
+from ..vessel.profile import Station
 
 __all__ = [
     "DEFAULT_TP_GRID_S",

@@ -18,9 +18,9 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from ..validation import SeawayInputError, as_float_array, show
-from .layer import gdal, gdal_call, osr, require_gdal
-from .timeaxis import as_utc_seconds
-from .variables import CF_STANDARD_NAMES, canonical_kind
+from ..seastate.layer import gdal, gdal_call, osr, require_gdal
+from ..seastate.timeaxis import as_utc_seconds
+from ..seastate.variables import CF_STANDARD_NAMES, canonical_kind
 
 ArrayOrStep = Union[ArrayLike, Callable[[int], ArrayLike]]
 

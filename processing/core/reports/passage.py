@@ -24,8 +24,8 @@ from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 
-from .flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
-from .passage import NOT_COMPUTED_CLASS, PassageResult, PassageSummary
+from ..flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
+from ..passage.pipeline import NOT_COMPUTED_CLASS, PassageResult, PassageSummary
 
 __all__ = [
     "COMFORT_PALETTE",
@@ -139,7 +139,7 @@ def build_report(
     warnings: Sequence[str] = (),
 ) -> ReportData:
     """Collect the report data: one (name, result) pair per leg, in passage order."""
-    from .comfort import COMFORT_CLASS_LABELS
+    from ..comfort.indices import COMFORT_CLASS_LABELS
 
     reports = tuple(LegReport(str(name), res, res.summary()) for name, res in legs)
     if not inputs.created_utc:

@@ -20,8 +20,8 @@ import sys
 import time
 from typing import List, Optional, Sequence, TextIO, Tuple
 
-from ..flags import CAUTION
-from ..validation import SeawayInputError, show
+from .core.flags import CAUTION
+from .core.validation import SeawayInputError, show
 
 __all__ = ["main", "build_parser", "read_route", "parse_lonlat", "ProgressBar"]
 
@@ -167,9 +167,9 @@ def build_parser() -> argparse.ArgumentParser:
 def main(argv: Optional[Sequence[str]] = None, *, stdout: Optional[TextIO] = None,
          stderr: Optional[TextIO] = None) -> int:
     """Run the command line; returns the exit status (module docstring)."""
-    from . import DEFAULT_CHUNK_STEPS, compute_climate, make_backend
-    from .backends import ClimateCancelled
-    from .report import climate_text_summary, write_climate_html
+    from .core.climate import DEFAULT_CHUNK_STEPS, compute_climate, make_backend
+    from .core.climate.backends import ClimateCancelled
+    from .core.reports.climate import climate_text_summary, write_climate_html
 
     out = stdout or sys.stdout
     err = stderr or sys.stderr

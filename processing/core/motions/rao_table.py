@@ -33,9 +33,9 @@ from typing import Dict, List, Optional, Sequence, Union
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .transfer import MotionTransfer
-from .units import RAD_PER_DEG, FloatArray
-from .validation import SeawayInputError, show
+from .closed_form import MotionTransfer
+from ..units import RAD_PER_DEG, FloatArray
+from ..validation import SeawayInputError, show
 
 __all__ = ["RaoTable", "load_rao_table", "rao_table_from_rows", "TableTransfer", "FREQ_COLUMNS", "AMPLITUDE_COLUMNS"]
 

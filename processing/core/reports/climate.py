@@ -23,7 +23,7 @@ from typing import List, Optional, Sequence, Tuple
 import numpy as np
 
 from ..flags import CAUTION
-from .monthly import ClimateResult
+from ..climate.monthly import ClimateResult
 
 __all__ = ["SHARE_PALETTE", "SHARE_BOUNDS", "NO_DATA_COLOUR", "share_bin", "render_climate_html",
            "write_climate_html", "climate_text_summary"]
@@ -111,7 +111,7 @@ def _thin(n: int, k: int = 12) -> List[int]:
 def render_climate_html(r: ClimateResult, *, title: str = "Seasonal comfort climate", plots: bool = True,
                         sources: Sequence[str] = ()) -> str:
     """The report page as text (module docstring)."""
-    from ..comfort import COMFORT_CLASS_LABELS
+    from ..comfort.indices import COMFORT_CLASS_LABELS
 
     png = _plots_png(r) if plots else None
     parts: List[str] = [

@@ -28,8 +28,8 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from .dispersion import wave_kinematics
-from .units import G_STANDARD_M_S2, RAD_PER_DEG, FloatArray, wrap_deg
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
+from ..units import G_STANDARD_M_S2, RAD_PER_DEG, FloatArray, wrap_deg
+from ..validation import SeawayInputError, as_float_array, require_nonnegative, require_positive
 
 __all__ = [
     "relative_heading_deg",

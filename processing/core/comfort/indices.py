@@ -31,8 +31,8 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from scipy.special import ndtr
 
-from .units import G_SHIP_M_S2, FloatArray
-from .validation import SeawayInputError, require_nonnegative, require_positive
+from ..units import G_SHIP_M_S2, FloatArray
+from ..validation import SeawayInputError, require_nonnegative, require_positive
 
 __all__ = [
     "msi_percent",

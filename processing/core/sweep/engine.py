@@ -58,8 +58,8 @@ from typing import Callable, Dict, List, Optional, Sequence, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .flags import CAUTION, NOT_COMPUTED_FLAGS, SAFETY_FLAGS, SampleFlag, flag_codes
-from .passage import (
+from ..flags import CAUTION, NOT_COMPUTED_FLAGS, SAFETY_FLAGS, SampleFlag, flag_codes
+from ..passage.pipeline import (
     DEFAULT_LAND_SEARCH_KM,
     DEFAULT_TIME_TOLERANCE_S,
     NOT_COMPUTED_CLASS,
@@ -72,8 +72,8 @@ from .passage import (
     source_display_name,
     source_time_range,
 )
-from .units import SECONDS_PER_HOUR, FloatArray, nm_from_m
-from .validation import SeawayInputError, as_float_array, require_nonnegative, show
+from ..units import SECONDS_PER_HOUR, FloatArray, nm_from_m
+from ..validation import SeawayInputError, as_float_array, require_nonnegative, show
 
 __all__ = [
     "CRITERIA",
@@ -529,7 +529,7 @@ def _fmt_v(v: float, unit: str) -> str:
 
 def _recommend(rows: Sequence[SweepRow], deps: NDArray[np.datetime64], robust_ok: NDArray[np.bool_],
                speeds: Sequence[float], criterion: str, max_class: int, n_sources: int) -> Recommendation:
-    from .comfort import COMFORT_CLASS_LABELS
+    from ..comfort.indices import COMFORT_CLASS_LABELS
 
     robust = [r for r in rows if r.is_robust]
     best = min(robust, key=lambda r: r.rank)
@@ -719,7 +719,7 @@ def sweep_departures(
             infc[s, k] = ((deps >= t0 - tol) & (arrive[s] <= t1 + tol)
                           & ((b.flags & int(SampleFlag.OUTSIDE_TIME)) == 0))
             cls_all[s, k] = b.cls
-    from .comfort import vomiting_share_pct
+    from ..comfort.indices import vomiting_share_pct
 
     sick = np.full(shape, np.nan)
     fin = np.isfinite(msdv)

@@ -30,7 +30,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any, Dict, List, Mapping, Optional, Tuple, Union
 
-from .validation import SeawayInputError, show
+from ..validation import SeawayInputError, show
 
 __all__ = [
     "FORMAT_NAME",
@@ -50,7 +50,7 @@ __all__ = [
 
 FORMAT_NAME = "seaway-comfort-vessel"
 FORMAT_VERSION = 1
-BUILTIN_DIR = Path(__file__).parent / "data" / "vessels"
+BUILTIN_DIR = Path(__file__).parent / "examples"
 
 DEFAULT_TASK = "light_manual_work"
 # Kept in step with criteria.NORDFORSK_TASKS (checked by tests/core/test_vessel.py).
@@ -127,7 +127,7 @@ class VesselProfile:
     waterplane_coeff : Cwp in [Cb, 1]; ``None`` = :func:`estimate_waterplane_coeff`.
     gm_m : transverse metacentric height GM [m] > 0 (corrected for free surface).
     roll_period_s : natural roll period [s]; ``None`` = IMO 2008 IS Code estimate from GM
-        (:func:`.transfer.imo_roll_period_s`). One of gm_m / roll_period_s is required.
+        (:func:`.roll_period.imo_roll_period_s`). One of gm_m / roll_period_s is required.
     roll_damping_ratio : roll damping as a fraction of critical, in (0, 1) (default 0.10).
     service_speed_kn : service speed through the water [kn], > 0.
     stations : tuple of :class:`Station` (at least one, unique names, inside the hull).
@@ -235,7 +235,7 @@ class VesselProfile:
         """Natural roll period [s]: given, else the IMO 2008 IS Code estimate from GM."""
         if self.roll_period_s is not None:
             return float(self.roll_period_s)
-        from .transfer import imo_roll_period_s  # local import: transfer does not need vessel
+        from .roll_period import imo_roll_period_s
 
         return float(imo_roll_period_s(self.beam_m, self.draught_m, self.length_wl_m, self.gm_m))
 

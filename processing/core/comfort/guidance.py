@@ -29,11 +29,17 @@ from typing import Optional, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .dispersion import wavelength_m
-from .flags import SampleFlag
-from .heading import encounter_period, imo_angle_of_encounter_deg, relative_heading_deg
-from .units import G_STANDARD_M_S2, KNOT_M_S, RAD_PER_DEG, FloatArray
-from .validation import SeawayInputError, as_float_array, require_nonnegative, require_positive, show
+from ..waves.dispersion import wavelength_m
+from ..flags import SampleFlag
+from ..waves.encounter import encounter_period, imo_angle_of_encounter_deg, relative_heading_deg
+from ..units import G_STANDARD_M_S2, KNOT_M_S, RAD_PER_DEG, FloatArray
+from ..validation import (
+    SeawayInputError,
+    as_float_array,
+    require_nonnegative,
+    require_positive,
+    show,
+)
 
 __all__ = [
     "SYNC_ROLL_BAND",

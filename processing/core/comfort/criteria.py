@@ -24,8 +24,8 @@ from typing import Dict, Mapping, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .units import G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, require_nonnegative, show
+from ..units import G_STANDARD_M_S2, FloatArray
+from ..validation import SeawayInputError, require_nonnegative, show
 
 __all__ = [
     "TaskCriterion",

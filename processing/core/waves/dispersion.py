@@ -27,8 +27,8 @@ from typing import Optional
 import numpy as np
 from numpy.typing import ArrayLike
 
-from .units import G_STANDARD_M_S2, FloatArray
-from .validation import SeawayInputError, require_positive
+from ..units import G_STANDARD_M_S2, FloatArray
+from ..validation import SeawayInputError, require_positive
 
 __all__ = [
     "WaveKinematics",

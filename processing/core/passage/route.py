@@ -23,8 +23,8 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from pyproj import Geod
 
-from .units import KNOT_M_S, NAUTICAL_MILE_M, FloatArray, wrap_deg
-from .validation import (
+from ..units import KNOT_M_S, NAUTICAL_MILE_M, FloatArray, wrap_deg
+from ..validation import (
     SeawayInputError,
     as_float_array,
     require_in_range,

@@ -28,8 +28,8 @@ from typing import Dict, Tuple
 
 import numpy as np
 
-from .units import FloatArray
-from .validation import SeawayInputError, show
+from ..units import FloatArray
+from ..validation import SeawayInputError, show
 
 __all__ = [
     "DemoScenario",
@@ -222,7 +222,7 @@ def _land_geojson(path: str) -> None:
 
 def build_demo_scenario(folder: str) -> DemoScenario:
     """Write the demo files into ``folder`` (created if needed) and describe them."""
-    from .seastate import writers
+    from . import writers
 
     if not folder:
         raise SeawayInputError("folder must name an output folder for the demo, got ''")

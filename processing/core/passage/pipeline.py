@@ -37,9 +37,9 @@ from typing import Callable, Dict, List, Optional, Sequence, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .flags import NOT_COMPUTED_FLAGS, SampleFlag, flag_codes_array, flag_counts
-from .units import SECONDS_PER_HOUR, FloatArray, m_s_from_kn, nm_from_m
-from .validation import SeawayInputError, as_float_array, require_in_range, require_positive, show
+from ..flags import NOT_COMPUTED_FLAGS, SampleFlag, flag_codes_array, flag_counts
+from ..units import SECONDS_PER_HOUR, FloatArray, m_s_from_kn, nm_from_m
+from ..validation import SeawayInputError, as_float_array, require_in_range, require_positive, show
 
 __all__ = [
     "NOT_COMPUTED_CLASS",
@@ -341,7 +341,7 @@ def sample_sea(
     no data). ``depth`` is an open :class:`.seastate.Bathymetry` or None (deep water, every sample
     flagged DEEPASSUMED).
     """
-    from .seastate import SamplingCancelled
+    from ..seastate import SamplingCancelled
 
     if not sea_states:
         raise SeawayInputError("sea_states must hold at least one sea-state source, got none")
@@ -557,7 +557,7 @@ class PassageResult:
 
     def hours_per_class(self) -> Dict[str, float]:
         """Hours spent in each comfort class (label -> h), plus 'not computed'."""
-        from .comfort import COMFORT_CLASS_LABELS
+        from ..comfort.indices import COMFORT_CLASS_LABELS
 
         out: Dict[str, float] = {}
         for c, label in enumerate(COMFORT_CLASS_LABELS):
@@ -645,10 +645,10 @@ def respond(
     ``AUTO_TABLE_MIN_SAMPLES`` samples, tables from there on); the exact path runs in chunks of
     :data:`RESPONSE_CHUNK` samples so that progress and cancel work.
     """
-    from .api import AUTO_TABLE_MIN_SAMPLES, SeaPartitions, assess_motions
-    from .comfort import COMFORT_CLASS_LABELS, msdv_cumulative, vomiting_share_pct
-    from .dispersion import wave_kinematics
-    from .heading import encounter_period, relative_heading_deg
+    from ..api import AUTO_TABLE_MIN_SAMPLES, SeaPartitions, assess_motions
+    from ..comfort.indices import COMFORT_CLASS_LABELS, msdv_cumulative, vomiting_share_pct
+    from ..waves.dispersion import wave_kinematics
+    from ..waves.encounter import encounter_period, relative_heading_deg
 
     stage = _Stage(progress, 0.0, 1.0)
     n = plan.n
