@@ -19,11 +19,7 @@ from pathlib import Path
 from typing import List, Optional, Union
 
 from ..processing.core.validation import SeawayInputError, show
-from ..processing.core.vessel import (
-    VesselProfile,
-    load_vessel_profile,
-    save_vessel_profile,
-)
+from ..processing.core.vessel.profile import VesselProfile, load_vessel_profile, save_vessel_profile
 
 __all__ = [
     "SUBFOLDER",

@@ -39,11 +39,11 @@ from qgis.PyQt.QtWidgets import (
     QWidget,
 )
 
-from ..processing.core import vessel as vessel_core
-from ..processing.core.criteria import NORDFORSK_TASKS
+from ..processing.core.vessel import profile as vessel_core
+from ..processing.core.comfort.criteria import NORDFORSK_TASKS
 from ..processing.core.flags import CAUTION
 from ..processing.core.validation import SeawayInputError
-from ..processing.core.vessel import (
+from ..processing.core.vessel.profile import (
     FORMAT_NAME,
     FORMAT_VERSION,
     Station,
