@@ -188,14 +188,29 @@ else
         > "$root/etc/apt/apt.conf.d/01-seaway-norecommends"
     copy_host_config
     mount_system
-    log "apt: installing ${PACKAGES[*]}"
-    chroot "$root" /usr/bin/env -i PATH=/usr/sbin:/usr/bin:/sbin:/bin DEBIAN_FRONTEND=noninteractive \
-        LANG=C.UTF-8 HOME=/root sh -c 'apt-get update -qq && apt-get install -y -q "$@" && apt-get clean' \
-        sh "${PACKAGES[@]}" > "$here/.build/apt-$suite.log" 2>&1 || {
-        tail -n 30 "$here/.build/apt-$suite.log" >&2
+    apt_log="$here/.build/apt-$suite.log"
+    chroot_apt() {
+        chroot "$root" /usr/bin/env -i PATH=/usr/sbin:/usr/bin:/sbin:/bin \
+            DEBIAN_FRONTEND=noninteractive LANG=C.UTF-8 HOME=/root apt-get "$@" >> "$apt_log" 2>&1
+    }
+    apt_failed() {
+        tail -n 30 "$apt_log" >&2
         log "apt failed (log: .build/apt-$suite.log)" >&2
         exit 1
     }
+    : > "$apt_log"
+    if ! chroot_apt update -qq; then
+        # A frozen mirror serves sid's Release file past its Valid-Until date: say so, and let
+        # apt in this chroot accept it (the signature is still checked).
+        grep -q "is expired" "$apt_log" || apt_failed
+        log "WARNING: the mirror's $suite Release file is past its Valid-Until date;" \
+            "apt in this chroot will not check Valid-Until"
+        echo 'Acquire::Check-Valid-Until "false";' > "$root/etc/apt/apt.conf.d/02-seaway-expired-release"
+        chroot_apt update -qq || apt_failed
+    fi
+    log "apt: installing ${PACKAGES[*]}"
+    chroot_apt install -y -q "${PACKAGES[@]}" || apt_failed
+    chroot_apt clean || apt_failed
     echo "$key" > "$stamp"
     phase_end apt "$start"
 fi

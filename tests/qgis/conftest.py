@@ -25,3 +25,25 @@ def seaway_provider(qgis_app, qgis_processing):  # noqa: ARG001 (fixtures start 
     yield provider
     if registry.providerById(PROVIDER_ID) is provider:
         registry.removeProvider(provider)
+
+
+@pytest.fixture(scope="session", autouse=True)
+def layer_tree_view(qgis_app, qgis_iface):  # noqa: ARG001 (fixtures start QGIS)
+    """A real layer tree view behind the stub iface.
+
+    QGIS >= 3.44's result handling (processing.gui.Postprocessing) passes
+    ``iface.layerTreeView()`` to ``QgsProcessingGuiUtils.addResultLayers``, which refuses the
+    stub's MagicMock; the desktop gives a real view, so the tests do too.
+    """
+    from qgis.core import QgsLayerTreeModel, QgsProject
+    from qgis.gui import QgsLayerTreeView
+
+    model = QgsLayerTreeModel(QgsProject.instance().layerTreeRoot())
+    view = QgsLayerTreeView()
+    view.setModel(model)
+    original = qgis_iface.layerTreeView
+    qgis_iface.layerTreeView = lambda: view
+    yield view
+    qgis_iface.layerTreeView = original
+    view.setModel(None)
+    del view, model

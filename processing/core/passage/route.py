@@ -17,7 +17,7 @@ from __future__ import annotations
 import datetime as _dt
 import warnings
 from dataclasses import dataclass
-from typing import Union
+from typing import Tuple, Union
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -45,6 +45,22 @@ __all__ = [
 ]
 
 _GEOD = Geod(ellps="WGS84")
+
+
+def _geod_call(method: str, *arrays: FloatArray) -> Tuple[FloatArray, FloatArray, FloatArray]:
+    """``pyproj.Geod.inv``/``fwd`` over 1-D arrays, always returning three float arrays.
+
+    pyproj 3.7 turns a one-element array into a scalar itself, which numpy >= 1.25 deprecates
+    (about a thousand warnings per run on Debian 13); one-element inputs are therefore passed
+    as Python floats, which is what pyproj means by a scalar.
+    """
+    args = [np.asarray(a, dtype=float) for a in arrays]
+    if all(a.size == 1 for a in args):
+        out = getattr(_GEOD, method)(*(float(a.reshape(())) for a in args))
+    else:
+        out = getattr(_GEOD, method)(*args)
+    n = args[0].shape
+    return tuple(np.asarray(o, dtype=float).reshape(n) for o in out)  # type: ignore[return-value]
 
 DUPLICATE_TOLERANCE_M: float = 1e-3
 """Consecutive vertices closer than this (1 mm, geodesic) are duplicates and are dropped."""
@@ -129,7 +145,7 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
     lon = wrap_lon_deg(lon)
 
     # drop consecutive duplicates
-    _, _, s_all = _GEOD.inv(lon[:-1], lat[:-1], lon[1:], lat[1:])
+    _, _, s_all = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
     s_all = np.asarray(s_all, dtype=float)
     dup = s_all < DUPLICATE_TOLERANCE_M
     if dup.any():
@@ -148,7 +164,7 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
             "the route has zero length: fewer than 2 distinct vertices after dropping duplicates"
         )
 
-    az12, az21, seg_len = _GEOD.inv(lon[:-1], lat[:-1], lon[1:], lat[1:])
+    az12, az21, seg_len = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
     az12 = np.atleast_1d(np.asarray(az12, dtype=float))
     az21 = np.atleast_1d(np.asarray(az21, dtype=float))
     seg_len = np.atleast_1d(np.asarray(seg_len, dtype=float))
@@ -167,7 +183,7 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
     starts = np.concatenate(([0], np.cumsum(counts)[:-1]))
     j = np.arange(seg_idx.size, dtype=np.int64) - starts[seg_idx]
     along = j * (seg_len / pieces)[seg_idx]
-    plon, plat, pbaz = _GEOD.fwd(lon[:-1][seg_idx], lat[:-1][seg_idx], az12[seg_idx], along)
+    plon, plat, pbaz = _geod_call("fwd", lon[:-1][seg_idx], lat[:-1][seg_idx], az12[seg_idx], along)
     plon = np.asarray(plon, dtype=float)
     plat = np.asarray(plat, dtype=float)
     course = wrap_deg(np.asarray(pbaz, dtype=float) + 180.0)
