@@ -229,12 +229,14 @@ def unit_moments(
     outside = np.zeros((n, p))
     n_f = n_freq if frequency_grid is None else frequency_grid.omega_rad_s.size
     chunk = max(1, _CHUNK_ELEMENTS // (p * n_f * theta_deg.size))
+    # integrand buffers reused by every chunk (fresh large arrays per chunk cost page faults)
+    buf = np.empty((9, min(n, chunk), p, n_f, theta_deg.size))
     for a in range(0, n, chunk):
         b = min(n, a + chunk)
         omega, e_f = energy(tp_s[a:b])
         mu = rel_heading_deg[a:b, :, None, None] + theta_deg[None, None, None, :]  # (c, p, 1, nd)
         depth = None if depth_m is None else depth_m[a:b, None, None]
-        m_out[a:b] = _chunk_moments(transfer, omega, e_f, wd, mu, speed_m_s[a:b], depth, g_m_s2)
+        m_out[a:b] = _chunk_moments(transfer, omega, e_f, wd, mu, speed_m_s[a:b], depth, g_m_s2, buf[:, :b - a])
         cov = transfer.covered(omega) if hasattr(transfer, "covered") else None
         if cov is not None:
             tot = e_f.sum(axis=-1)
@@ -270,9 +272,10 @@ def _wave_energy(gamma: FloatArray, n_freq: int, frequency_grid: Optional[Freque
 
 
 def _chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatArray, mu: FloatArray,
-                   speed_m_s: FloatArray, depth: Optional[FloatArray], g_m_s2: float) -> FloatArray:
+                   speed_m_s: FloatArray, depth: Optional[FloatArray], g_m_s2: float, buf: FloatArray) -> FloatArray:
     """Moments (c, p, 4, 5) of one chunk (module docstring): omega, e_f (c, p, nf) absolute
-    frequencies and wave energy S d omega, wd (p, nd) direction weights, mu (c, p, 1, nd)."""
+    frequencies and wave energy S d omega, wd (p, nd) direction weights, mu (c, p, 1, nd);
+    ``buf`` (9, c, p, nf, nd) scratch space for the integrand factors."""
     c, p = omega.shape[:2]
     k = wavenumber_rad_m(omega, depth, g_m_s2=g_m_s2)  # (c, p, nf)
     cmu = cos_deg(mu)
@@ -283,12 +286,11 @@ def _chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatA
     e = e_f[..., None] * wd[None, :, None, :]  # (c, p, nf, nd)
     we2 = we * we
     we4 = we2 * we2
-    q = np.empty((4,) + we.shape)
+    q, w = buf[:4], buf[4:]
     q[0] = tr.heave_m_per_m**2 * e
     q[1] = tr.pitch_rad_per_m**2 * e
     q[2] = tr.roll_rad_per_m**2 * e
     q[3] = e
-    w = np.empty((5,) + we.shape)
     w[0] = 1.0
     w[1] = we2
     w[2] = we4
