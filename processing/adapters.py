@@ -24,6 +24,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime, QVariant
 
 from .core.flags import flag_codes_array
+from .core.passage.fields import MOTION_OUTPUTS
 from .core.passage.pipeline import NOT_COMPUTED_CLASS, PassageResult
 from .core.validation import show
 
@@ -237,16 +238,7 @@ POINT_FIELDS = (
     ("celerity_m_s", "double", "celerity_m_s"),
     ("rel_heading_deg", "double", "rel_heading_deg"),
     ("enc_period_s", "double", "enc_period_s"),
-    ("heave_rms_m", "double", "heave_rms_m"),
-    ("pitch_rms_deg", "double", "pitch_rms_deg"),
-    ("roll_rms_deg", "double", "roll_rms_deg"),
-    ("heave_tz_s", "double", "heave_tz_s"),
-    ("pitch_tz_s", "double", "pitch_tz_s"),
-    ("roll_tz_s", "double", "roll_tz_s"),
-    ("vacc_rms_m_s2", "double", "vacc_rms_m_s2"),
-    ("lacc_rms_m_s2", "double", "lacc_rms_m_s2"),
-    ("vacc_wf_rms_m_s2", "double", "vacc_wf_rms_m_s2"),
-    ("msi_pct", "double", "msi_pct"),
+    *((o.name, "double", o.name) for o in MOTION_OUTPUTS),  # declared once in core.passage.fields
     ("msdv_cum", "double", "msdv_cum"),
     ("vomit_pct", "double", "vomit_pct"),
     ("comfort_class", "int", None),

@@ -33,14 +33,14 @@ from typing import Any, Dict, Optional, Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .comfort.indices import mean_abs_from_rms, comfort_class as _comfort_class, msi_percent
-from .comfort.criteria import evaluate_criteria
+from .comfort.verdict import comfort_verdict
 from .flags import CAUTION, SampleFlag
 from .waves.encounter import relative_heading_deg
 from .motions.rao_table import TableTransfer, load_rao_table
 from .motions.response import (
     MotionResponse,
     combine_quantities,
+    RESPONSE_ARRAYS,
     motion_response,
     prepare_sea,
     validity_flags,
@@ -202,14 +202,10 @@ def _needs_depth(depth: Optional[FloatArray], hs: FloatArray, tp: FloatArray, g:
     return np.isfinite(depth) & (k_low * np.where(np.isfinite(depth), depth, 0.0) < DEEP_KH)
 
 
-_RESP_FIELDS = ("heave_rms_m", "pitch_rms_deg", "roll_rms_deg", "heave_tz_s", "pitch_tz_s", "roll_tz_s",
-                "vacc_rms_m_s2", "vacc_omega_rad_s", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "flags")
-
-
 def _merge(n: int, parts: Any, names: Tuple[str, ...], method: str) -> MotionResponse:
     """Assemble a MotionResponse from (index, response) parts covering 0..n-1."""
     kw: Dict[str, Any] = {}
-    for f in _RESP_FIELDS:
+    for f in RESPONSE_ARRAYS:
         first = getattr(parts[0][1], f)
         arr = np.zeros((n,) + first.shape[1:], dtype=first.dtype)
         for idx, r in parts:
@@ -265,86 +261,116 @@ def assess_motions(
     if not isinstance(profile, VesselProfile):
         raise SeawayInputError(f"profile must be a VesselProfile, got {type(profile).__name__}")
     st = profile.station(station)
-    if partitions is not None:
-        if not isinstance(partitions, SeaPartitions):
-            raise SeawayInputError(f"partitions must be SeaPartitions, got {type(partitions).__name__}")
-        hs, tp, wf = partitions.hs_m, partitions.tp_s, partitions.wave_from_deg
-        gam, spr = partitions.gamma, partitions.spread_s
-    else:
-        for name, v in (("hs_m", hs_m), ("tp_s", tp_s), ("wave_from_deg", wave_from_deg)):
-            if v is None:
-                raise SeawayInputError(f"{name} is required when partitions is not given")
-        hs = np.atleast_1d(require_nonnegative("hs_m", hs_m)).reshape(-1)
-        n0 = max(hs.size, np.size(tp_s), np.size(wave_from_deg), np.size(course_deg), np.size(speed_m_s))
-        hs = _vec("hs_m", hs, n0, nonneg=True)[:, None]
-        tp = _vec("tp_s", require_positive("tp_s", tp_s), n0)[:, None]
-        wf = _vec("wave_from_deg", wave_from_deg, n0)[:, None]
-        gam = np.array([float(as_float_array("gamma", gamma))])
-        spr = np.array([float(require_nonnegative("spread_s", spread_s))])
+    hs, tp, wf, gam, spr = _sea_inputs(partitions, hs_m, tp_s, wave_from_deg, course_deg, speed_m_s, gamma, spread_s)
     n = hs.shape[0]
     course = _vec("course_deg", course_deg, n)
     speed = _vec("speed_m_s", speed_m_s, n, nonneg=True)
     depth = None
     if depth_m is not None:
         depth = _vec("depth_m", require_positive("depth_m", depth_m, allow_inf=True), n)
+    method = _checked_method(method, n, gam)
+    transfer = transfer_model(profile)
+    sea = _Sea(hs, tp, wf, course, speed, depth, gam, spr)
+    grid = (bool(long_crested), n_freq, n_dir)
+    r = (_exact(transfer, st, sea, grid) if method == "exact" else _tabled(profile, transfer, st, sea, grid))
+    return _assessment(profile, st, sea, r, method, exposure_h)
+
+
+def _checked_method(method: Optional[str], n: int, gam: FloatArray) -> str:
+    """The response method for n samples (None/"auto": by AUTO_TABLE_MIN_SAMPLES); checks gamma."""
     if method is None or method == "auto":
         method = "exact" if n < AUTO_TABLE_MIN_SAMPLES else "table"
     if method not in ("exact", "table"):
         raise SeawayInputError(f"method must be 'exact', 'table' or None, got {show(method)}")
     if np.any(gam < 1.0):
         raise SeawayInputError(f"gamma must be >= 1, got {show(gam[gam < 1][0])}")
-    transfer = transfer_model(profile)
-    stations = (st,)
-    if method == "exact":
-        r: MotionResponse = motion_response(
-            transfer, stations, hs_m=hs, tp_s=tp, wave_from_deg=wf, course_deg=course, speed_m_s=speed,
-            depth_m=depth, gamma=gam, spread_s=spr, long_crested=long_crested, n_freq=n_freq, n_dir=n_dir,
-        )
-    else:
-        shallow = _needs_depth(depth, hs, tp, G_STANDARD_M_S2)
-        parts = []
-        deep_idx = np.flatnonzero(~shallow)
-        if deep_idx.size:
-            mu = relative_heading_deg(course[deep_idx, None], wf[deep_idx])
-            # one table set per distinct (gamma, spread) partition shape
-            shapes = sorted(set(zip(gam.tolist(), spr.tolist())))
-            rs = []
-            for g_, s_ in shapes:
-                cols = [i for i in range(hs.shape[1]) if gam[i] == g_ and spr[i] == s_]
-                ts = _table_set(profile, st, transfer, _speed_nodes(speed[deep_idx]), None, g_, s_,
-                                bool(long_crested), n_freq, n_dir)
-                rs.append((cols, ts))
-            if len(rs) == 1:
-                rd = rs[0][1].lookup(hs[deep_idx], tp[deep_idx], mu, speed[deep_idx])
-            else:
-                rd = _multi_shape_lookup(rs, hs[deep_idx], tp[deep_idx], mu, speed[deep_idx], None)
-            parts.append((deep_idx, rd))
-        sh_idx = np.flatnonzero(shallow)
-        if sh_idx.size:
-            assert depth is not None
-            rsh = motion_response(
-                transfer, stations, hs_m=hs[sh_idx], tp_s=tp[sh_idx], wave_from_deg=wf[sh_idx],
-                course_deg=course[sh_idx], speed_m_s=speed[sh_idx], depth_m=depth[sh_idx], gamma=gam,
-                spread_s=spr, long_crested=long_crested, n_freq=n_freq, n_dir=n_dir,
-            )
-            parts.append((sh_idx, rsh))
-        r = _merge(n, parts, (st.name,), "table")
+    return method
+
+
+@dataclass(frozen=True)
+class _Sea:
+    """Validated inputs of one call: (n, p) partitions, (n,) course, speed, depth, (p,) shapes."""
+
+    hs: FloatArray
+    tp: FloatArray
+    wf: FloatArray
+    course: FloatArray
+    speed: FloatArray
+    depth: Optional[FloatArray]
+    gam: FloatArray
+    spr: FloatArray
+
+
+def _sea_inputs(partitions: Optional[SeaPartitions], hs_m: Optional[ArrayLike], tp_s: Optional[ArrayLike],
+                wave_from_deg: Optional[ArrayLike], course_deg: ArrayLike, speed_m_s: ArrayLike, gamma: float,
+                spread_s: float) -> Tuple[FloatArray, FloatArray, FloatArray, FloatArray, FloatArray]:
+    """(n, p) Hs, Tp, direction and (p,) gamma, spread from the partitions or the combined sea."""
+    if partitions is not None:
+        if not isinstance(partitions, SeaPartitions):
+            raise SeawayInputError(f"partitions must be SeaPartitions, got {type(partitions).__name__}")
+        return (partitions.hs_m, partitions.tp_s, partitions.wave_from_deg, partitions.gamma,
+                partitions.spread_s)
+    for name, v in (("hs_m", hs_m), ("tp_s", tp_s), ("wave_from_deg", wave_from_deg)):
+        if v is None:
+            raise SeawayInputError(f"{name} is required when partitions is not given")
+    hs = np.atleast_1d(require_nonnegative("hs_m", hs_m)).reshape(-1)
+    n0 = max(hs.size, np.size(tp_s), np.size(wave_from_deg), np.size(course_deg), np.size(speed_m_s))
+    return (_vec("hs_m", hs, n0, nonneg=True)[:, None], _vec("tp_s", require_positive("tp_s", tp_s), n0)[:, None],
+            _vec("wave_from_deg", wave_from_deg, n0)[:, None], np.array([float(as_float_array("gamma", gamma))]),
+            np.array([float(require_nonnegative("spread_s", spread_s))]))
+
+
+def _exact(transfer: Any, st: Station, sea: _Sea, grid: Tuple[bool, int, int],
+           idx: Optional[NDArray[np.int64]] = None) -> MotionResponse:
+    """The exact path (spectral integration) for all samples or those at ``idx``."""
+    sel = slice(None) if idx is None else idx
+    return motion_response(
+        transfer, (st,), hs_m=sea.hs[sel], tp_s=sea.tp[sel], wave_from_deg=sea.wf[sel],
+        course_deg=sea.course[sel], speed_m_s=sea.speed[sel], depth_m=None if sea.depth is None else sea.depth[sel],
+        gamma=sea.gam, spread_s=sea.spr, long_crested=grid[0], n_freq=grid[1], n_dir=grid[2],
+    )
+
+
+def _tabled(profile: VesselProfile, transfer: Any, st: Station, sea: _Sea, grid: Tuple[bool, int, int]) -> MotionResponse:
+    """The table path: deep-water samples from cached tables (one set per partition shape),
+    samples where the depth matters (DEEP_KH) through the exact path."""
+    n = sea.hs.shape[0]
+    shallow = _needs_depth(sea.depth, sea.hs, sea.tp, G_STANDARD_M_S2)
+    parts = []
+    deep_idx = np.flatnonzero(~shallow)
+    if deep_idx.size:
+        hs, tp, speed = sea.hs[deep_idx], sea.tp[deep_idx], sea.speed[deep_idx]
+        mu = relative_heading_deg(sea.course[deep_idx, None], sea.wf[deep_idx])
+        rs = []
+        for g_, s_ in sorted(set(zip(sea.gam.tolist(), sea.spr.tolist()))):
+            cols = [i for i in range(sea.hs.shape[1]) if sea.gam[i] == g_ and sea.spr[i] == s_]
+            rs.append((cols, _table_set(profile, st, transfer, _speed_nodes(speed), None, g_, s_, *grid)))
+        if len(rs) == 1:
+            rd = rs[0][1].lookup(hs, tp, mu, speed)
+        else:
+            rd = _multi_shape_lookup(rs, hs, tp, mu, speed, None)
+        parts.append((deep_idx, rd))
+    sh_idx = np.flatnonzero(shallow)
+    if sh_idx.size:
+        parts.append((sh_idx, _exact(transfer, st, sea, grid, sh_idx)))
+    return _merge(n, parts, (st.name,), "table")
+
+
+def _assessment(profile: VesselProfile, st: Station, sea: _Sea, r: MotionResponse, method: str,
+                exposure_h: float) -> MotionAssessment:
+    """Comfort verdict and guidance flags on top of the station's motions."""
     tr_s = profile.natural_roll_period_s
-    safety = circ1228_flags(profile.length_wl_m, tr_s, speed, course, hs, tp, wf, depth)
-    vacc = r.vacc_rms_m_s2[:, 0]
-    lacc = r.lacc_rms_m_s2[:, 0]
-    crit = evaluate_criteria(st.task, vacc, lacc, r.roll_rms_deg)
-    msi = msi_percent(mean_abs_from_rms(vacc), r.vacc_omega_rad_s[:, 0], exposure_h)
-    msi2 = msi if exposure_h == 2.0 else msi_percent(mean_abs_from_rms(vacc), r.vacc_omega_rad_s[:, 0], 2.0)
-    cls = _comfort_class(msi2, crit.usage)
+    safety = circ1228_flags(profile.length_wl_m, tr_s, sea.speed, sea.course, sea.hs, sea.tp, sea.wf, sea.depth)
+    vacc, lacc = r.vacc_rms_m_s2[:, 0], r.lacc_rms_m_s2[:, 0]
+    v = comfort_verdict(st.task, vacc, r.vacc_omega_rad_s[:, 0], lacc, r.roll_rms_deg, exposure_h=exposure_h)
     flags = r.flags | safety.mask
-    flags = flags | np.where(crit.exceeded, int(SampleFlag.CRITERIA_EXCEEDED), 0).astype(np.int64)
+    flags = flags | np.where(v.criteria.exceeded, int(SampleFlag.CRITERIA_EXCEEDED), 0).astype(np.int64)
     return MotionAssessment(
         heave_rms_m=r.heave_rms_m, pitch_rms_deg=r.pitch_rms_deg, roll_rms_deg=r.roll_rms_deg,
         heave_tz_s=r.heave_tz_s, pitch_tz_s=r.pitch_tz_s, roll_tz_s=r.roll_tz_s,
         vacc_rms_m_s2=vacc, lacc_rms_m_s2=lacc, vacc_wf_rms_m_s2=r.vacc_wf_rms_m_s2[:, 0],
-        vacc_omega_rad_s=r.vacc_omega_rad_s[:, 0], msi_pct=msi, comfort_class=cls,
-        flags=flags.astype(np.int64), criteria_margin=crit.margins, roll_period_s=float(tr_s),
+        vacc_omega_rad_s=r.vacc_omega_rad_s[:, 0], msi_pct=v.msi_pct, comfort_class=v.comfort_class,
+        flags=flags.astype(np.int64), criteria_margin=v.criteria.margins, roll_period_s=float(tr_s),
         station=st.name, method=method, task=st.task, exposure_h=float(exposure_h),
     )
 

@@ -170,11 +170,9 @@ def circ1228_flags(
     te = encounter_period(tp, speed[:, None], mu, depth, g_m_s2=g_m_s2).period_s
     sync = (period_ratio_mask(te, tr, sync_band) & present).any(axis=1)
     para = (period_ratio_mask(te, tr, parametric_band) & present).any(axis=1)
-    mask = (
-        surf.astype(np.int64) * int(SampleFlag.SURF_RIDING)
-        | high.astype(np.int64) * int(SampleFlag.HIGH_WAVE_GROUPS)
-        | sync.astype(np.int64) * int(SampleFlag.SYNC_ROLL)
-        | para.astype(np.int64) * int(SampleFlag.PARAMETRIC_ROLL)
-    )
+    mask = np.zeros(n, dtype=np.int64)
+    for hit, flag in ((surf, SampleFlag.SURF_RIDING), (high, SampleFlag.HIGH_WAVE_GROUPS),
+                      (sync, SampleFlag.SYNC_ROLL), (para, SampleFlag.PARAMETRIC_ROLL)):
+        mask |= np.where(hit, int(flag), 0)
     return SafetyFlags(mask=mask.astype(np.int64), surf_riding=surf, high_wave_groups=high,
                        sync_roll=sync, parametric_roll=para)

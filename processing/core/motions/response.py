@@ -41,7 +41,7 @@ long-crested beam seas) reports the mean encounter period of the waves as its pe
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 from typing import Any, Optional, Sequence, Tuple
 
 import numpy as np
@@ -74,6 +74,8 @@ __all__ = [
     "motion_response",
     "prepare_sea",
     "OUTSIDE_COVERAGE_LIMIT",
+    "RESPONSE_ARRAYS",
+    "concat_responses",
 ]
 
 ROWS: Tuple[str, ...] = ("heave", "pitch", "roll", "wave")
@@ -144,6 +146,17 @@ class MotionResponse:
         return self.station_names.index(name)
 
 
+RESPONSE_ARRAYS: Tuple[str, ...] = tuple(
+    f.name for f in fields(MotionResponse) if f.name not in ("station_names", "method"))
+"""The per-sample array fields of :class:`MotionResponse` (what a merge or concatenation copies)."""
+
+
+def concat_responses(parts: Sequence[MotionResponse]) -> MotionResponse:
+    """Responses of consecutive sample blocks joined into one (same stations and method)."""
+    kw = {name: np.concatenate([getattr(p, name) for p in parts], axis=0) for name in RESPONSE_ARRAYS}
+    return MotionResponse(station_names=parts[0].station_names, method=parts[0].method, **kw)
+
+
 def prepare_sea(
     hs_m: ArrayLike, tp_s: ArrayLike, wave_from_deg: ArrayLike, n: Optional[int] = None
 ) -> Tuple[FloatArray, FloatArray, FloatArray]:
@@ -211,67 +224,81 @@ def unit_moments(
     dgs = [direction_grid(n_dir, float(s), long_crested) for s in spread_s]
     theta_deg = dgs[0].theta_rel_rad * DEG_PER_RAD  # (nd,)
     wd = np.stack([d.weights for d in dgs])  # (p, nd)
-    nd = theta_deg.size
-    if frequency_grid is None:
-        xg = frequency_grid_rad_s(2.0 * math.pi, 2.0 * math.pi, n_freq)  # omega_p = 1
-        x, wx = xg.omega_rad_s, xg.weights_rad_s
-        s_t = jonswap_s_m2_s_rad(x, 1.0, 2.0 * math.pi, gamma, normalise_weights=wx if normalise_spectrum else None)
-        e_f_all = (s_t * wx)[None, :, :]  # (1, p, nf): S d omega, independent of Tp
-        nf = x.size
-    else:
-        om_abs, w_abs = frequency_grid.omega_rad_s, frequency_grid.weights_rad_s
-        nf = om_abs.size
+    energy = _wave_energy(gamma, n_freq, frequency_grid, normalise_spectrum)
     m_out = np.empty((n, p, 4, 5))
     outside = np.zeros((n, p))
-    per_sample = p * nf * nd
-    chunk = max(1, _CHUNK_ELEMENTS // per_sample)
-    theta_b = theta_deg[None, None, None, :]
+    n_f = n_freq if frequency_grid is None else frequency_grid.omega_rad_s.size
+    chunk = max(1, _CHUNK_ELEMENTS // (p * n_f * theta_deg.size))
+    # integrand buffers reused by every chunk (fresh large arrays per chunk cost page faults)
+    buf = np.empty((9, min(n, chunk), p, n_f, theta_deg.size))
     for a in range(0, n, chunk):
         b = min(n, a + chunk)
-        c = b - a
-        tp = tp_s[a:b]
-        if frequency_grid is None:
-            omega = x[None, None, :] * (2.0 * math.pi / tp)[:, :, None]  # (c, p, nf)
-            e_f = np.broadcast_to(e_f_all, (c, p, nf))
-        else:
-            omega = np.broadcast_to(om_abs, (c, p, nf))
-            s_abs = jonswap_s_m2_s_rad(om_abs, 1.0, tp, gamma[None, :],
-                                       normalise_weights=w_abs if normalise_spectrum else None)
-            e_f = s_abs * w_abs
+        omega, e_f = energy(tp_s[a:b])
+        mu = rel_heading_deg[a:b, :, None, None] + theta_deg[None, None, None, :]  # (c, p, 1, nd)
         depth = None if depth_m is None else depth_m[a:b, None, None]
-        k = wavenumber_rad_m(omega, depth, g_m_s2=g_m_s2)  # (c, p, nf)
-        mu = rel_heading_deg[a:b, :, None, None] + theta_b  # (c, p, 1, nd)
-        cmu = cos_deg(mu)
-        smu = np.abs(cos_deg(mu - 90.0))
-        om4 = omega[..., None]
-        k4 = k[..., None]
-        u = speed_m_s[a:b, None, None, None]
-        we = om4 - k4 * u * cmu  # (c, p, nf, nd)
-        tr = transfer.evaluate_grid(om4, k4, mu, cmu, smu, we)
-        e = e_f[..., None] * wd[None, :, None, :]  # (c, p, nf, nd)
-        we2 = we * we
-        we4 = we2 * we2
-        shape = we.shape
-        q = np.empty((4,) + shape)
-        q[0] = tr.heave_m_per_m**2 * e
-        q[1] = tr.pitch_rad_per_m**2 * e
-        q[2] = tr.roll_rad_per_m**2 * e
-        q[3] = e
-        w = np.empty((5,) + shape)
-        w[0] = 1.0
-        w[1] = we2
-        w[2] = we4
-        w[3] = we4 * we2
-        w[4] = we4 * _wf2_unchecked(np.abs(we))
-        qf = q.reshape(4, c * p, -1).transpose(1, 0, 2)  # (cp, 4, F)
-        wf = w.reshape(5, c * p, -1).transpose(1, 2, 0)  # (cp, F, 5)
-        m_out[a:b] = np.matmul(qf, wf).reshape(c, p, 4, 5)
+        m_out[a:b] = _chunk_moments(transfer, omega, e_f, wd, mu, speed_m_s[a:b], depth, g_m_s2, buf[:, :b - a])
         cov = transfer.covered(omega) if hasattr(transfer, "covered") else None
         if cov is not None:
             tot = e_f.sum(axis=-1)
             out = np.where(cov, 0.0, e_f).sum(axis=-1)
             outside[a:b] = np.where(tot > 0, out / np.where(tot > 0, tot, 1.0), 0.0)
     return UnitMoments(m=m_out, outside_fraction=outside)
+
+
+def _wave_energy(gamma: FloatArray, n_freq: int, frequency_grid: Optional[FrequencyGrid],
+                 normalise_spectrum: bool) -> Any:
+    """A function tp (c, p) -> (omega, S d omega) (c, p, nf) of the unit-Hs JONSWAP sea.
+
+    Default: the log grid scaled with each partition's peak frequency (the spectrum values on
+    it are independent of Tp, computed once); else the shared absolute ``frequency_grid``.
+    """
+    if frequency_grid is None:
+        xg = frequency_grid_rad_s(2.0 * math.pi, 2.0 * math.pi, n_freq)  # omega_p = 1
+        x, wx = xg.omega_rad_s, xg.weights_rad_s
+        s_t = jonswap_s_m2_s_rad(x, 1.0, 2.0 * math.pi, gamma, normalise_weights=wx if normalise_spectrum else None)
+        e_f_all = (s_t * wx)[None, :, :]  # (1, p, nf): S d omega, independent of Tp
+
+        def scaled(tp: FloatArray) -> Tuple[FloatArray, FloatArray]:
+            omega = x[None, None, :] * (2.0 * math.pi / tp)[:, :, None]  # (c, p, nf)
+            return omega, np.broadcast_to(e_f_all, omega.shape)
+        return scaled
+    om_abs, w_abs = frequency_grid.omega_rad_s, frequency_grid.weights_rad_s
+
+    def shared(tp: FloatArray) -> Tuple[FloatArray, FloatArray]:
+        s_abs = jonswap_s_m2_s_rad(om_abs, 1.0, tp, gamma[None, :],
+                                   normalise_weights=w_abs if normalise_spectrum else None)
+        return np.broadcast_to(om_abs, tp.shape + (om_abs.size,)), s_abs * w_abs
+    return shared
+
+
+def _chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatArray, mu: FloatArray,
+                   speed_m_s: FloatArray, depth: Optional[FloatArray], g_m_s2: float, buf: FloatArray) -> FloatArray:
+    """Moments (c, p, 4, 5) of one chunk (module docstring): omega, e_f (c, p, nf) absolute
+    frequencies and wave energy S d omega, wd (p, nd) direction weights, mu (c, p, 1, nd);
+    ``buf`` (9, c, p, nf, nd) scratch space for the integrand factors."""
+    c, p = omega.shape[:2]
+    k = wavenumber_rad_m(omega, depth, g_m_s2=g_m_s2)  # (c, p, nf)
+    cmu = cos_deg(mu)
+    smu = np.abs(cos_deg(mu - 90.0))
+    om4, k4 = omega[..., None], k[..., None]
+    we = om4 - k4 * speed_m_s[:, None, None, None] * cmu  # (c, p, nf, nd)
+    tr = transfer.evaluate_grid(om4, k4, mu, cmu, smu, we)
+    e = e_f[..., None] * wd[None, :, None, :]  # (c, p, nf, nd)
+    we2 = we * we
+    we4 = we2 * we2
+    q, w = buf[:4], buf[4:]
+    q[0] = tr.heave_m_per_m**2 * e
+    q[1] = tr.pitch_rad_per_m**2 * e
+    q[2] = tr.roll_rad_per_m**2 * e
+    q[3] = e
+    w[0] = 1.0
+    w[1] = we2
+    w[2] = we4
+    w[3] = we4 * we2
+    w[4] = we4 * _wf2_unchecked(np.abs(we))
+    qf = q.reshape(4, c * p, -1).transpose(1, 0, 2)  # (cp, 4, F)
+    wf = w.reshape(5, c * p, -1).transpose(1, 2, 0)  # (cp, F, 5)
+    return np.matmul(qf, wf).reshape(c, p, 4, 5)
 
 
 def _ratio_period(m0: FloatArray, m2: FloatArray, fb0: FloatArray, fb2: FloatArray) -> FloatArray:

@@ -32,6 +32,7 @@ from ..flags import SampleFlag
 from .response import (
     MotionResponse,
     combine_quantities,
+    concat_responses,
     prepare_sea,
     station_quantities,
     unit_moments,
@@ -154,16 +155,7 @@ class ResponseTable:
             parts.append(combine_quantities(val, hs[a:b], self.station_names, flags=flags, method="table"))
         if len(parts) == 1:
             return parts[0]
-        return _concat(parts)
-
-
-def _concat(parts: Sequence[MotionResponse]) -> MotionResponse:
-    f0 = parts[0]
-    kw = {}
-    for name in ("heave_rms_m", "pitch_rms_deg", "roll_rms_deg", "heave_tz_s", "pitch_tz_s", "roll_tz_s",
-                 "vacc_rms_m_s2", "vacc_omega_rad_s", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "flags"):
-        kw[name] = np.concatenate([getattr(p, name) for p in parts], axis=0)
-    return MotionResponse(station_names=f0.station_names, method=f0.method, **kw)
+        return concat_responses(parts)
 
 
 def build_response_table(
@@ -252,7 +244,7 @@ class ResponseTableSet:
         for a in range(0, n, chunk_size):
             b = min(n, a + chunk_size)
             parts.append(self._lookup(hs[a:b], tp[a:b], mu[a:b], u[a:b], inv[a:b]))
-        return parts[0] if len(parts) == 1 else _concat(parts)
+        return parts[0] if len(parts) == 1 else concat_responses(parts)
 
     @staticmethod
     def _axis(grid: FloatArray, v: FloatArray) -> Tuple[NDArray[np.int64], FloatArray, NDArray[np.bool_]]:

@@ -54,7 +54,7 @@ def _geod_call(method: str, *arrays: FloatArray) -> Tuple[FloatArray, FloatArray
     (about a thousand warnings per run on Debian 13); one-element inputs are therefore passed
     as Python floats, which is what pyproj means by a scalar.
     """
-    args = [np.asarray(a, dtype=float) for a in arrays]
+    args = [np.atleast_1d(np.asarray(a, dtype=float)) for a in arrays]
     if all(a.size == 1 for a in args):
         out = getattr(_GEOD, method)(*(float(a.reshape(())) for a in args))
     else:
@@ -74,7 +74,7 @@ DateLike = Union[np.datetime64, _dt.datetime, str]
 def wrap_lon_deg(lon_deg: ArrayLike) -> FloatArray:
     """Longitude wrapped to [-180, 180) degrees."""
     lon = as_float_array("lon_deg", lon_deg)
-    out = np.mod(lon + 180.0, 360.0) - 180.0
+    out = wrap_deg(lon + 180.0) - 180.0
     out = np.where(out >= 180.0, -180.0, out)
     # values already in range are returned bit-for-bit (the mod above can round them)
     return np.where((lon >= -180.0) & (lon < 180.0), lon, out)
@@ -129,6 +129,34 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
         distinct vertices (zero-length route), spacing_nm <= 0, or more than
         MAX_ROUTE_SAMPLES samples.
     """
+    lon, lat, spacing_m = _checked_vertices(lon_deg, lat_deg, spacing_nm)
+    lon, lat = _drop_duplicates(lon, lat)
+    az12, az21, seg_len = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
+    pieces = _pieces(seg_len, spacing_m, spacing_nm)
+    n_seg = seg_len.size
+    counts = pieces.astype(np.int64)
+    seg_idx = np.repeat(np.arange(n_seg, dtype=np.int64), counts)
+    starts = np.concatenate(([0], np.cumsum(counts)[:-1]))
+    j = np.arange(seg_idx.size, dtype=np.int64) - starts[seg_idx]
+    along = j * (seg_len / pieces)[seg_idx]
+    plon, plat, pbaz = _geod_call("fwd", lon[:-1][seg_idx], lat[:-1][seg_idx], az12[seg_idx], along)
+    course = wrap_deg(pbaz + 180.0)
+    vertex = j == 0
+    # exact input coordinates and departure azimuths at the vertices
+    plon[vertex], plat[vertex], course[vertex] = lon[:-1], lat[:-1], wrap_deg(az12)
+    seg_start = np.concatenate(([0.0], np.cumsum(seg_len)[:-1]))
+    return RouteSamples(
+        lon_deg=wrap_lon_deg(np.append(plon, lon[-1])),
+        lat_deg=np.append(plat, lat[-1]),
+        dist_m=np.append(seg_start[seg_idx] + along, seg_start[-1] + seg_len[-1]),
+        course_deg=np.append(course, wrap_deg(az21[-1] + 180.0)),
+        is_vertex=np.append(vertex, True),
+        segment_index=np.append(seg_idx, n_seg - 1).astype(np.int64),
+    )
+
+
+def _checked_vertices(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> "tuple[FloatArray, FloatArray, float]":
+    """Vertices as 1-D arrays (longitudes wrapped to [-180, 180)) and the spacing [m]."""
     lon = as_float_array("lon_deg", lon_deg)
     lat = require_in_range("lat_deg", lat_deg, -90.0, 90.0, unit="deg")
     if lon.ndim != 1 or lat.ndim != 1 or lon.shape != lat.shape:
@@ -139,22 +167,22 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
     spacing = require_positive("spacing_nm", spacing_nm)
     if spacing.ndim != 0:
         raise SeawayInputError(f"spacing_nm must be a scalar, got shape {spacing.shape}")
-    spacing_m = float(spacing) * NAUTICAL_MILE_M
     if lon.size < 2:
         raise SeawayInputError(f"a route needs at least 2 vertices, got {lon.size}")
-    lon = wrap_lon_deg(lon)
+    return wrap_lon_deg(lon), lat, float(spacing) * NAUTICAL_MILE_M
 
-    # drop consecutive duplicates
+
+def _drop_duplicates(lon: FloatArray, lat: FloatArray) -> "tuple[FloatArray, FloatArray]":
+    """Drop consecutive vertices closer than DUPLICATE_TOLERANCE_M (with a warning)."""
     _, _, s_all = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
-    s_all = np.asarray(s_all, dtype=float)
-    dup = s_all < DUPLICATE_TOLERANCE_M
+    dup = np.asarray(s_all, dtype=float) < DUPLICATE_TOLERANCE_M
     if dup.any():
         idx = np.flatnonzero(dup) + 1
         warnings.warn(
             f"densify_route: dropped {idx.size} consecutive duplicate vertex(es) at input "
             f"index {idx.tolist()[:10]}",
             UserWarning,
-            stacklevel=2,
+            stacklevel=3,
         )
         keep = np.ones(lon.size, dtype=bool)
         keep[idx] = False
@@ -163,46 +191,21 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
         raise SeawayInputError(
             "the route has zero length: fewer than 2 distinct vertices after dropping duplicates"
         )
+    return lon, lat
 
-    az12, az21, seg_len = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
-    az12 = np.atleast_1d(np.asarray(az12, dtype=float))
-    az21 = np.atleast_1d(np.asarray(az21, dtype=float))
-    seg_len = np.atleast_1d(np.asarray(seg_len, dtype=float))
-    n_seg = seg_len.size
+
+def _pieces(seg_len: FloatArray, spacing_m: float, spacing_nm: float) -> FloatArray:
+    """Equal pieces per leg, none longer than the spacing; refuses more than MAX_ROUTE_SAMPLES."""
     pieces = np.maximum(np.ceil(seg_len / spacing_m), 1.0)
     # guard against a rounding-down of s/m above the spacing
     pieces = np.where(seg_len / pieces > spacing_m, pieces + 1.0, pieces)
     total = int(pieces.sum()) + 1
     if total > MAX_ROUTE_SAMPLES:
         raise SeawayInputError(
-            f"spacing_nm={show(float(spacing))} would create {total} samples (more than "
+            f"spacing_nm={show(float(spacing_nm))} would create {total} samples (more than "
             f"{MAX_ROUTE_SAMPLES}); choose a larger spacing"
         )
-    counts = pieces.astype(np.int64)
-    seg_idx = np.repeat(np.arange(n_seg, dtype=np.int64), counts)
-    starts = np.concatenate(([0], np.cumsum(counts)[:-1]))
-    j = np.arange(seg_idx.size, dtype=np.int64) - starts[seg_idx]
-    along = j * (seg_len / pieces)[seg_idx]
-    plon, plat, pbaz = _geod_call("fwd", lon[:-1][seg_idx], lat[:-1][seg_idx], az12[seg_idx], along)
-    plon = np.asarray(plon, dtype=float)
-    plat = np.asarray(plat, dtype=float)
-    course = wrap_deg(np.asarray(pbaz, dtype=float) + 180.0)
-    vertex = j == 0
-    # exact input coordinates and departure azimuths at the vertices
-    plon[vertex] = lon[:-1]
-    plat[vertex] = lat[:-1]
-    course[vertex] = wrap_deg(az12)
-    seg_start = np.concatenate(([0.0], np.cumsum(seg_len)[:-1]))
-    dist = seg_start[seg_idx] + along
-
-    return RouteSamples(
-        lon_deg=wrap_lon_deg(np.append(plon, lon[-1])),
-        lat_deg=np.append(plat, lat[-1]),
-        dist_m=np.append(dist, seg_start[-1] + seg_len[-1]),
-        course_deg=np.append(course, wrap_deg(az21[-1] + 180.0)),
-        is_vertex=np.append(vertex, True),
-        segment_index=np.append(seg_idx, n_seg - 1).astype(np.int64),
-    )
+    return pieces
 
 
 def _dist_1d(dist_m: ArrayLike) -> FloatArray:

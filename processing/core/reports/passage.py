@@ -25,6 +25,7 @@ from typing import Dict, List, Optional, Sequence, Tuple
 import numpy as np
 
 from ..flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
+from ..passage.fields import MOTION_OUTPUTS
 from ..passage.pipeline import NOT_COMPUTED_CLASS, PassageResult, PassageSummary
 
 __all__ = [
@@ -318,6 +319,7 @@ def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
         parts.append(f'<p class="small">{pick.size} of {r.n} samples shown (evenly thinned, route '
                      "vertices kept); every sample is in the point layer.</p>")
     flag_text = r.flag_text()
+    motion_cols = [o for o in MOTION_OUTPUTS if o.report_digits is not None]
     srows = []
     for i in pick:
         c = int(r.comfort_class[i])
@@ -325,15 +327,15 @@ def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
         srows.append((
             str(int(r.seq[i])), _fmt_time(r.eta_utc[i]), _fmt(r.dist_nm[i], 1), _fmt(r.course_deg[i], 0),
             _fmt(r.hs_m[i]), _fmt(r.tp_s[i], 1), _fmt(r.wave_from_deg[i], 0), _fmt(r.rel_heading_deg[i], 0),
-            _fmt(r.enc_period_s[i], 1), _fmt(r.heave_rms_m[i]), _fmt(r.pitch_rms_deg[i], 1),
-            _fmt(r.roll_rms_deg[i], 1), _fmt(r.vacc_rms_m_s2[i]), _fmt(r.msi_pct[i], 1),
+            _fmt(r.enc_period_s[i], 1),
+            *(_fmt(getattr(r, o.name)[i], o.report_digits) for o in motion_cols),
             _fmt(r.msdv_cum[i], 1), _swatch(colour) + " " + _esc(r.comfort_label[i] or "not computed"),
             flag_text[i], r.source[i],
         ))
     parts.append(_table(
-        ("seq", "ETA", "NM", "course", "Hs m", "Tp s", "from deg", "rel. hdg", "Te s", "heave m",
-         "pitch deg", "roll deg", "v.acc m/s2", "MSI %", "MSDV", "comfort", "flags", "source"),
-        srows, raw_cols=(15,),
+        ("seq", "ETA", "NM", "course", "Hs m", "Tp s", "from deg", "rel. hdg", "Te s",
+         *(o.label for o in motion_cols), "MSDV", "comfort", "flags", "source"),
+        srows, raw_cols=(10 + len(motion_cols),),
     ))
     return "\n".join(parts)
 

@@ -52,23 +52,21 @@ forecasts and warnings, or local rules and regulations.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field, replace
-from typing import Callable, Dict, List, Optional, Sequence, Tuple
+from dataclasses import dataclass, field
+from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
+from ..comfort.exposure import NOT_COMPUTED_CLASS, dwell_s, hours_in_classes, msdv_at_end
 from ..flags import CAUTION, NOT_COMPUTED_FLAGS, SAFETY_FLAGS, SampleFlag, flag_codes
-from ..passage.pipeline import (
+from ..passage.plan import PassagePlan, as_utc_datetime64, plan_passage
+from ..passage.progress import Progress, Span
+from ..passage.respond import respond_motions
+from ..passage.sample import (
     DEFAULT_LAND_SEARCH_KM,
     DEFAULT_TIME_TOLERANCE_S,
-    NOT_COMPUTED_CLASS,
-    PassageCancelled,
-    PassagePlan,
-    as_utc_datetime64,
-    plan_passage,
-    respond,
-    sample_sea,
+    sample_sea_at,
     source_display_name,
     source_time_range,
 )
@@ -110,8 +108,6 @@ MAX_DEPARTURES: int = 10_000
 MAX_SAMPLES_PER_CALL: int = 250_000
 """Stacked samples (departures x route samples) per sampling/response call."""
 
-N_CLASSES: int = 5
-Progress = Callable[[float], bool]
 
 
 # ---------------------------------------------------------------------------------------------
@@ -315,52 +311,8 @@ class SweepResult:
 
 
 # ---------------------------------------------------------------------------------------------
-# helpers
+# one speed through one source: all departures stacked into one track
 # ---------------------------------------------------------------------------------------------
-
-
-class _Span:
-    """Map a part's own progress 0..1 onto [lo, hi] of the caller's; remember a stop request."""
-
-    def __init__(self, progress: Optional[Progress], lo: float, hi: float) -> None:
-        self.progress, self.lo, self.hi = progress, lo, hi
-
-    def __call__(self, fraction: float) -> bool:
-        if self.progress is None:
-            return True
-        f = self.lo + (self.hi - self.lo) * min(max(float(fraction), 0.0), 1.0)
-        return self.progress(f) is not False
-
-    def check(self, fraction: float) -> None:
-        if not self(fraction):
-            raise PassageCancelled("departure sweep cancelled")
-
-
-def _dwell_h(elapsed_s: FloatArray) -> FloatArray:
-    """Hours each sample stands for: half the interval before plus half the interval after."""
-    out = np.zeros(elapsed_s.size)
-    if elapsed_s.size >= 2:
-        d = np.diff(elapsed_s)
-        out[:-1] += 0.5 * d
-        out[1:] += 0.5 * d
-    return out / SECONDS_PER_HOUR
-
-
-def _msdv_at_arrival(aw: FloatArray, elapsed_s: FloatArray) -> FloatArray:
-    """ISO 2631-1:1997 Annex D dose at arrival per departure (rows of ``aw``, (D, n) [m/s^2]).
-
-    MSDV = sqrt( sum_i (a_{i-1}**2 + a_i**2) / 2 * (t_i - t_{i-1}) ) [m/s^1.5] (trapezoid rule
-    on a_w**2); intervals with a NaN end point contribute nothing; NaN where no sample of the
-    departure has results.
-    """
-    if aw.shape[1] < 2:
-        out = np.where(np.isfinite(aw[:, 0]), 0.0, np.nan)
-        return out
-    a2 = 0.5 * (aw[:, :-1] ** 2 + aw[:, 1:] ** 2)
-    dt = np.diff(elapsed_s)[None, :]
-    dose2 = np.where(np.isfinite(a2), a2 * dt, 0.0).sum(axis=1)
-    any_ok = np.isfinite(aw).any(axis=1)
-    return np.where(any_ok, np.sqrt(dose2), np.nan)
 
 
 def _fmt_t(t: np.datetime64) -> str:
@@ -371,105 +323,105 @@ def _fmt_t(t: np.datetime64) -> str:
 
 @dataclass(frozen=True)
 class _Block:
-    """Per-departure figures of one speed and source ((D,) arrays, (D, 5) and (D, n))."""
+    """Per-departure figures of one speed and source ((D,) arrays, (D, 5) and (D, n)); the
+    names are those of :class:`SweepResult`, which stacks the blocks over speeds and sources."""
 
     worst_msi_pct: FloatArray
     worst_idx: NDArray[np.int64]
     hours_class: FloatArray
     hours_missing: FloatArray
-    msdv: FloatArray
+    msdv_arrival: FloatArray
     flags: NDArray[np.int64]
     n_missing: NDArray[np.int64]
-    cls: NDArray[np.int8]
+    comfort_class: NDArray[np.int8]
 
 
 def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDArray[np.int64],
-            missing: NDArray[np.bool_], dwell_h: FloatArray, elapsed_s: FloatArray) -> _Block:
-    """Reduce (D, n) per-sample arrays to per-departure figures."""
-    d = cls.shape[0]
+            missing: NDArray[np.bool_], elapsed_s: FloatArray) -> _Block:
+    """Reduce (D, n) per-sample arrays to per-departure figures (module docstring)."""
     m = np.where(np.isfinite(msi), msi, -np.inf)
     worst_idx = np.argmax(m, axis=1).astype(np.int64)
-    worst = m[np.arange(d), worst_idx]
+    worst = m[np.arange(cls.shape[0]), worst_idx]
     worst = np.where(np.isfinite(worst), worst, np.nan)
-    worst_idx = np.where(np.isfinite(worst), worst_idx, -1)
-    hours = np.stack([(np.where(cls == c, dwell_h[None, :], 0.0)).sum(axis=1) for c in range(N_CLASSES)], axis=1)
-    hours_missing = np.where(cls == NOT_COMPUTED_CLASS, dwell_h[None, :], 0.0).sum(axis=1)
+    hours, hours_missing = hours_in_classes(cls, dwell_s(elapsed_s))
     return _Block(
-        worst_msi_pct=worst,
-        worst_idx=worst_idx,
-        hours_class=hours,
-        hours_missing=hours_missing,
-        msdv=_msdv_at_arrival(aw, elapsed_s),
+        worst_msi_pct=worst, worst_idx=np.where(np.isfinite(worst), worst_idx, -1), hours_class=hours,
+        hours_missing=hours_missing, msdv_arrival=msdv_at_end(elapsed_s, aw),
         flags=np.bitwise_or.reduce(flags, axis=1).astype(np.int64),
-        n_missing=missing.sum(axis=1).astype(np.int64),
-        cls=cls.astype(np.int8),
+        n_missing=missing.sum(axis=1).astype(np.int64), comfort_class=cls.astype(np.int8),
     )
 
 
-def _run_source(plan: PassagePlan, deps: NDArray[np.datetime64], src: object, *, profile: object,
-                station: Optional[str], depth: Optional[object], gamma: float, spread_s: float,
-                long_crested: bool, method: str, land_search_km: float, time_tolerance_s: float,
-                span: _Span, notes: List[str], name: str) -> Tuple[_Block, str, str]:
-    """All departures of one speed through one source: stacked, time-ordered, chunked."""
-    n = plan.n
-    elapsed_s = plan.elapsed_s
+@dataclass(frozen=True)
+class _Setup:
+    """What every (speed, source) run shares: the response and sampling settings."""
+
+    profile: object
+    station: Optional[str]
+    depth: Optional[object]
+    gamma: float
+    spread_s: float
+    long_crested: bool
+    method: str
+    land_search_km: float
+    time_tolerance_s: float
+
+
+def _outside_block(shape: Tuple[int, int], elapsed_s: FloatArray) -> _Block:
+    """Departures none of whose samples lie in the source's time range: all marked OFFTIME."""
+    return _reduce(np.full(shape, NOT_COMPUTED_CLASS, dtype=np.int64), np.full(shape, np.nan),
+                   np.full(shape, np.nan), np.full(shape, int(SampleFlag.OUTSIDE_TIME), dtype=np.int64),
+                   np.ones(shape, dtype=bool), elapsed_s)
+
+
+def _run_chunk(plan: PassagePlan, eta: NDArray[np.datetime64], src: object, setup: _Setup, span: Span,
+               notes: List[str], name: str) -> Tuple[_Block, str, str]:
+    """Departures of one chunk ((D, n) arrival times ``eta``) through one source: every
+    (position, time) pair in time order as one track, sampled and answered in one call each."""
+    shape = eta.shape
+    flat = eta.ravel()
+    order = np.argsort(flat, kind="stable")
+    inv = np.empty_like(order)
+    inv[order] = np.arange(order.size)
+    track = plan.take(np.tile(np.arange(plan.n), shape[0])[order], flat[order])
+    sea = sample_sea_at(track, [src], depth=setup.depth, land_search_km=setup.land_search_km,
+                        time_tolerance_s=setup.time_tolerance_s, progress=span.part(0.0, 0.4))
+    mot = respond_motions(track, sea, setup.profile, station=setup.station, gamma=setup.gamma,
+                          spread_s=setup.spread_s, long_crested=setup.long_crested, method=setup.method,
+                          progress=span.part(0.4, 1.0))
+    notes.extend(f"{name}: {n_}" for n_ in sea.notes)
+    # calm samples (Hs = 0, no motions to compute) are not missing data
+    calm = ~mot.computed & np.isfinite(sea.hs_m) & (sea.hs_m <= 0.0) & ((mot.flags & int(NOT_COMPUTED_FLAGS)) == 0)
+
+    def back(a: NDArray) -> NDArray:
+        return a[inv].reshape(shape)
+
+    block = _reduce(back(mot.comfort_class), back(mot.outputs["msi_pct"]), back(mot.outputs["vacc_wf_rms_m_s2"]),
+                    back(mot.flags), back(~mot.computed & ~calm), plan.elapsed_s)
+    return block, mot.station_name, mot.method
+
+
+def _run_source(plan: PassagePlan, deps: NDArray[np.datetime64], src: object, setup: _Setup, span: Span,
+                notes: List[str], name: str) -> Tuple[_Block, str, str]:
+    """All departures of one speed through one source, in chunks of at most
+    :data:`MAX_SAMPLES_PER_CALL` stacked samples."""
     offsets = (deps - deps[0]).astype("timedelta64[ms]")
-    per_chunk = max(1, MAX_SAMPLES_PER_CALL // max(n, 1))
+    per_chunk = max(1, MAX_SAMPLES_PER_CALL // max(plan.n, 1))
     t0, t1 = source_time_range(src)
-    tol = np.timedelta64(int(round(time_tolerance_s * 1000.0)), "ms")
-    dwell_h = _dwell_h(elapsed_s)
-    station_name, method_used = station or "", method
+    tol = np.timedelta64(int(round(setup.time_tolerance_s * 1000.0)), "ms")
+    station_name, method_used = setup.station or "", setup.method
     n_chunks = int(math.ceil(deps.size / per_chunk))
     parts: List[_Block] = []
     for c in range(n_chunks):
-        sl = slice(c * per_chunk, min((c + 1) * per_chunk, deps.size))
-        sub = _Span(span, c / n_chunks, (c + 1) / n_chunks)
+        sub = span.part(c / n_chunks, (c + 1) / n_chunks)
         sub.check(0.0)
-        dc = deps[sl].size
-        shape = (dc, n)
-        eta = (plan.eta_utc[None, :] + offsets[sl, None]).ravel()
+        eta = plan.eta_utc[None, :] + offsets[c * per_chunk:(c + 1) * per_chunk, None]
         if not np.any((eta >= t0 - tol) & (eta <= t1 + tol)):
-            # no sample of these departures lies in this source's time range: all marked
-            parts.append(_reduce(np.full(shape, NOT_COMPUTED_CLASS, dtype=np.int64), np.full(shape, np.nan),
-                                 np.full(shape, np.nan), np.full(shape, int(SampleFlag.OUTSIDE_TIME), dtype=np.int64),
-                                 np.ones(shape, dtype=bool), dwell_h, elapsed_s))
+            parts.append(_outside_block(eta.shape, plan.elapsed_s))
             continue
-        order = np.argsort(eta, kind="stable")
-        inv = np.empty_like(order)
-        inv[order] = np.arange(order.size)
-        tile = np.tile(np.arange(n), dc)[order]
-        eta_sorted = eta[order]
-        inside = (eta_sorted >= t0 - tol) & (eta_sorted <= t1 + tol)
-        # the stacked plan: every (position, time) pair of these departures in time order; its
-        # departure is a time inside the forecast (sample_sea checks it, nothing else uses it:
-        # the dose and the dwell are computed per departure below)
-        stacked = replace(
-            plan,
-            lon_deg=plan.lon_deg[tile], lat_deg=plan.lat_deg[tile], dist_m=plan.dist_m[tile],
-            course_deg=plan.course_deg[tile], is_vertex=plan.is_vertex[tile],
-            segment_index=plan.segment_index[tile], eta_utc=eta_sorted, speed_kn=plan.speed_kn[tile],
-            departure_utc=eta_sorted[int(np.flatnonzero(inside)[0])],
-        )
-        sea = sample_sea(stacked, [src], depth=depth, land_search_km=land_search_km,
-                         time_tolerance_s=time_tolerance_s, progress=_Span(sub, 0.0, 0.4))
-        res = respond(stacked, sea, profile, station=station, gamma=gamma, spread_s=spread_s,
-                      long_crested=long_crested, method=method, progress=_Span(sub, 0.4, 1.0))
-        for n_ in res.notes:
-            # respond's note on msdv_cum counts intervals of the stacked set; the dose here is
-            # taken per departure (intervals without sea data are left out the same way)
-            if not n_.startswith("the cumulative dose"):
-                notes.append(f"{name}: {n_}")
-        station_name = res.station_name or station_name
-        method_used = res.method or method_used
-        # calm samples (Hs = 0, no motions to compute) are not missing data
-        calm = ~res.computed & np.isfinite(res.hs_m) & (res.hs_m <= 0.0)
-        calm &= (res.flags & int(NOT_COMPUTED_FLAGS)) == 0
-        parts.append(_reduce(
-            res.comfort_class[inv].reshape(shape), res.msi_pct[inv].reshape(shape),
-            res.vacc_wf_rms_m_s2[inv].reshape(shape), res.flags[inv].reshape(shape),
-            (~res.computed & ~calm)[inv].reshape(shape), dwell_h, elapsed_s,
-        ))
-        del sea, res, stacked
+        block, st, me = _run_chunk(plan, eta, src, setup, sub, notes, name)
+        parts.append(block)
+        station_name, method_used = st or station_name, me or method_used
         sub.check(1.0)
     block = parts[0] if len(parts) == 1 else _Block(**{
         f: np.concatenate([getattr(p, f) for p in parts], axis=0) for f in _Block.__dataclass_fields__})
@@ -579,6 +531,214 @@ def _recommend(rows: Sequence[SweepRow], deps: NDArray[np.datetime64], robust_ok
 # ---------------------------------------------------------------------------------------------
 
 
+def _checked_choices(criterion: str, max_class: object, method: str, speeds_kn: Sequence[float]) -> Tuple[int, Tuple[float, ...]]:
+    """Validate the ranking and response choices; the distinct speeds [kn] in order."""
+    if criterion not in CRITERIA:
+        raise SeawayInputError(f"criterion must be one of {', '.join(CRITERIA)}, got {show(criterion)}")
+    if isinstance(max_class, bool) or not isinstance(max_class, (int, np.integer)) or not 0 <= int(max_class) <= 4:
+        raise SeawayInputError(f"max_class must be a whole number 0..4 (comfort class), got {show(max_class)}")
+    if method not in ("table", "exact"):
+        raise SeawayInputError(f"method must be 'table' or 'exact', got {show(method)}")
+    speeds_arr = np.atleast_1d(as_float_array("speeds_kn", speeds_kn)).ravel()
+    if speeds_arr.size == 0:
+        raise SeawayInputError("speeds_kn must hold at least one speed, got none")
+    if np.any(~(speeds_arr > 0)):
+        raise SeawayInputError(f"speeds_kn must all be > 0 kn, got {show(speeds_arr.tolist())}")
+    return int(max_class), tuple(dict.fromkeys(float(v) for v in speeds_arr))
+
+
+def _tolerance(time_tolerance_s: float) -> Tuple[float, np.timedelta64]:
+    """The sampler's time tolerance [s] >= 0, also as a timedelta64[ms]."""
+    tol_s = float(require_nonnegative("time_tolerance_s", time_tolerance_s))
+    return tol_s, np.timedelta64(int(round(tol_s * 1000.0)), "ms")
+
+
+def _checked_sources(sea_states: Sequence[object], deps: NDArray[np.datetime64], tol: np.timedelta64
+                     ) -> Tuple[Tuple[str, ...], Tuple[Tuple[np.datetime64, np.datetime64], ...]]:
+    """Distinct source names and time ranges; the sources must overlap and hold a departure."""
+    if not sea_states:
+        raise SeawayInputError("sea_states must hold at least one sea-state source, got none")
+    names = tuple(source_display_name(s, i) for i, s in enumerate(sea_states))
+    if len(set(names)) != len(names):
+        raise SeawayInputError(
+            f"sea-state sources need distinct names to be compared, got {', '.join(names)}: give each source "
+            "its own name")
+    if ROBUST_SOURCE in names:
+        raise SeawayInputError(f"a source may not be called {show(ROBUST_SOURCE)} (that name marks the robust rows)")
+    ranges = tuple(source_time_range(s) for s in sea_states)
+    lo, hi = max(r[0] for r in ranges), min(r[1] for r in ranges)
+    desc = "; ".join(f"{n}: {_fmt_t(a)} to {_fmt_t(b)}" for n, (a, b) in zip(names, ranges))
+    if lo > hi + 2 * tol:
+        raise SeawayInputError(
+            f"the sea-state sources do not overlap in time ({desc}): a comparison needs forecasts for "
+            "the same period"
+        )
+    if not np.any((deps >= lo - tol) & (deps <= hi + tol)):
+        raise SeawayInputError(
+            f"no departure from {_fmt_t(deps[0])} to {_fmt_t(deps[-1])} lies inside the time range "
+            f"covered by every source ({desc}): choose departures inside the forecast"
+        )
+    return names, ranges
+
+
+def _run_all(plans: Sequence[PassagePlan], deps: NDArray[np.datetime64], sea_states: Sequence[object],
+             names: Tuple[str, ...], setup: _Setup, span: Span, notes: List[str]) -> Tuple[Dict[str, NDArray], str, str]:
+    """Every speed through every source; the blocks stacked to (S, K, D, ...) arrays by field."""
+    jobs = [(s, k) for s in range(len(plans)) for k in range(len(sea_states))]
+    blocks: List[_Block] = []
+    station_name, method_used = setup.station or "", setup.method
+    for j, (s, k) in enumerate(jobs):
+        b, station_name, method_used = _run_source(
+            plans[s], deps, sea_states[k], setup, span.part(0.98 * j / len(jobs), 0.98 * (j + 1) / len(jobs)),
+            notes, names[k])
+        blocks.append(b)
+    shape = (len(plans), len(sea_states))
+    stacked = {f: np.stack([getattr(b, f) for b in blocks]).reshape(shape + getattr(blocks[0], f).shape)
+               for f in _Block.__dataclass_fields__}
+    return stacked, station_name, method_used
+
+
+def _where_worst(fig: Dict[str, NDArray], plans: Sequence[PassagePlan], deps: NDArray[np.datetime64],
+                 dist_nm: FloatArray) -> Tuple[FloatArray, NDArray[np.datetime64]]:
+    """Distance [NM] and time (UTC) of the worst MSI per speed, source and departure."""
+    idx = fig.pop("worst_idx")
+    ok = idx >= 0
+    at = np.where(ok, idx, 0)
+    elapsed_ms = np.stack([np.round(p.elapsed_s * 1000.0).astype(np.int64) for p in plans])  # (S, n)
+    t_ms = np.take_along_axis(elapsed_ms[:, None, :], at.reshape(at.shape[0], 1, -1), axis=2).reshape(at.shape)
+    wdist = np.where(ok, dist_nm[at], np.nan)
+    wutc = np.where(ok, deps[None, None, :] + t_ms.astype("timedelta64[ms]"), np.datetime64("NaT"))
+    return wdist, wutc.astype("datetime64[ms]")
+
+
+def _in_forecast(fig: Dict[str, NDArray], deps: NDArray[np.datetime64], arrive: NDArray[np.datetime64],
+                 ranges: Sequence[Tuple[np.datetime64, np.datetime64]], tol: np.timedelta64) -> NDArray[np.bool_]:
+    """(S, K, D): departure to arrival inside each source's time range (with the tolerance)."""
+    t0 = np.array([r[0] for r in ranges])[None, :, None]
+    t1 = np.array([r[1] for r in ranges])[None, :, None]
+    return ((deps[None, None, :] >= t0 - tol) & (arrive[:, None, :] <= t1 + tol)
+            & ((fig["flags"] & int(SampleFlag.OUTSIDE_TIME)) == 0))
+
+
+def _outside_note(robust_in_forecast: NDArray[np.bool_]) -> List[str]:
+    n_out = int(np.count_nonzero(~robust_in_forecast))
+    if not n_out:
+        return []
+    return [f"{n_out} of {robust_in_forecast.size} departure/speed combinations run outside the time coverage "
+            "of at least one source: they are marked in_forecast = false and ranked after complete ones"]
+
+
+def _judge(fig: Dict[str, NDArray], criterion: str, max_class: int, in_forecast: NDArray[np.bool_],
+           offset_h: FloatArray) -> Dict[str, NDArray]:
+    """Per source: share who may vomit, hours above ``max_class``, within limits, criterion."""
+    from ..comfort.indices import vomiting_share_pct
+
+    msdv = fig["msdv_arrival"]
+    sick = np.full(msdv.shape, np.nan)
+    fin = np.isfinite(msdv)
+    sick[fin] = vomiting_share_pct(msdv[fin])
+    above = fig["hours_class"][..., max_class + 1:].sum(axis=-1)
+    safety = (fig["flags"] & int(SAFETY_FLAGS)) != 0
+    within = in_forecast & (fig["n_missing"] == 0) & (above <= 0.0) & ~safety
+    # a sample above max_class with zero dwell (single-sample passage) still counts
+    within &= ~np.any(fig["comfort_class"] > max_class, axis=-1)
+    crit = _criterion_values(criterion, fig["worst_msi_pct"], above, msdv, within,
+                             np.broadcast_to(offset_h, msdv.shape))
+    return dict(sick_pct_arrival=sick, hours_above=above, within_limits=within, criterion_value=crit)
+
+
+def _worst_over_sources(a: FloatArray) -> FloatArray:
+    fa = np.where(np.isfinite(a), a, -np.inf).max(axis=1)
+    return np.where(np.isfinite(fa), fa, np.nan)
+
+
+def _spread_over_sources(a: FloatArray) -> FloatArray:
+    allf = np.isfinite(a).all(axis=1)
+    return np.where(allf, np.nanmax(np.where(allf[:, None], a, 0.0), axis=1)
+                    - np.nanmin(np.where(allf[:, None], a, 0.0), axis=1), np.nan)
+
+
+def _robust(fig: Dict[str, NDArray], plans: Sequence[PassagePlan], criterion: str, max_class: int,
+            offset_h: FloatArray) -> Dict[str, NDArray]:
+    """Worst case over the sources ((S, D) arrays; module docstring)."""
+    cls_all = fig["comfort_class"]
+    rcls = np.where(np.any(cls_all == NOT_COMPUTED_CLASS, axis=1), NOT_COMPUTED_CLASS,
+                    cls_all.max(axis=1)).astype(np.int8)
+    hours = [hours_in_classes(rcls[s], dwell_s(p.elapsed_s)) for s, p in enumerate(plans)]
+    worst = fig["worst_msi_pct"]
+    k_at = np.argmax(np.where(np.isfinite(worst), worst, -np.inf), axis=1)[:, None]
+    r = dict(robust_class=rcls, hours_class=np.stack([h for h, _ in hours]),
+             hours_missing=np.stack([m for _, m in hours]), worst_msi_pct=_worst_over_sources(worst),
+             msdv_arrival=_worst_over_sources(fig["msdv_arrival"]),
+             sick_pct_arrival=_worst_over_sources(fig["sick_pct_arrival"]),
+             flags=np.bitwise_or.reduce(fig["flags"], axis=1), n_missing=fig["n_missing"].max(axis=1),
+             in_forecast=fig["in_forecast"].all(axis=1), within_limits=fig["within_limits"].all(axis=1),
+             crit_spread=_spread_over_sources(fig["criterion_value"]), msi_spread=_spread_over_sources(worst))
+    fin = np.isfinite(r["worst_msi_pct"])
+    r["worst_msi_dist_nm"] = np.where(fin, np.take_along_axis(fig["worst_msi_dist_nm"], k_at, axis=1)[:, 0], np.nan)
+    r["worst_msi_utc"] = np.where(fin, np.take_along_axis(fig["worst_msi_utc"], k_at, axis=1)[:, 0], np.datetime64("NaT"))
+    r["hours_above"] = r["hours_class"][..., max_class + 1:].sum(axis=-1)
+    if criterion == "earliest_ok":
+        r["criterion_value"] = np.where(r["within_limits"], np.broadcast_to(offset_h, r["within_limits"].shape), np.nan)
+    elif criterion == "hours_above":
+        r["criterion_value"] = r["hours_above"].copy()
+    else:
+        r["criterion_value"] = _worst_over_sources(fig["criterion_value"])
+    return r
+
+
+def _ranks_of(f: Dict[str, NDArray]) -> NDArray[np.int64]:
+    """Ranks over every departure and speed of one set of (S, D) figures (module docstring)."""
+    n_s, n_d = f["worst_msi_pct"].shape
+    si, di = np.meshgrid(np.arange(n_s), np.arange(n_d), indexing="ij")
+    complete = f["in_forecast"] & (f["n_missing"] == 0)
+    return _rank(complete.ravel(), f["criterion_value"].ravel(), f["hours_above"].ravel(),
+                 f["worst_msi_pct"].ravel(), di.ravel(), si.ravel()).reshape(n_s, n_d)
+
+
+_ROW_FIELDS = ("worst_msi_pct", "worst_msi_dist_nm", "worst_msi_utc", "hours_missing", "hours_above",
+               "msdv_arrival", "sick_pct_arrival", "flags", "n_missing", "in_forecast", "within_limits",
+               "criterion_value")
+
+
+def _row(f: Dict[str, NDArray], at: Tuple[int, ...], **fixed: object) -> SweepRow:
+    """One table row from (S, [K,] D) figures at index ``at``."""
+    kinds = {"flags": int, "n_missing": int, "in_forecast": bool, "within_limits": bool, "worst_msi_utc": None}
+    kw: Dict[str, object] = {}
+    for name in _ROW_FIELDS + tuple(k for k in ("crit_spread", "msi_spread") if k in f):
+        v = f[name][at]
+        kind = kinds.get(name, float)
+        kw[name] = v if kind is None else kind(v)
+    kw["hours_class"] = tuple(float(x) for x in f["hours_class"][at])
+    return SweepRow(**kw, **fixed)  # type: ignore[arg-type]
+
+
+def _table_rows(fig: Dict[str, NDArray], rob: Dict[str, NDArray], deps: NDArray[np.datetime64],
+                speeds: Tuple[float, ...], names: Tuple[str, ...], arrive: NDArray[np.datetime64],
+                duration_h: FloatArray) -> List[SweepRow]:
+    """Every row ordered by speed, departure, source (robust last)."""
+    ranks = np.stack([_ranks_of({k: v[:, i] for k, v in fig.items()}) for i in range(len(names))], axis=1)
+    r_ranks = _ranks_of(rob)
+    rows: List[SweepRow] = []
+    for s in range(len(speeds)):
+        for d in range(deps.size):
+            common = dict(depart_utc=deps[d], speed_kn=speeds[s], arrive_utc=arrive[s, d],
+                          duration_h=float(duration_h[s]))
+            rows.extend(_row(fig, (s, k, d), rank=int(ranks[s, k, d]), source=names[k], **common)
+                        for k in range(len(names)))
+            rows.append(_row(rob, (s, d), rank=int(r_ranks[s, d]), source=ROBUST_SOURCE, **common))
+    return rows
+
+
+def _timing(plans: Sequence[PassagePlan], deps: NDArray[np.datetime64]) -> Dict[str, NDArray]:
+    """Hours after departure per speed and sample, durations, arrivals, departure offsets [h]."""
+    elapsed_h = np.stack([p.elapsed_s / SECONDS_PER_HOUR for p in plans])
+    dur_ms = np.array([int(p.elapsed_s[-1] * 1000.0 + 0.5) for p in plans], dtype=np.int64)
+    return dict(elapsed_h=elapsed_h, duration_h=elapsed_h[:, -1].copy(),
+                arrive_utc=deps[None, :] + dur_ms[:, None].astype("timedelta64[ms]"),
+                offset_h=(deps - deps[0]).astype("timedelta64[ms]").astype(np.float64) / 3.6e6)
+
+
 def sweep_departures(
     route_lon_deg: ArrayLike,
     route_lat_deg: ArrayLike,
@@ -604,218 +764,38 @@ def sweep_departures(
 ) -> SweepResult:
     """Sweep departures (and speeds) over every sea-state source; rank them; recommend one.
 
-    Parameters
-    ----------
-    route_lon_deg, route_lat_deg : vertices of the one leg [deg WGS84].
-    depart_from_utc, depart_to_utc, step_h : the departure window (UTC) and step [h]
-        (:func:`departure_times`).
-    sea_states : open sea-state sources, each evaluated on its own (forecast comparison).
-    profile : the vessel profile; ``station`` its station (None = first).
-    speeds_kn : one or more speeds through the water [kn] > 0.
-    criterion : one of :data:`CRITERIA`; ``max_class`` worst acceptable comfort class 0..4.
-    depth, spacing_nm, gamma, spread_s, long_crested, land_search_km, time_tolerance_s : as
-        :func:`.passage.compute_passage`.
-    method : response method, "table" (default, fast) or "exact".
-    progress : ``progress(fraction) -> bool``; False stops with :class:`.passage.PassageCancelled`.
-
-    Raises :class:`SeawayInputError` for bad input (naming it), when the sources' time ranges
-    do not overlap, or when no departure lies inside the forecast of every source.
+    The departure window (UTC) and step [h] as :func:`departure_times`; each source evaluated on
+    its own; ``criterion`` one of :data:`CRITERIA`, ``max_class`` the worst acceptable comfort
+    class 0..4; ``method`` "table" (default) or "exact"; the other arguments as
+    :func:`.passage.pipeline.compute_passage`. Raises :class:`SeawayInputError` for bad input
+    (naming it), when the sources' time ranges do not overlap, or when no departure lies inside
+    the forecast of every source; :class:`.passage.progress.PassageCancelled` on a stop.
     """
-    if criterion not in CRITERIA:
-        raise SeawayInputError(f"criterion must be one of {', '.join(CRITERIA)}, got {show(criterion)}")
-    if isinstance(max_class, bool) or not isinstance(max_class, (int, np.integer)) or not 0 <= int(max_class) <= 4:
-        raise SeawayInputError(f"max_class must be a whole number 0..4 (comfort class), got {show(max_class)}")
-    max_class = int(max_class)
-    if method not in ("table", "exact"):
-        raise SeawayInputError(f"method must be 'table' or 'exact', got {show(method)}")
-    speeds_arr = np.atleast_1d(as_float_array("speeds_kn", speeds_kn)).ravel()
-    if speeds_arr.size == 0:
-        raise SeawayInputError("speeds_kn must hold at least one speed, got none")
-    if np.any(~(speeds_arr > 0)):
-        raise SeawayInputError(f"speeds_kn must all be > 0 kn, got {show(speeds_arr.tolist())}")
-    speeds = tuple(dict.fromkeys(float(v) for v in speeds_arr))
+    max_class, speeds = _checked_choices(criterion, max_class, method, speeds_kn)
     deps = departure_times(depart_from_utc, depart_to_utc, step_h)
-    if not sea_states:
-        raise SeawayInputError("sea_states must hold at least one sea-state source, got none")
-    names = tuple(source_display_name(s, i) for i, s in enumerate(sea_states))
-    if len(set(names)) != len(names):
-        raise SeawayInputError(
-            f"sea-state sources need distinct names to be compared, got {', '.join(names)}: give each source "
-            "its own name")
-    if ROBUST_SOURCE in names:
-        raise SeawayInputError(f"a source may not be called {show(ROBUST_SOURCE)} (that name marks the robust rows)")
-    ranges = tuple(source_time_range(s) for s in sea_states)
-    tol_s = float(require_nonnegative("time_tolerance_s", time_tolerance_s))
-    tol = np.timedelta64(int(round(tol_s * 1000.0)), "ms")
-    lo = max(r[0] for r in ranges)
-    hi = min(r[1] for r in ranges)
-    desc = "; ".join(f"{n}: {_fmt_t(a)} to {_fmt_t(b)}" for n, (a, b) in zip(names, ranges))
-    if lo > hi + 2 * tol:
-        raise SeawayInputError(
-            f"the sea-state sources do not overlap in time ({desc}): a comparison needs forecasts for "
-            "the same period"
-        )
-    if not np.any((deps >= lo - tol) & (deps <= hi + tol)):
-        raise SeawayInputError(
-            f"no departure from {_fmt_t(deps[0])} to {_fmt_t(deps[-1])} lies inside the time range "
-            f"covered by every source ({desc}): choose departures inside the forecast"
-        )
-
-    outer = _Span(progress, 0.0, 1.0)
-    outer.check(0.0)
-    n_s, n_k, n_d = len(speeds), len(sea_states), deps.size
+    tol_s, tol = _tolerance(time_tolerance_s)
+    names, ranges = _checked_sources(sea_states, deps, tol)
+    span = Span(progress, what="departure sweep")
+    span.check(0.0)
     plans = [plan_passage(route_lon_deg, route_lat_deg, departure_utc=deps[0], speed_kn=v, spacing_nm=spacing_nm)
              for v in speeds]
-    n = plans[0].n
+    setup = _Setup(profile, station, depth, gamma, spread_s, long_crested, method, land_search_km, tol_s)
     notes: List[str] = []
-    blocks: List[List[_Block]] = []
-    station_name, method_used = station or "", method
-    job = 0
-    for s, plan in enumerate(plans):
-        row: List[_Block] = []
-        for k, src in enumerate(sea_states):
-            span = _Span(outer, 0.98 * job / (n_s * n_k), 0.98 * (job + 1) / (n_s * n_k))
-            b, station_name, method_used = _run_source(
-                plan, deps, src, profile=profile, station=station, depth=depth, gamma=gamma, spread_s=spread_s,
-                long_crested=long_crested, method=method, land_search_km=land_search_km,
-                time_tolerance_s=tol_s, span=span, notes=notes, name=names[k],
-            )
-            row.append(b)
-            job += 1
-        blocks.append(row)
-
-    elapsed_h = np.stack([p.elapsed_s / SECONDS_PER_HOUR for p in plans])
-    duration_h = elapsed_h[:, -1].copy()
+    fig, station_name, method_used = _run_all(plans, deps, sea_states, names, setup, span, notes)
+    tm = _timing(plans, deps)
     dist_nm = np.asarray(nm_from_m(plans[0].dist_m), dtype=float)
-    dur_ms = np.array([int(p.elapsed_s[-1] * 1000.0 + 0.5) for p in plans], dtype=np.int64)
-    arrive = deps[None, :] + dur_ms[:, None].astype("timedelta64[ms]")
-    offset_h = (deps - deps[0]).astype("timedelta64[ms]").astype(np.float64) / 3.6e6
-
-    shape = (n_s, n_k, n_d)
-    worst = np.full(shape, np.nan)
-    wdist = np.full(shape, np.nan)
-    wutc = np.full(shape, np.datetime64("NaT"), dtype="datetime64[ms]")
-    hcls = np.zeros(shape + (N_CLASSES,))
-    hmiss = np.zeros(shape)
-    msdv = np.full(shape, np.nan)
-    flags = np.zeros(shape, dtype=np.int64)
-    nmiss = np.zeros(shape, dtype=np.int64)
-    infc = np.zeros(shape, dtype=bool)
-    cls_all = np.full(shape + (n,), NOT_COMPUTED_CLASS, dtype=np.int8)
-    elapsed_ms = [np.round(p.elapsed_s * 1000.0).astype(np.int64) for p in plans]
-    for s in range(n_s):
-        for k in range(n_k):
-            b = blocks[s][k]
-            worst[s, k] = b.worst_msi_pct
-            ok = b.worst_idx >= 0
-            wdist[s, k, ok] = dist_nm[b.worst_idx[ok]]
-            wutc[s, k, ok] = deps[ok] + elapsed_ms[s][b.worst_idx[ok]].astype("timedelta64[ms]")
-            hcls[s, k] = b.hours_class
-            hmiss[s, k] = b.hours_missing
-            msdv[s, k] = b.msdv
-            flags[s, k] = b.flags
-            nmiss[s, k] = b.n_missing
-            t0, t1 = ranges[k]
-            infc[s, k] = ((deps >= t0 - tol) & (arrive[s] <= t1 + tol)
-                          & ((b.flags & int(SampleFlag.OUTSIDE_TIME)) == 0))
-            cls_all[s, k] = b.cls
-    from ..comfort.indices import vomiting_share_pct
-
-    sick = np.full(shape, np.nan)
-    fin = np.isfinite(msdv)
-    sick[fin] = vomiting_share_pct(msdv[fin])
-    above = hcls[..., max_class + 1:].sum(axis=-1)
-    safety = (flags & int(SAFETY_FLAGS)) != 0
-    within = infc & (nmiss == 0) & (above <= 0.0) & ~safety
-    # a sample above max_class with zero dwell (single-sample passage) still counts
-    within &= ~np.any(cls_all > max_class, axis=-1)
-    crit = _criterion_values(criterion, worst, above, msdv, within, np.broadcast_to(offset_h, shape))
-
-    # robust: worst case over sources
-    any_missing = np.any(cls_all == NOT_COMPUTED_CLASS, axis=1)
-    rcls = np.where(any_missing, NOT_COMPUTED_CLASS, cls_all.max(axis=1)).astype(np.int8)
-    dwell = [_dwell_h(p.elapsed_s) for p in plans]
-    r_hcls = np.stack([np.stack([(np.where(rcls[s] == c, dwell[s][None, :], 0.0)).sum(axis=1)
-                                 for c in range(N_CLASSES)], axis=1) for s in range(n_s)])
-    r_hmiss = np.stack([np.where(rcls[s] == NOT_COMPUTED_CLASS, dwell[s][None, :], 0.0).sum(axis=1)
-                        for s in range(n_s)])
-
-    def wmax(a: FloatArray) -> FloatArray:
-        fa = np.where(np.isfinite(a), a, -np.inf).max(axis=1)
-        return np.where(np.isfinite(fa), fa, np.nan)
-
-    def spread(a: FloatArray) -> FloatArray:
-        allf = np.isfinite(a).all(axis=1)
-        return np.where(allf, np.nanmax(np.where(allf[:, None], a, 0.0), axis=1)
-                        - np.nanmin(np.where(allf[:, None], a, 0.0), axis=1), np.nan)
-
-    r_worst = wmax(worst)
-    k_at = np.argmax(np.where(np.isfinite(worst), worst, -np.inf), axis=1)
-    ii = np.indices(k_at.shape)
-    r_wdist = np.where(np.isfinite(r_worst), wdist[ii[0], k_at, ii[1]], np.nan)
-    r_wutc = np.where(np.isfinite(r_worst), wutc[ii[0], k_at, ii[1]], np.datetime64("NaT"))
-    r_msdv = wmax(msdv)
-    r_sick = wmax(sick)
-    r_flags = np.bitwise_or.reduce(flags, axis=1)
-    r_nmiss = nmiss.max(axis=1)
-    r_infc = infc.all(axis=1)
-    r_within = within.all(axis=1)
-    r_above = r_hcls[..., max_class + 1:].sum(axis=-1)
-    if criterion == "earliest_ok":
-        r_crit = np.where(r_within, np.broadcast_to(offset_h, r_within.shape), np.nan)
-    elif criterion == "hours_above":
-        r_crit = r_above.copy()
-    else:
-        r_crit = wmax(crit)
-    r_crit_spread = spread(crit)
-    r_msi_spread = spread(worst)
-
-    # ranks within each source and within the robust rows, over every departure and speed
-    si, di = np.meshgrid(np.arange(n_s), np.arange(n_d), indexing="ij")
-    ranks = np.zeros(shape, dtype=np.int64)
-    for k in range(n_k):
-        ranks[:, k] = _rank((infc[:, k] & (nmiss[:, k] == 0)).ravel(), crit[:, k].ravel(), above[:, k].ravel(),
-                            worst[:, k].ravel(), di.ravel(), si.ravel()).reshape(n_s, n_d)
-    r_ranks = _rank((r_infc & (r_nmiss == 0)).ravel(), r_crit.ravel(), r_above.ravel(), r_worst.ravel(),
-                    di.ravel(), si.ravel()).reshape(n_s, n_d)
-
-    rows: List[SweepRow] = []
-    for s in range(n_s):
-        for d in range(n_d):
-            for k in range(n_k):
-                rows.append(SweepRow(
-                    rank=int(ranks[s, k, d]), depart_utc=deps[d], speed_kn=speeds[s], arrive_utc=arrive[s, d],
-                    duration_h=float(duration_h[s]), source=names[k], worst_msi_pct=float(worst[s, k, d]),
-                    worst_msi_dist_nm=float(wdist[s, k, d]), worst_msi_utc=wutc[s, k, d],
-                    hours_class=tuple(float(x) for x in hcls[s, k, d]), hours_missing=float(hmiss[s, k, d]),
-                    hours_above=float(above[s, k, d]), msdv_arrival=float(msdv[s, k, d]),
-                    sick_pct_arrival=float(sick[s, k, d]), flags=int(flags[s, k, d]), n_missing=int(nmiss[s, k, d]),
-                    in_forecast=bool(infc[s, k, d]), within_limits=bool(within[s, k, d]),
-                    criterion_value=float(crit[s, k, d]),
-                ))
-            rows.append(SweepRow(
-                rank=int(r_ranks[s, d]), depart_utc=deps[d], speed_kn=speeds[s], arrive_utc=arrive[s, d],
-                duration_h=float(duration_h[s]), source=ROBUST_SOURCE, worst_msi_pct=float(r_worst[s, d]),
-                worst_msi_dist_nm=float(r_wdist[s, d]), worst_msi_utc=r_wutc[s, d],
-                hours_class=tuple(float(x) for x in r_hcls[s, d]), hours_missing=float(r_hmiss[s, d]),
-                hours_above=float(r_above[s, d]), msdv_arrival=float(r_msdv[s, d]),
-                sick_pct_arrival=float(r_sick[s, d]), flags=int(r_flags[s, d]), n_missing=int(r_nmiss[s, d]),
-                in_forecast=bool(r_infc[s, d]), within_limits=bool(r_within[s, d]),
-                criterion_value=float(r_crit[s, d]), crit_spread=float(r_crit_spread[s, d]),
-                msi_spread=float(r_msi_spread[s, d]),
-            ))
-    n_out = int(np.count_nonzero(~r_infc))
-    if n_out:
-        notes.append(f"{n_out} of {r_infc.size} departure/speed combinations run outside the time coverage of "
-                     "at least one source: they are marked in_forecast = false and ranked after complete ones")
-    rec = _recommend(rows, deps, r_within, list(speeds), criterion, max_class, n_k)
-    outer.check(1.0)
+    fig["worst_msi_dist_nm"], fig["worst_msi_utc"] = _where_worst(fig, plans, deps, dist_nm)
+    fig["in_forecast"] = _in_forecast(fig, deps, tm["arrive_utc"], ranges, tol)
+    fig.update(_judge(fig, criterion, max_class, fig["in_forecast"], tm["offset_h"]))
+    rob = _robust(fig, plans, criterion, max_class, tm["offset_h"])
+    rows = _table_rows(fig, rob, deps, speeds, names, tm["arrive_utc"], tm["duration_h"])
+    notes.extend(_outside_note(rob["in_forecast"]))
+    rec = _recommend(rows, deps, rob["within_limits"], list(speeds), criterion, max_class, len(names))
+    span.check(1.0)
     return SweepResult(
         departures_utc=deps, speeds_kn=speeds, source_names=names, criterion=criterion, max_class=max_class,
-        dist_nm=dist_nm, elapsed_h=elapsed_h, arrive_utc=arrive, duration_h=duration_h, worst_msi_pct=worst,
-        worst_msi_dist_nm=wdist, worst_msi_utc=wutc, hours_class=hcls, hours_missing=hmiss, hours_above=above,
-        msdv_arrival=msdv, sick_pct_arrival=sick, flags=flags, n_missing=nmiss, in_forecast=infc,
-        within_limits=within, criterion_value=crit, comfort_class=cls_all, robust_class=rcls, rows=tuple(rows),
-        recommendation=rec, vessel_name=str(getattr(profile, "name", "") or ""), station_name=station_name,
-        method=method_used, source_time_ranges=ranges, notes=tuple(dict.fromkeys(notes)),
+        dist_nm=dist_nm, elapsed_h=tm["elapsed_h"], arrive_utc=tm["arrive_utc"], duration_h=tm["duration_h"],
+        robust_class=rob["robust_class"], rows=tuple(rows), recommendation=rec, **fig,
+        vessel_name=str(getattr(profile, "name", "") or ""), station_name=station_name, method=method_used,
+        source_time_ranges=ranges, notes=tuple(dict.fromkeys(notes)),
     )
