@@ -26,7 +26,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
-from .core.reports.passage import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .core.reports.palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 from .core.validation import show
 
 CLASS_FIELD = "comfort_class"
