@@ -37,7 +37,7 @@ from numpy.typing import NDArray
 
 from ..flags import SampleFlag
 from ..units import FloatArray
-from .grid import EARTH_MEAN_RADIUS_KM, Window, great_circle_km, read_window_for
+from .grid import EARTH_MEAN_RADIUS_KM, Window, bilinear_corners, great_circle_km, read_window_for
 from .layer import DatasetCache, VariableLayer
 from .variables import DIRECTION, PLAUSIBLE_RANGE
 
@@ -107,20 +107,8 @@ def sample_layer(
         return LayerSample(layer.canonical, values, flags)
 
     cf, rf = col_f[act], row_f[act]
-    c0 = np.floor(cf).astype(np.int64)
-    r0 = np.floor(rf).astype(np.int64)
-    fx, fy = cf - c0, rf - r0
-    cc = np.stack([c0, c0 + 1, c0, c0 + 1], axis=1)
-    rr = np.stack([r0, r0, r0 + 1, r0 + 1], axis=1)
-    ww = np.stack([(1 - fx) * (1 - fy), fx * (1 - fy), (1 - fx) * fy, fx * fy], axis=1)
-    ok = (rr >= 0) & (rr < g.ny)
-    if g.wraps:
-        cc = np.mod(cc, g.nx)
-    else:
-        ok &= (cc >= 0) & (cc < g.nx)
-    ww = np.where(ok, ww, 0.0)
-    cc = np.clip(cc, 0, g.nx - 1)
-    rr = np.clip(rr, 0, g.ny - 1)
+    corners = bilinear_corners(g, cf, rf)
+    cc, rr, ww, ok = corners.cols, corners.rows, corners.weights, corners.valid
 
     mc, mr = _margins(layer, lat_deg[act], land_search_km)
     used = ok & (ww > 0)  # at least the nearest centre of every sample has weight >= 1/4
