@@ -33,9 +33,8 @@ so chunks can run in other processes or on Dask workers (:mod:`.backends`).
 """
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
-from typing import Any, Optional, Sequence, Tuple
+from typing import Any, Optional, Tuple
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -125,8 +124,8 @@ class StepClasses:
     implausible: NDArray[np.bool_]
 
 
-def _timed_route(route_lon_deg: ArrayLike, route_lat_deg: ArrayLike, spacing_nm: float, speed_kn: float,
-                 series: HindcastSeries) -> Tuple[Any, FloatArray, FloatArray, NDArray[np.int64]]:
+def _timed_route(route_lon_deg: ArrayLike, route_lat_deg: ArrayLike, spacing_nm: float,
+                 speed_kn: float, series: HindcastSeries) -> Tuple[Any, FloatArray, FloatArray, NDArray[np.int64]]:
     """Route samples every ``spacing_nm`` [NM], their distance [m], elapsed time [s] at
     ``speed_kn`` [kn] and offset in hindcast steps (nearest step); the passage must fit the data."""
     from ..passage.route import densify_route, elapsed_time_s
@@ -180,7 +179,8 @@ def prepare_climate(
     s = float(require_in_range("spread_s", spread_s, 0.0, 200.0))
     require_positive("spacing_nm", spacing_nm)
     st = prof.station(station)
-    rs, dist, elapsed, offs = _timed_route(route_lon_deg, route_lat_deg, float(spacing_nm), speed, series)
+    rs, dist, elapsed, offs = _timed_route(route_lon_deg, route_lat_deg, float(spacing_nm), speed,
+                                           series)
     pw = point_weights(series.grid, rs.lon_deg, rs.lat_deg)
     if table is None:
         table = build_response_table(transfer_model(prof), [st], float(m_s_from_kn(speed)),

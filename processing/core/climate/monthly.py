@@ -19,7 +19,7 @@ from __future__ import annotations
 import csv
 import io
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from typing import Iterable, List, Optional, Sequence, Tuple
 
 import numpy as np
@@ -28,9 +28,9 @@ from numpy.typing import NDArray
 from ..flags import CAUTION, SampleFlag
 from ..units import FloatArray, nm_from_m
 from ..validation import SeawayInputError, show
-from .chunks import ChunkResult, N_CLASS_BINS
+from .chunks import ChunkResult
 from .engine import ClimateSetup
-from .windows import N_MONTHS, WaitTotals, merge_waits
+from .windows import WaitTotals, merge_waits
 
 __all__ = ["ClimateTotals", "ClimateResult", "reduce_chunks", "finish_climate", "parse_months", "write_climate_csv"]
 
@@ -206,7 +206,8 @@ def _coverage_notes(ms: Sequence[int], route_valid: NDArray[np.int64], totals: C
     return nts
 
 
-def _sample_flags(setup: ClimateSetup, totals: ClimateTotals) -> Tuple[NDArray[np.int64], List[str]]:
+def _sample_flags(setup: ClimateSetup,
+                  totals: ClimateTotals) -> Tuple[NDArray[np.int64], List[str]]:
     """Per-sample flags (OUTSIDE_GRID, NO_SEA_DATA, OUTSIDE_VALIDITY) and their notes."""
     sflags = np.zeros(setup.n, dtype=np.int64)
     sflags[~setup.weights.inside] |= int(SampleFlag.OUTSIDE_GRID)
@@ -243,15 +244,16 @@ def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[
     series, w = setup.series, totals.wait
     step_h = series.step_s / 3600.0
     sflags, flag_notes = _sample_flags(setup, totals)
-    nts = list(notes) + list(series.notes) + _coverage_notes(ms, route_valid, totals, mi) + flag_notes
+    nts = (list(notes) + list(series.notes) + _coverage_notes(ms, route_valid, totals, mi)
+           + flag_notes + list(_METHOD_NOTES))
     t = series.times_utc
     years = np.unique(t[series.present].astype("datetime64[Y]")).size if series.present.any() else 0
     return ClimateResult(
         months=ms, lon_deg=setup.lon_deg.copy(), lat_deg=setup.lat_deg.copy(),
         dist_nm=np.asarray(nm_from_m(setup.dist_m), dtype=float), segment_index=setup.segment_index.copy(),
         class_share=_share(cc[:, :, 1:], valid[:, :, None]), ok_share=_share(ok, valid),
-        exceed_share=_share(totals.exceed_counts[mi], valid), valid_steps=valid, missing_steps=cc[:, :, 0],
-        method_limit_steps=totals.limit_counts[mi],
+        exceed_share=_share(totals.exceed_counts[mi], valid), valid_steps=valid,
+        missing_steps=cc[:, :, 0], method_limit_steps=totals.limit_counts[mi],
         route_class_share=_share(cc[:, :, 1:].sum(axis=1), route_valid[:, None]),
         route_ok_share=_share(ok.sum(axis=1), route_valid),
         route_exceed_share=_share(totals.exceed_counts[mi].sum(axis=1), route_valid),
@@ -262,7 +264,7 @@ def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[
         steps=totals.steps[mi], sample_flags=sflags, max_class=setup.max_class,
         passage_h=setup.passage_s / 3600.0, step_h=step_h, speed_kn=setup.speed_kn,
         vessel_name=setup.vessel_name, station_name=setup.station_name, task=setup.task,
-        first_utc=t[0], last_utc=t[-1], n_years=int(years), notes=tuple(dict.fromkeys(nts + list(_METHOD_NOTES))),
+        first_utc=t[0], last_utc=t[-1], n_years=int(years), notes=tuple(dict.fromkeys(nts)),
         backend=backend,
     )
 

@@ -12,7 +12,7 @@
 """
 from __future__ import annotations
 
-from typing import Callable, Mapping, Optional, Sequence, Union
+from typing import Any, Callable, Mapping, Optional, Sequence, Union
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -83,14 +83,15 @@ def _cf_time_values(t_s: np.ndarray, time_units: str) -> np.ndarray:
     return (t_s - ref_s) / factor
 
 
-def _cf_coordinate(rg, name: str, dim, values: np.ndarray, attrs: Mapping[str, str]) -> None:  # type: ignore[no-untyped-def]
+def _cf_coordinate(rg: Any, name: str, dim: Any, values: np.ndarray,
+                   attrs: Mapping[str, str]) -> None:
     var = rg.CreateMDArray(name, [dim], gdal.ExtendedDataType.Create(gdal.GDT_Float64))
     var.Write(np.asarray(values, dtype=np.float64))
     for key, val in attrs.items():
         _attr(var, key, val)
 
 
-def _write_cf_coordinates(rg, lon: np.ndarray, lat: np.ndarray, tvals: np.ndarray,  # type: ignore[no-untyped-def]
+def _write_cf_coordinates(rg: Any, lon: np.ndarray, lat: np.ndarray, tvals: np.ndarray,
                           time_units: str, calendar: str) -> list:
     """The time/lat/lon dimensions and coordinate variables plus the ``crs`` grid mapping."""
     dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, tvals.size)
@@ -106,9 +107,9 @@ def _write_cf_coordinates(rg, lon: np.ndarray, lat: np.ndarray, tvals: np.ndarra
     return [dt, dy, dx]
 
 
-def _create_cf_variable(rg, path: str, dims: list, std: str, name: str, *,  # type: ignore[no-untyped-def]
+def _create_cf_variable(rg: Any, path: str, dims: list, std: str, name: str, *,
                         sf: Optional[float], ao: float, fill: float, units: Optional[str],
-                        extra: Mapping[str, str]):
+                        extra: Mapping[str, str]) -> Any:
     """One (time, lat, lon) variable with its CF attributes, no-data value and packing."""
     gdt = gdal.GDT_Int16 if sf is not None else gdal.GDT_Float32
     v = gdal_call(f"{path}: cannot create variable {show(name)}", rg.CreateMDArray, name, dims,
@@ -130,7 +131,7 @@ def _create_cf_variable(rg, path: str, dims: list, std: str, name: str, *,  # ty
     return v
 
 
-def _write_cf_steps(v, path: str, std: str, name: str, data: ArrayOrStep, shape: tuple,  # type: ignore[no-untyped-def]
+def _write_cf_steps(v: Any, path: str, std: str, name: str, data: ArrayOrStep, shape: tuple,
                     order: np.ndarray, sf: Optional[float], ao: float, fill: float) -> None:
     """Write ``data`` one time step at a time (NaN -> ``fill``; packed to Int16 when ``sf``)."""
     nt, ny, nx = shape
@@ -196,7 +197,8 @@ def write_cf_netcdf(
         v = _create_cf_variable(rg, path, dims, std, name, sf=sf, ao=ao, fill=fill,
                                 units=(units or {}).get(std),
                                 extra=(extra_attributes or {}).get(std) or {})
-        _write_cf_steps(v, path, std, name, data, (t_s.size, lat.size, lon.size), order, sf, ao, fill)
+        shape = (t_s.size, lat.size, lon.size)
+        _write_cf_steps(v, path, std, name, data, shape, order, sf, ao, fill)
         del v
     del rg, ds
     return path
@@ -274,8 +276,8 @@ def write_grib2(
     opts = _grib_options(ref_s, decimal_scale_factor)
     b = 0
     for name in names:
-        (cat, num, ltype, lval), data = _grib_field(name, variables[name], (t_s.size, lat.size, lon.size),
-                                                    use_perpw_for_tp)
+        shape = (t_s.size, lat.size, lon.size)
+        (cat, num, ltype, lval), data = _grib_field(name, variables[name], shape, use_perpw_for_tp)
         for i in range(t_s.size):
             b += 1
             arr = data[i][::-1] if flip else data[i]

@@ -211,7 +211,7 @@ class VesselProfile:
             raise _err(src, f"service_speed_kn must be > 0, got {show(self.service_speed_kn)}")
 
     def _check_stations(self, src: str) -> None:
-        """At least one Station, unique names, each inside the plausibility box of the class docstring."""
+        """At least one Station, unique names, each inside the box of the class docstring."""
         L, B, T = self.length_wl_m, self.beam_m, self.draught_m
         if not self.stations:
             raise _err(src, "stations must list at least one station")

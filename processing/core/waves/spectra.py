@@ -101,7 +101,8 @@ def _normalise_weights(weights: Optional[ArrayLike], nf: int) -> Optional[FloatA
 
 
 def _jonswap_inputs(omega_rad_s: ArrayLike, hs_m: ArrayLike, tp_s: ArrayLike, gamma: ArrayLike,
-                    sigma_a: float, sigma_b: float, normalise_weights: Optional[ArrayLike]) -> tuple:
+                    sigma_a: float, sigma_b: float,
+                    normalise_weights: Optional[ArrayLike]) -> tuple:
     """Checked (omega, hs, tp, gamma broadcast together, sigma_a, sigma_b, weights or None)."""
     omega = _omega_1d(omega_rad_s)
     hs = require_nonnegative("hs_m", hs_m)
