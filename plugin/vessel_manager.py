@@ -162,12 +162,40 @@ class VesselManagerDialog(QDialog):
         ]
 
     def _build(self) -> None:
+        """Lay out the dialog: profile list | form (hull, stations, actions), caution, Close."""
         self.field_labels = self._field_labels()
         outer = QVBoxLayout(self)
         splitter = QSplitter(Qt.Orientation.Horizontal, self)
         outer.addWidget(splitter, 1)
+        left = self._build_profile_list(splitter)
+        right = QWidget(splitter)
+        right_layout = QVBoxLayout(right)
+        self.state_label = QLabel(right)
+        right_layout.addWidget(self.state_label)
+        columns = QHBoxLayout()
+        columns.addWidget(self._build_hull_box(right), 1)
+        right_layout.addLayout(columns, 1)
+        columns.addWidget(self._build_station_box(right), 1)
+        self._build_actions(right, right_layout)
+        left.setMinimumWidth(240)
+        splitter.setStretchFactor(1, 3)
 
-        # --- left: the list of profiles and its buttons
+        caution = QLabel(self.tr(CAUTION), self)
+        caution.setObjectName("caution")
+        caution.setWordWrap(True)
+        outer.addWidget(caution)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close, self)
+        buttons.rejected.connect(self.reject)
+        outer.addWidget(buttons)
+        self.resize(1240, 660)
+        splitter.setSizes([300, 940])
+        # Enter in a field must not press New/Delete/Save by accident.
+        for button in self.findChildren(QPushButton):
+            button.setAutoDefault(False)
+            button.setDefault(False)
+
+    def _build_profile_list(self, splitter: QSplitter) -> QWidget:
+        """Left pane: the list of profiles, New/Duplicate/Delete and the storage folder."""
         left = QWidget(splitter)
         left_layout = QVBoxLayout(left)
         left_layout.addWidget(QLabel(self.tr("Profiles (examples are read-only)"), left))
@@ -189,12 +217,10 @@ class VesselManagerDialog(QDialog):
         self.new_button.clicked.connect(lambda _checked=False: self.new_profile())
         self.duplicate_button.clicked.connect(lambda _checked=False: self.duplicate())
         self.delete_button.clicked.connect(lambda _checked=False: self.delete_current())
+        return left
 
-        # --- right: the form
-        right = QWidget(splitter)
-        right_layout = QVBoxLayout(right)
-        self.state_label = QLabel(right)
-        right_layout.addWidget(self.state_label)
+    def _build_hull_box(self, right: QWidget) -> QGroupBox:
+        """The hull and stability form: name, description, one spin box per number, RAO table."""
         hull_box = QGroupBox(self.tr("Hull and stability"), right)
         form = QFormLayout(hull_box)
         self.name_edit = QLineEdit(hull_box)
@@ -217,10 +243,10 @@ class VesselManagerDialog(QDialog):
         self.rao_label = QLabel(hull_box)
         self.rao_label.setWordWrap(True)
         form.addRow(self.tr("Response table (CSV)"), self.rao_label)
-        columns = QHBoxLayout()
-        columns.addWidget(hull_box, 1)
-        right_layout.addLayout(columns, 1)
+        return hull_box
 
+    def _build_station_box(self, right: QWidget) -> QGroupBox:
+        """The stations table with its axes note and Add/Remove buttons."""
         station_box = QGroupBox(self.tr("Stations (where motions are evaluated)"), right)
         station_layout = QVBoxLayout(station_box)
         axes = QLabel(self.tr("x forward of midships, y to starboard, z above the waterline, "
@@ -245,8 +271,10 @@ class VesselManagerDialog(QDialog):
             lambda _checked=False: self.add_station_row(Station("station", 0.0, 0.0, 0.0)))
         self.remove_station_button.clicked.connect(
             lambda _checked=False: self.remove_selected_station())
-        columns.addWidget(station_box, 1)
+        return station_box
 
+    def _build_actions(self, right: QWidget, right_layout: QVBoxLayout) -> None:
+        """The message line and the Check/Save buttons under the form."""
         self.message_label = QLabel(right)
         self.message_label.setObjectName("message")
         self.message_label.setWordWrap(True)
@@ -261,22 +289,6 @@ class VesselManagerDialog(QDialog):
         right_layout.addLayout(arow)
         self.validate_button.clicked.connect(lambda _checked=False: self.validate())
         self.save_button.clicked.connect(lambda _checked=False: self.save())
-        left.setMinimumWidth(240)
-        splitter.setStretchFactor(1, 3)
-
-        caution = QLabel(self.tr(CAUTION), self)
-        caution.setObjectName("caution")
-        caution.setWordWrap(True)
-        outer.addWidget(caution)
-        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close, self)
-        buttons.rejected.connect(self.reject)
-        outer.addWidget(buttons)
-        self.resize(1240, 660)
-        splitter.setSizes([300, 940])
-        # Enter in a field must not press New/Delete/Save by accident.
-        for button in self.findChildren(QPushButton):
-            button.setAutoDefault(False)
-            button.setDefault(False)
 
     # ================================================================== list
     def builtin_names(self) -> List[str]:

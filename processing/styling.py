@@ -1,8 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Styles for passage outputs: comfort-class renderers, time settings, provenance metadata.
 
-Colours come from :data:`.core.report.COMFORT_PALETTE` (our own five-step light-to-dark palette,
-kept apart by lightness so it reads under colour-vision deficiencies; grey = not computed).
+Colours come from :data:`.core.reports.palette.COMFORT_PALETTE` (our own five-step
+light-to-dark palette, kept apart by lightness so it reads under colour-vision deficiencies;
+grey = not computed).
 Styles are written where they hold without any post-processor (qgis_process, processing.run):
 a QML file beside the output (renderer AND temporal settings) and, for GeoPackages, the
 default style in the file (QGIS restores its renderer on open, not its temporal settings).
@@ -26,7 +27,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
-from .core.reports.passage import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .core.reports.palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 from .core.validation import show
 
 CLASS_FIELD = "comfort_class"

@@ -20,7 +20,8 @@ import pytest
 
 from seaway_comfort.processing.core import climate as C
 from seaway_comfort.processing.seasonal_cli import main, parse_lonlat, read_route
-from seaway_comfort.processing.core.reports.climate import render_climate_html, share_bin
+from seaway_comfort.processing.core.reports.climate import render_climate_html
+from seaway_comfort.processing.core.reports.palette import share_bin
 from seaway_comfort.processing.core.demo.synthetic_hindcast import (
     SeasonalCycle,
     write_seasonal_hindcast,

@@ -19,7 +19,8 @@ import pytest
 from seaway_comfort.processing.core.sweep import engine as sweep
 from seaway_comfort.processing.core.reports import sweep as sr
 from seaway_comfort.processing.core.flags import CAUTION
-from seaway_comfort.processing.core.reports.passage import COMFORT_PALETTE, ReportInputs
+from seaway_comfort.processing.core.reports.palette import COMFORT_PALETTE
+from seaway_comfort.processing.core.reports.passage import ReportInputs
 from seaway_comfort.processing.core.seastate import open_sea_state
 from seaway_comfort.processing.core.demo.writers import write_cf_netcdf
 from seaway_comfort.processing.core.vessel.profile import resolve_vessel

@@ -50,7 +50,7 @@ def test_rendered_points_show_comfort_classes(seaway_provider, ramp_sea, tmp_pat
     from qgis.PyQt.QtCore import QSize
     from qgis.PyQt.QtGui import QColor
 
-    from seaway_comfort.processing.core.reports.passage import COMFORT_PALETTE
+    from seaway_comfort.processing.core.reports.palette import COMFORT_PALETTE
 
     route = tmp_path / "route.geojson"
     route.write_text('{"type":"FeatureCollection","features":[{"type":"Feature","properties":{},'

@@ -22,7 +22,7 @@ pytestmark = pytest.mark.qgis
 qgis = pytest.importorskip("qgis")
 
 from seaway_comfort.processing.core import climate as C  # noqa: E402
-from seaway_comfort.processing.core.reports.climate import SHARE_PALETTE  # noqa: E402
+from seaway_comfort.processing.core.reports.palette import SHARE_PALETTE  # noqa: E402
 from seaway_comfort.processing.core.demo.synthetic_hindcast import (
     SeasonalCycle,
     write_seasonal_hindcast,

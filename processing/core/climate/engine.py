@@ -33,9 +33,8 @@ so chunks can run in other processes or on Dask workers (:mod:`.backends`).
 """
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
-from typing import Any, Optional, Sequence, Tuple
+from typing import Any, Optional, Tuple
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -125,6 +124,26 @@ class StepClasses:
     implausible: NDArray[np.bool_]
 
 
+def _timed_route(route_lon_deg: ArrayLike, route_lat_deg: ArrayLike, spacing_nm: float,
+                 speed_kn: float, series: HindcastSeries) -> Tuple[Any, FloatArray, FloatArray, NDArray[np.int64]]:
+    """Route samples every ``spacing_nm`` [NM], their distance [m], elapsed time [s] at
+    ``speed_kn`` [kn] and offset in hindcast steps (nearest step); the passage must fit the data."""
+    from ..passage.route import densify_route, elapsed_time_s
+
+    rs = densify_route(route_lon_deg, route_lat_deg, spacing_nm)
+    dist = np.asarray(rs.dist_m, dtype=float)
+    if dist.size < 2 or not dist[-1] > 0:
+        raise SeawayInputError("the route has no length (all vertices coincide): draw a route with distinct points")
+    elapsed = np.asarray(elapsed_time_s(dist, speed_kn), dtype=float)
+    offs = np.rint(elapsed / float(series.step_s)).astype(np.int64)
+    if offs[-1] >= series.n_steps:
+        raise SeawayInputError(
+            f"the passage takes {elapsed[-1] / 3600.0:.1f} h at {speed_kn:g} kn, longer than the whole hindcast "
+            f"({series.n_steps} steps of {series.step_s / 3600.0:g} h)"
+        )
+    return rs, dist, elapsed, offs
+
+
 def prepare_climate(
     route_lon_deg: ArrayLike,
     route_lat_deg: ArrayLike,
@@ -147,7 +166,6 @@ def prepare_climate(
     ``gamma`` JONSWAP peak enhancement (>= 1), ``spread_s`` cos-2s spreading exponent.
     """
     from ..api import transfer_model
-    from ..passage.route import densify_route, elapsed_time_s
     from ..motions.tables import build_response_table
     from ..units import m_s_from_kn
     from ..vessel.profile import resolve_vessel
@@ -161,17 +179,8 @@ def prepare_climate(
     s = float(require_in_range("spread_s", spread_s, 0.0, 200.0))
     require_positive("spacing_nm", spacing_nm)
     st = prof.station(station)
-    rs = densify_route(route_lon_deg, route_lat_deg, float(spacing_nm))
-    dist = np.asarray(rs.dist_m, dtype=float)
-    if dist.size < 2 or not dist[-1] > 0:
-        raise SeawayInputError("the route has no length (all vertices coincide): draw a route with distinct points")
-    elapsed = np.asarray(elapsed_time_s(dist, speed), dtype=float)
-    offs = np.rint(elapsed / float(series.step_s)).astype(np.int64)
-    if offs[-1] >= series.n_steps:
-        raise SeawayInputError(
-            f"the passage takes {elapsed[-1] / 3600.0:.1f} h at {speed:g} kn, longer than the whole hindcast "
-            f"({series.n_steps} steps of {series.step_s / 3600.0:g} h)"
-        )
+    rs, dist, elapsed, offs = _timed_route(route_lon_deg, route_lat_deg, float(spacing_nm), speed,
+                                           series)
     pw = point_weights(series.grid, rs.lon_deg, rs.lat_deg)
     if table is None:
         table = build_response_table(transfer_model(prof), [st], float(m_s_from_kn(speed)),

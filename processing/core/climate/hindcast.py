@@ -185,21 +185,8 @@ def _grid_text(g: object) -> str:
             f"{g.crs_label}")  # type: ignore[attr-defined]
 
 
-def open_hindcast(
-    paths: Sequence[str],
-    *,
-    variable_map: Optional[Dict[str, str]] = None,
-    overlap: str = "first",
-) -> HindcastSeries:
-    """Open hindcast files (NetCDF-CF, GRIB2, ...) as one regular time series.
-
-    Raises :class:`SeawayInputError` for: no files, a file that cannot be read or lacks a
-    variable, grids that differ between files, times off the regular axis, a bad ``overlap``
-    value, or overlapping files with ``overlap="error"``. Gaps are reported, never filled.
-    """
-    from ..seastate import open_sea_state
-    from ..seastate.derived import MEAN_PERIOD_RATIOS
-
+def _hindcast_files(paths: Sequence[str], overlap: str) -> List[str]:
+    """The file list, checked: an ``overlap`` rule we know, at least one file, none twice."""
     if overlap not in ("first", "last", "error"):
         raise SeawayInputError(f"overlap must be 'first', 'last' or 'error', got {show(overlap)}")
     if isinstance(paths, (str, os.PathLike)):
@@ -210,12 +197,17 @@ def open_hindcast(
     dup = sorted({f for f in files if files.count(f) > 1})
     if dup:
         raise SeawayInputError(f"hindcast paths lists the same file more than once: {', '.join(dup)}")
-    order = list(range(len(files))) if overlap != "last" else list(range(len(files)))[::-1]
+    return files
+
+
+def _file_layers(files: Sequence[str], notes: List[str]) -> Tuple[List[Dict[str, object]], object]:
+    """Per file its hs / period / dir layers and period ratio; all on one grid (else an error)."""
+    from ..seastate import open_sea_state
+    from ..seastate.derived import MEAN_PERIOD_RATIOS
 
     per_file: List[Dict[str, object]] = []
     grid0 = None
     file0 = ""
-    notes: List[str] = []
     for f in files:
         src = open_sea_state([f])
         try:
@@ -245,18 +237,22 @@ def open_hindcast(
             per_file.append({"path": f, "layers": layers, "ratio": 1.0 if per == "tp" else MEAN_PERIOD_RATIOS[per]})
         finally:
             src.close()
+    return per_file, grid0
 
+
+def _regular_axis(per_file: Sequence[Dict[str, object]]) -> Tuple[int, int, int]:
+    """(start_s, step_s, n_steps) of the common time axis: the most frequent step; every time of
+    every file must lie on it (else an error naming file, variable and time)."""
     all_t = np.unique(np.concatenate([np.asarray(pf["layers"]["hs"].times_s, dtype=np.int64)  # type: ignore[index]
                                       for pf in per_file]))
     if all_t.size >= 2:
-        d = np.diff(all_t)
-        vals, counts = np.unique(d, return_counts=True)
+        vals, counts = np.unique(np.diff(all_t), return_counts=True)
         step = int(vals[np.argmax(counts)])
     else:
         step = 3600
     start = int(all_t[0])
     for pf in per_file:
-        for name, layer in pf["layers"].items():  # type: ignore[union-attr]
+        for layer in pf["layers"].values():  # type: ignore[union-attr]
             t = np.asarray(layer.times_s, dtype=np.int64)
             off = (t - start) % step != 0
             if off.any():
@@ -266,51 +262,51 @@ def open_hindcast(
                     f"regular {step / 3600.0:g} h axis starting {np.datetime64(start, 's')}Z; "
                     "all files must share one time step"
                 )
-    n_steps = int((all_t[-1] - start) // step) + 1
+    return start, step, int((all_t[-1] - start) // step) + 1
 
-    variables: Dict[str, VariableSteps] = {}
-    owner = np.full(n_steps, -1, dtype=np.int64)  # file index providing hs at each step
+
+def _variable_steps(name: str, per_file: Sequence[Dict[str, object]], order: Sequence[int], start: int, step: int,
+                    n_steps: int) -> Tuple[VariableSteps, Dict[int, NDArray[np.int64]], NDArray[np.int64]]:
+    """Where each step of one variable is read (files in ``order``: the first to provide a step
+    keeps it); also each file's step indices and the file owning each step."""
+    datasets: List[str] = []
+    ds_pos: Dict[str, int] = {}
+    factor: List[float] = []
+    going: List[bool] = []
+    ratio: List[float] = []
+    fvar: List[str] = []
+    di = np.full(n_steps, -1, dtype=np.int64)
+    bn = np.zeros(n_steps, dtype=np.int64)
+    owner = np.full(n_steps, -1, dtype=np.int64)
     steps_of: Dict[int, NDArray[np.int64]] = {}
-    for name in _VARS:
-        datasets: List[str] = []
-        ds_pos: Dict[str, int] = {}
-        factor: List[float] = []
-        going: List[bool] = []
-        ratio: List[float] = []
-        fvar: List[str] = []
-        di = np.full(n_steps, -1, dtype=np.int64)
-        bn = np.zeros(n_steps, dtype=np.int64)
-        for fi in order:
-            pf = per_file[fi]
-            layer = pf["layers"][name]  # type: ignore[index]
-            k = ((np.asarray(layer.times_s, dtype=np.int64) - start) // step).astype(np.int64)
-            free = di[k] < 0
-            if name == "hs":
-                steps_of[fi] = k
-            idx = np.empty(k.size, dtype=np.int64)
-            for j, (dsname, bandno) in enumerate(layer.bands):
-                pos = ds_pos.get(dsname)
-                if pos is None:
-                    pos = ds_pos[dsname] = len(datasets)
-                    datasets.append(dsname)
-                    factor.append(float(layer.units.factor))
-                    going.append(bool(layer.going_to))
-                    ratio.append(float(pf["ratio"]) if name == "per" else 1.0)  # type: ignore[arg-type]
-                    fvar.append(str(layer.file_variable))
-                idx[j] = pos
-            bands = np.array([b for _, b in layer.bands], dtype=np.int64)
-            di[k[free]] = idx[free]
-            bn[k[free]] = bands[free]
-            if name == "hs":
-                owner[k[free]] = fi
-        variables[name] = VariableSteps(tuple(datasets), di, bn, tuple(factor), tuple(going),
-                                        tuple(ratio), tuple(fvar))
+    for fi in order:
+        pf = per_file[fi]
+        layer = pf["layers"][name]  # type: ignore[index]
+        k = ((np.asarray(layer.times_s, dtype=np.int64) - start) // step).astype(np.int64)
+        free = di[k] < 0
+        steps_of[fi] = k
+        idx = np.empty(k.size, dtype=np.int64)
+        for j, (dsname, _) in enumerate(layer.bands):
+            pos = ds_pos.get(dsname)
+            if pos is None:
+                pos = ds_pos[dsname] = len(datasets)
+                datasets.append(dsname)
+                factor.append(float(layer.units.factor))
+                going.append(bool(layer.going_to))
+                ratio.append(float(pf["ratio"]) if name == "per" else 1.0)  # type: ignore[arg-type]
+                fvar.append(str(layer.file_variable))
+            idx[j] = pos
+        bands = np.array([b for _, b in layer.bands], dtype=np.int64)
+        di[k[free]] = idx[free]
+        bn[k[free]] = bands[free]
+        owner[k[free]] = fi
+    return (VariableSteps(tuple(datasets), di, bn, tuple(factor), tuple(going), tuple(ratio), tuple(fvar)),
+            steps_of, owner)
 
-    present = np.ones(n_steps, dtype=bool)
-    for v in variables.values():
-        present &= v.dataset_index >= 0
 
-    # overlaps: steps provided by more than one file (hs axis)
+def _overlaps(files: Sequence[str], steps_of: Dict[int, NDArray[np.int64]], owner: NDArray[np.int64],
+              start: int, step: int) -> List[HindcastOverlap]:
+    """Steps provided by more than one file (on the hs axis), per pair of files."""
     overlaps: List[HindcastOverlap] = []
     for i in range(len(files)):
         for j in range(i + 1, len(files)):
@@ -320,25 +316,51 @@ def open_hindcast(
                     np.datetime64(start + int(common[0]) * step, "s"),
                     np.datetime64(start + int(common[-1]) * step, "s"), int(common.size),
                     (files[i], files[j]), files[int(owner[common[0]])]))
-    if overlaps:
-        if overlap == "error":
-            raise SeawayInputError(
-                "hindcast files overlap in time: " + "; ".join(o.describe().split("; values")[0] for o in overlaps)
-                + " (overlap='error'; use overlap='first' or 'last' to pick one)"
-            )
-        notes += [o.describe() for o in overlaps]
+    return overlaps
 
-    gaps: List[HindcastGap] = []
-    miss = ~present
-    if miss.any():
-        edges = np.diff(np.concatenate([[0], miss.astype(np.int8), [0]]))
-        starts = np.flatnonzero(edges == 1)
-        ends = np.flatnonzero(edges == -1)
-        for a, b in zip(starts, ends):
-            gaps.append(HindcastGap(np.datetime64(start + (int(a) - 1) * step, "s"),
-                                    np.datetime64(start + int(b) * step, "s"), int(b - a)))
-        notes.append(f"{int(miss.sum())} missing time step(s) in {len(gaps)} gap(s); first: {gaps[0].describe()}")
 
+def _gaps(present: NDArray[np.bool_], start: int, step: int) -> List[HindcastGap]:
+    """Runs of missing steps, each between the last step before and the first step after."""
+    edges = np.diff(np.concatenate([[0], (~present).astype(np.int8), [0]]))
+    return [HindcastGap(np.datetime64(start + (int(a) - 1) * step, "s"), np.datetime64(start + int(b) * step, "s"),
+                        int(b - a)) for a, b in zip(np.flatnonzero(edges == 1), np.flatnonzero(edges == -1))]
+
+
+def open_hindcast(
+    paths: Sequence[str],
+    *,
+    variable_map: Optional[Dict[str, str]] = None,
+    overlap: str = "first",
+) -> HindcastSeries:
+    """Open hindcast files (NetCDF-CF, GRIB2, ...) as one regular time series.
+
+    Raises :class:`SeawayInputError` for: no files, a file that cannot be read or lacks a
+    variable, grids that differ between files, times off the regular axis, a bad ``overlap``
+    value, or overlapping files with ``overlap="error"``. Gaps are reported, never filled.
+    """
+    files = _hindcast_files(paths, overlap)
+    order = list(range(len(files))) if overlap != "last" else list(range(len(files)))[::-1]
+    notes: List[str] = []
+    per_file, grid0 = _file_layers(files, notes)
+    start, step, n_steps = _regular_axis(per_file)
+    variables: Dict[str, VariableSteps] = {}
+    for name in _VARS:
+        variables[name], steps, own = _variable_steps(name, per_file, order, start, step, n_steps)
+        if name == "hs":
+            steps_of, owner = steps, own
+    present = np.ones(n_steps, dtype=bool)
+    for v in variables.values():
+        present &= v.dataset_index >= 0
+    overlaps = _overlaps(files, steps_of, owner, start, step)
+    if overlaps and overlap == "error":
+        raise SeawayInputError(
+            "hindcast files overlap in time: " + "; ".join(o.describe().split("; values")[0] for o in overlaps)
+            + " (overlap='error'; use overlap='first' or 'last' to pick one)"
+        )
+    notes += [o.describe() for o in overlaps]
+    gaps = _gaps(present, start, step)
+    if gaps:
+        notes.append(f"{int((~present).sum())} missing time step(s) in {len(gaps)} gap(s); first: {gaps[0].describe()}")
     infos = []
     for pf in per_file:
         t = np.asarray(pf["layers"]["hs"].times_s, dtype=np.int64)  # type: ignore[index]
@@ -384,21 +406,12 @@ def point_weights(grid: object, lon_deg: Sequence[float], lat_deg: Sequence[floa
         )
     cf = np.where(inside, col_f, 0.0)
     rf = np.where(inside, row_f, 0.0)
-    c0 = np.floor(cf).astype(np.int64)
-    r0 = np.floor(rf).astype(np.int64)
-    fx, fy = cf - c0, rf - r0
-    cc = np.stack([c0, c0 + 1, c0, c0 + 1], axis=1)
-    rr = np.stack([r0, r0, r0 + 1, r0 + 1], axis=1)
-    ww = np.stack([(1 - fx) * (1 - fy), fx * (1 - fy), (1 - fx) * fy, fx * fy], axis=1)
-    ok = (rr >= 0) & (rr < g.ny)  # type: ignore[attr-defined]
-    if g.wraps:  # type: ignore[attr-defined]
-        cc = np.mod(cc, g.nx)  # type: ignore[attr-defined]
-    else:
-        ok &= (cc >= 0) & (cc < g.nx)  # type: ignore[attr-defined]
-    ok &= inside[:, None]
-    ww = np.where(ok, ww, 0.0)
-    cc = np.clip(cc, 0, g.nx - 1)  # type: ignore[attr-defined]
-    rr = np.clip(rr, 0, g.ny - 1)  # type: ignore[attr-defined]
+    from ..seastate.grid import bilinear_corners
+
+    corners = bilinear_corners(g, cf, rf)  # type: ignore[arg-type]
+    cc, rr = corners.cols, corners.rows
+    ok = corners.valid & inside[:, None]
+    ww = np.where(ok, corners.weights, 0.0)
     # one rectangular window (a route crossing a wrapping seam reads the full width)
     c_used, r_used = cc[ok], rr[ok]
     col0, col1 = int(c_used.min()), int(c_used.max())

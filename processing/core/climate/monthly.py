@@ -19,18 +19,18 @@ from __future__ import annotations
 import csv
 import io
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from typing import Iterable, List, Optional, Sequence, Tuple
 
 import numpy as np
 from numpy.typing import NDArray
 
-from ..flags import CAUTION
-from ..units import FloatArray
+from ..flags import CAUTION, SampleFlag
+from ..units import FloatArray, nm_from_m
 from ..validation import SeawayInputError, show
-from .chunks import ChunkResult, N_CLASS_BINS
+from .chunks import ChunkResult
 from .engine import ClimateSetup
-from .windows import N_MONTHS, WaitTotals, merge_waits
+from .windows import WaitTotals, merge_waits
 
 __all__ = ["ClimateTotals", "ClimateResult", "reduce_chunks", "finish_climate", "parse_months", "write_climate_csv"]
 
@@ -186,24 +186,10 @@ class ClimateResult:
         return write_climate_csv(self, path)
 
 
-def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[int] = tuple(range(1, 13)),
-                   *, notes: Sequence[str] = (), backend: str = "") -> ClimateResult:
-    """Shares, window probabilities and waiting times for the selected ``months`` (1..12)."""
-    from ..units import nm_from_m
-
-    ms = parse_months(list(months))
-    mi = np.array([m - 1 for m in ms], dtype=np.int64)
-    cc = totals.class_counts[mi]                        # (nm, n, 6)
-    valid = cc[:, :, 1:].sum(axis=2)                    # (nm, n)
-    miss = cc[:, :, 0]
-    mc = setup.max_class
-    ok = cc[:, :, 1:2 + mc].sum(axis=2)
-    route_valid = valid.sum(axis=1)
-    series = setup.series
-    w = totals.wait
-    step_h = series.step_s / 3600.0
-    mean_wait = _share(w.sum_steps[mi], w.count[mi]) * step_h
-    nts = list(notes) + list(series.notes)
+def _coverage_notes(ms: Sequence[int], route_valid: NDArray[np.int64], totals: ClimateTotals,
+                    mi: NDArray[np.int64]) -> List[str]:
+    """Notes on empty months and on sea states counted as out of range or implausible."""
+    nts: List[str] = []
     for m, v in zip(ms, route_valid):
         if v == 0:
             nts.append(f"month {m:02d}: no hindcast data on the route; its shares are empty (NaN)")
@@ -217,39 +203,65 @@ def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[
     if int(totals.implausible_counts.sum()):
         nts.append(f"{int(totals.implausible_counts.sum())} (step, sample) values with Hs < 0 or Tp <= 0 "
                    "were treated as missing")
-    from ..flags import SampleFlag
+    return nts
 
+
+def _sample_flags(setup: ClimateSetup,
+                  totals: ClimateTotals) -> Tuple[NDArray[np.int64], List[str]]:
+    """Per-sample flags (OUTSIDE_GRID, NO_SEA_DATA, OUTSIDE_VALIDITY) and their notes."""
     sflags = np.zeros(setup.n, dtype=np.int64)
     sflags[~setup.weights.inside] |= int(SampleFlag.OUTSIDE_GRID)
     never = setup.weights.inside & (totals.class_counts[:, :, 1:].sum(axis=(0, 2)) == 0)
     sflags[never] |= int(SampleFlag.NO_SEA_DATA)
     sflags[totals.limit_counts.sum(axis=0) > 0] |= int(SampleFlag.OUTSIDE_VALIDITY)
+    nts: List[str] = []
     n_off = int(np.count_nonzero(~setup.weights.inside))
     if n_off:
         nts.append(f"{n_off} of {setup.n} route samples lie outside the hindcast grid: no data there (OFFGRID)")
     if int(never.sum()):
         nts.append(f"{int(never.sum())} route samples inside the grid have no data at any step (NOSEA)")
+    return sflags, nts
+
+
+_METHOD_NOTES = (
+    "departures whose passage would end after the last hindcast step are not counted "
+    "(departures_past_end); starts with no acceptable departure before the data end are "
+    "censored (wait_censored) and left out of the mean waiting time",
+    "the class at each sample is that of the hindcast step nearest to the moment the "
+    "vessel reaches it (no interpolation in time); deep water assumed",
+)
+
+
+def finish_climate(setup: ClimateSetup, totals: ClimateTotals, months: Sequence[int] = tuple(range(1, 13)),
+                   *, notes: Sequence[str] = (), backend: str = "") -> ClimateResult:
+    """Shares, window probabilities and waiting times for the selected ``months`` (1..12)."""
+    ms = parse_months(list(months))
+    mi = np.array([m - 1 for m in ms], dtype=np.int64)
+    cc = totals.class_counts[mi]                        # (nm, n, 6)
+    valid = cc[:, :, 1:].sum(axis=2)                    # (nm, n)
+    ok = cc[:, :, 1:2 + setup.max_class].sum(axis=2)
+    route_valid = valid.sum(axis=1)
+    series, w = setup.series, totals.wait
+    step_h = series.step_s / 3600.0
+    sflags, flag_notes = _sample_flags(setup, totals)
+    nts = (list(notes) + list(series.notes) + _coverage_notes(ms, route_valid, totals, mi)
+           + flag_notes + list(_METHOD_NOTES))
     t = series.times_utc
     years = np.unique(t[series.present].astype("datetime64[Y]")).size if series.present.any() else 0
-    nts.append("departures whose passage would end after the last hindcast step are not counted "
-               "(departures_past_end); starts with no acceptable departure before the data end are "
-               "censored (wait_censored) and left out of the mean waiting time")
-    nts.append("the class at each sample is that of the hindcast step nearest to the moment the "
-               "vessel reaches it (no interpolation in time); deep water assumed")
     return ClimateResult(
         months=ms, lon_deg=setup.lon_deg.copy(), lat_deg=setup.lat_deg.copy(),
         dist_nm=np.asarray(nm_from_m(setup.dist_m), dtype=float), segment_index=setup.segment_index.copy(),
         class_share=_share(cc[:, :, 1:], valid[:, :, None]), ok_share=_share(ok, valid),
-        exceed_share=_share(totals.exceed_counts[mi], valid), valid_steps=valid, missing_steps=miss,
-        method_limit_steps=totals.limit_counts[mi],
+        exceed_share=_share(totals.exceed_counts[mi], valid), valid_steps=valid,
+        missing_steps=cc[:, :, 0], method_limit_steps=totals.limit_counts[mi],
         route_class_share=_share(cc[:, :, 1:].sum(axis=1), route_valid[:, None]),
         route_ok_share=_share(ok.sum(axis=1), route_valid),
         route_exceed_share=_share(totals.exceed_counts[mi].sum(axis=1), route_valid),
         window_probability=_share(totals.dep_ok[mi], totals.dep_known[mi]),
         departures_known=totals.dep_known[mi], departures_ok=totals.dep_ok[mi],
         departures_unknown=totals.dep_unknown[mi], departures_past_end=totals.dep_past_end[mi],
-        mean_wait_h=mean_wait, wait_censored=w.censored[mi], steps=totals.steps[mi], sample_flags=sflags,
-        max_class=mc,
+        mean_wait_h=_share(w.sum_steps[mi], w.count[mi]) * step_h, wait_censored=w.censored[mi],
+        steps=totals.steps[mi], sample_flags=sflags, max_class=setup.max_class,
         passage_h=setup.passage_s / 3600.0, step_h=step_h, speed_kn=setup.speed_kn,
         vessel_name=setup.vessel_name, station_name=setup.station_name, task=setup.task,
         first_utc=t[0], last_utc=t[-1], n_years=int(years), notes=tuple(dict.fromkeys(nts)),

@@ -12,7 +12,7 @@
 """
 from __future__ import annotations
 
-from typing import Callable, Mapping, Optional, Sequence, Union
+from typing import Any, Callable, Mapping, Optional, Sequence, Union
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -61,6 +61,98 @@ def _attr(obj, name: str, value) -> None:  # type: ignore[no-untyped-def]
     a.Write(value)
 
 
+def _cf_axes(lon_deg: ArrayLike, lat_deg: ArrayLike, lon_0_360: bool) -> tuple:
+    """Checked (lon, lat, column order); ``lon_0_360`` stores longitudes modulo 360, increasing."""
+    lon = as_float_array("lon_deg", lon_deg).ravel()
+    lat = as_float_array("lat_deg", lat_deg).ravel()
+    order = np.arange(lon.size)
+    if lon_0_360:
+        lon = np.mod(lon, 360.0)
+        order = np.argsort(lon, kind="stable")
+        lon = lon[order]
+    return lon, lat, order
+
+
+def _cf_time_values(t_s: np.ndarray, time_units: str) -> np.ndarray:
+    """Times in CF ``<unit> since <reference>`` numbers (seconds, minutes, hours or days)."""
+    unit_word, _, ref = time_units.partition(" since ")
+    factor = {"seconds": 1, "minutes": 60, "hours": 3600, "days": 86400}.get(unit_word.strip())
+    if factor is None:
+        raise SeawayInputError(f"time_units {show(time_units)} must be seconds/minutes/hours/days since ...")
+    ref_s = as_utc_seconds("time_units reference", ref.strip().replace(" ", "T", 1))[0]
+    return (t_s - ref_s) / factor
+
+
+def _cf_coordinate(rg: Any, name: str, dim: Any, values: np.ndarray,
+                   attrs: Mapping[str, str]) -> None:
+    var = rg.CreateMDArray(name, [dim], gdal.ExtendedDataType.Create(gdal.GDT_Float64))
+    var.Write(np.asarray(values, dtype=np.float64))
+    for key, val in attrs.items():
+        _attr(var, key, val)
+
+
+def _write_cf_coordinates(rg: Any, lon: np.ndarray, lat: np.ndarray, tvals: np.ndarray,
+                          time_units: str, calendar: str) -> list:
+    """The time/lat/lon dimensions and coordinate variables plus the ``crs`` grid mapping."""
+    dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, tvals.size)
+    dy = rg.CreateDimension("lat", gdal.DIM_TYPE_HORIZONTAL_Y, None, lat.size)
+    dx = rg.CreateDimension("lon", gdal.DIM_TYPE_HORIZONTAL_X, None, lon.size)
+    _cf_coordinate(rg, "time", dt, tvals, {"units": time_units, "calendar": calendar,
+                                           "standard_name": "time", "axis": "T"})
+    _cf_coordinate(rg, "lat", dy, lat, {"units": "degrees_north", "standard_name": "latitude"})
+    _cf_coordinate(rg, "lon", dx, lon, {"units": "degrees_east", "standard_name": "longitude"})
+    crs = rg.CreateMDArray("crs", [], gdal.ExtendedDataType.Create(gdal.GDT_Int32))
+    _attr(crs, "grid_mapping_name", "latitude_longitude")
+    _attr(crs, "crs_wkt", _wgs84_wkt())
+    return [dt, dy, dx]
+
+
+def _create_cf_variable(rg: Any, path: str, dims: list, std: str, name: str, *,
+                        sf: Optional[float], ao: float, fill: float, units: Optional[str],
+                        extra: Mapping[str, str]) -> Any:
+    """One (time, lat, lon) variable with its CF attributes, no-data value and packing."""
+    gdt = gdal.GDT_Int16 if sf is not None else gdal.GDT_Float32
+    v = gdal_call(f"{path}: cannot create variable {show(name)}", rg.CreateMDArray, name, dims,
+                  gdal.ExtendedDataType.Create(gdt))
+    if std in CF_STANDARD_NAMES:
+        _attr(v, "standard_name", std)
+    if units is None and std in CF_STANDARD_NAMES:
+        units = {"height": "m", "period": "s", "direction": "degree"}[
+            canonical_kind(CF_STANDARD_NAMES[std].canonical)]
+    if units is not None:
+        _attr(v, "units", units)
+    _attr(v, "grid_mapping", "crs")
+    for k, val in extra.items():
+        _attr(v, k, val)
+    v.SetNoDataValueDouble(fill)
+    if sf is not None:
+        v.SetScale(float(sf))
+        v.SetOffset(float(ao))
+    return v
+
+
+def _write_cf_steps(v: Any, path: str, std: str, name: str, data: ArrayOrStep, shape: tuple,
+                    order: np.ndarray, sf: Optional[float], ao: float, fill: float) -> None:
+    """Write ``data`` one time step at a time (NaN -> ``fill``; packed to Int16 when ``sf``)."""
+    nt, ny, nx = shape
+    for i in range(nt):
+        step = data(i) if callable(data) else np.asarray(data, dtype=float)[i]
+        step = np.asarray(step, dtype=float)
+        if step.shape != (ny, nx):
+            raise SeawayInputError(
+                f"variables[{show(std)}] step {i} has shape {step.shape}, expected ({ny}, {nx})"
+            )
+        step = step[:, order]
+        if sf is not None:
+            packed = np.rint((step - ao) / sf)
+            packed = np.where(np.isfinite(packed), np.clip(packed, -32766, 32767), fill)
+            out = packed.astype(np.int16)
+        else:
+            out = np.where(np.isfinite(step), step, fill).astype(np.float32)
+        gdal_call(f"{path}: cannot write {show(name)} step {i}", v.WriteArray,
+                  np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
+
+
 def write_cf_netcdf(
     path: str,
     lon_deg: ArrayLike,
@@ -87,92 +179,26 @@ def write_cf_netcdf(
     not CF standard names are written without a standard_name (use ``var_names`` to name them).
     """
     require_gdal()
-    lon = as_float_array("lon_deg", lon_deg).ravel()
-    lat = as_float_array("lat_deg", lat_deg).ravel()
+    lon, lat, order = _cf_axes(lon_deg, lat_deg, lon_0_360)
     t_s = as_utc_seconds("times_utc", times_utc)
-    order = np.arange(lon.size)
-    if lon_0_360:
-        lon = np.mod(lon, 360.0)
-        order = np.argsort(lon, kind="stable")
-        lon = lon[order]
     _regular("lon_deg", lon, modulo_360=True)
     _regular("lat_deg", lat)
-    unit_word, _, ref = time_units.partition(" since ")
-    factor = {"seconds": 1, "minutes": 60, "hours": 3600, "days": 86400}.get(unit_word.strip())
-    if factor is None:
-        raise SeawayInputError(f"time_units {show(time_units)} must be seconds/minutes/hours/days since ...")
-    ref_s = as_utc_seconds("time_units reference", ref.strip().replace(" ", "T", 1))[0]
-    tvals = (t_s - ref_s) / factor
-
+    tvals = _cf_time_values(t_s, time_units)
     drv = gdal.GetDriverByName("netCDF")
     ds = gdal_call(f"cannot create NetCDF file {show(path)}", drv.CreateMultiDimensional, path)
     rg = ds.GetRootGroup()
-    nt, ny, nx = t_s.size, lat.size, lon.size
-    dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, nt)
-    dy = rg.CreateDimension("lat", gdal.DIM_TYPE_HORIZONTAL_Y, None, ny)
-    dx = rg.CreateDimension("lon", gdal.DIM_TYPE_HORIZONTAL_X, None, nx)
-    f64 = gdal.ExtendedDataType.Create(gdal.GDT_Float64)
-    tv = rg.CreateMDArray("time", [dt], f64)
-    tv.Write(np.asarray(tvals, dtype=np.float64))
-    _attr(tv, "units", time_units)
-    _attr(tv, "calendar", calendar)
-    _attr(tv, "standard_name", "time")
-    _attr(tv, "axis", "T")
-    yv = rg.CreateMDArray("lat", [dy], f64)
-    yv.Write(lat)
-    _attr(yv, "units", "degrees_north")
-    _attr(yv, "standard_name", "latitude")
-    xv = rg.CreateMDArray("lon", [dx], f64)
-    xv.Write(lon)
-    _attr(xv, "units", "degrees_east")
-    _attr(xv, "standard_name", "longitude")
-    crs = rg.CreateMDArray("crs", [], gdal.ExtendedDataType.Create(gdal.GDT_Int32))
-    _attr(crs, "grid_mapping_name", "latitude_longitude")
-    _attr(crs, "crs_wkt", _wgs84_wkt())
+    dims = _write_cf_coordinates(rg, lon, lat, tvals, time_units, calendar)
     for std, data in variables.items():
         name = (var_names or {}).get(std) or (
             CF_STANDARD_NAMES[std].canonical if std in CF_STANDARD_NAMES else std)
         sf = scale_factor.get(std) if isinstance(scale_factor, Mapping) else scale_factor
         ao = add_offset.get(std, 0.0) if isinstance(add_offset, Mapping) else add_offset
-        if sf is not None:
-            v = gdal_call(f"{path}: cannot create variable {show(name)}", rg.CreateMDArray, name, [dt, dy, dx],
-                          gdal.ExtendedDataType.Create(gdal.GDT_Int16))
-            fill = -32767.0
-        else:
-            v = gdal_call(f"{path}: cannot create variable {show(name)}", rg.CreateMDArray, name, [dt, dy, dx],
-                          gdal.ExtendedDataType.Create(gdal.GDT_Float32))
-            fill = float(fill_value)
-        if std in CF_STANDARD_NAMES:
-            _attr(v, "standard_name", std)
-        u = (units or {}).get(std)
-        if u is None and std in CF_STANDARD_NAMES:
-            u = {"height": "m", "period": "s", "direction": "degree"}[
-                canonical_kind(CF_STANDARD_NAMES[std].canonical)]
-        if u is not None:
-            _attr(v, "units", u)
-        _attr(v, "grid_mapping", "crs")
-        for k, val in ((extra_attributes or {}).get(std) or {}).items():
-            _attr(v, k, val)
-        v.SetNoDataValueDouble(fill)
-        if sf is not None:
-            v.SetScale(float(sf))
-            v.SetOffset(float(ao))
-        for i in range(nt):
-            step = data(i) if callable(data) else np.asarray(data, dtype=float)[i]
-            step = np.asarray(step, dtype=float)
-            if step.shape != (ny, nx):
-                raise SeawayInputError(
-                    f"variables[{show(std)}] step {i} has shape {step.shape}, expected ({ny}, {nx})"
-                )
-            step = step[:, order]
-            if sf is not None:
-                packed = np.rint((step - ao) / sf)
-                packed = np.where(np.isfinite(packed), np.clip(packed, -32766, 32767), fill)
-                out = packed.astype(np.int16)
-            else:
-                out = np.where(np.isfinite(step), step, fill).astype(np.float32)
-            gdal_call(f"{path}: cannot write {show(name)} step {i}", v.WriteArray,
-                      np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
+        fill = -32767.0 if sf is not None else float(fill_value)
+        v = _create_cf_variable(rg, path, dims, std, name, sf=sf, ao=ao, fill=fill,
+                                units=(units or {}).get(std),
+                                extra=(extra_attributes or {}).get(std) or {})
+        shape = (t_s.size, lat.size, lon.size)
+        _write_cf_steps(v, path, std, name, data, shape, order, sf, ao, fill)
         del v
     del rg, ds
     return path
@@ -186,6 +212,35 @@ def _mem_dataset(lon: np.ndarray, lat: np.ndarray, nbands: int, wkt: str, gdt: i
     mem.SetProjection(wkt)
     mem.SetGeoTransform([lon[0] - dx / 2.0, dx, 0.0, lat[0] - dy / 2.0, 0.0, dy])
     return mem
+
+
+def _grib_options(ref_s: float, decimal_scale_factor: int) -> list:
+    """GDAL GRIB creation options shared by every message (discipline 10, template 4.0)."""
+    ref_text = str(np.datetime64(int(ref_s), "s"))
+    return [
+        "DISCIPLINE=10",
+        f"IDS=CENTER=255 SUBCENTER=0 MASTER_TABLE=2 LOCAL_TABLE=0 SIGNF_REF_TIME=1 "
+        f"REF_TIME={ref_text}Z PROD_STATUS=0 TYPE=1",
+        "PDS_PDTN=0", "DATA_ENCODING=SIMPLE_PACKING",
+        f"DECIMAL_SCALE_FACTOR={int(decimal_scale_factor)}", "INPUT_UNIT=K",
+    ]
+
+
+def _grib_field(name: str, values: ArrayLike, shape: tuple, use_perpw_for_tp: bool) -> tuple:
+    """(GRIB2 code, checked (nt, ny, nx) data) of one canonical variable."""
+    if name not in _GRIB_CODES:
+        raise SeawayInputError(f"write_grib2: no GRIB2 code for variable {show(name)}; known: {', '.join(_GRIB_CODES)}")
+    code = GRIB_PERPW_CODE if (name == "tp" and use_perpw_for_tp) else _GRIB_CODES[name]
+    data = np.asarray(values, dtype=float)
+    if data.shape != shape:
+        raise SeawayInputError(f"variables[{show(name)}] has shape {data.shape}, expected "
+                               f"({shape[0]}, {shape[1]}, {shape[2]})")
+    if not np.all(np.isfinite(data)):
+        raise SeawayInputError(
+            f"variables[{show(name)}] holds NaN/inf: GRIB2 simple packing as written by GDAL 3.6 "
+            "cannot keep missing values (complex packing failed here); fill them or write NetCDF"
+        )
+    return code, data
 
 
 def write_grib2(
@@ -218,28 +273,11 @@ def write_grib2(
     names = list(variables)
     nb = len(names) * t_s.size
     mem = _mem_dataset(lon, lat_w, nb, _wgs84_wkt())
-    ref_text = str(np.datetime64(int(ref_s), "s"))
-    opts = [
-        "DISCIPLINE=10",
-        f"IDS=CENTER=255 SUBCENTER=0 MASTER_TABLE=2 LOCAL_TABLE=0 SIGNF_REF_TIME=1 "
-        f"REF_TIME={ref_text}Z PROD_STATUS=0 TYPE=1",
-        "PDS_PDTN=0", "DATA_ENCODING=SIMPLE_PACKING",
-        f"DECIMAL_SCALE_FACTOR={int(decimal_scale_factor)}", "INPUT_UNIT=K",
-    ]
+    opts = _grib_options(ref_s, decimal_scale_factor)
     b = 0
     for name in names:
-        if name not in _GRIB_CODES:
-            raise SeawayInputError(f"write_grib2: no GRIB2 code for variable {show(name)}; known: {', '.join(_GRIB_CODES)}")
-        cat, num, ltype, lval = GRIB_PERPW_CODE if (name == "tp" and use_perpw_for_tp) else _GRIB_CODES[name]
-        data = np.asarray(variables[name], dtype=float)
-        if data.shape != (t_s.size, lat.size, lon.size):
-            raise SeawayInputError(f"variables[{show(name)}] has shape {data.shape}, expected "
-                                   f"({t_s.size}, {lat.size}, {lon.size})")
-        if not np.all(np.isfinite(data)):
-            raise SeawayInputError(
-                f"variables[{show(name)}] holds NaN/inf: GRIB2 simple packing as written by GDAL 3.6 "
-                "cannot keep missing values (complex packing failed here); fill them or write NetCDF"
-            )
+        shape = (t_s.size, lat.size, lon.size)
+        (cat, num, ltype, lval), data = _grib_field(name, variables[name], shape, use_perpw_for_tp)
         for i in range(t_s.size):
             b += 1
             arr = data[i][::-1] if flip else data[i]

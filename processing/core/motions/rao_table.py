@@ -90,15 +90,8 @@ def _err(source: str, msg: str) -> SeawayInputError:
     return SeawayInputError(f"{source}: {msg}")
 
 
-def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *, source: str = "<rows>",
-                        line_numbers: Optional[Sequence[int]] = None) -> RaoTable:
-    """Validate parsed CSV rows (strings) and build a :class:`RaoTable`.
-
-    ``line_numbers`` are the file line numbers of the rows (default 2, 3, ...), used in
-    messages. Errors name the source, the line and the column.
-    """
-    ln = list(line_numbers) if line_numbers is not None else list(range(2, 2 + len(rows)))
-    cols = [c.strip() for c in header]
+def _frequency_column(cols: List[str], source: str) -> str:
+    """Check the header's column names; the one frequency column's name."""
     unknown = [c for c in cols if c not in _ALLOWED]
     if unknown:
         raise _err(source, f"unknown column(s) {', '.join(map(repr, unknown))}; allowed: {', '.join(_ALLOWED)}")
@@ -111,7 +104,12 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
     missing = [c for c in need if c not in cols]
     if missing:
         raise _err(source, f"missing column(s): {', '.join(missing)}")
-    fcol = fcols[0]
+    return fcols[0]
+
+
+def _parse_cells(cols: List[str], rows: Sequence[Sequence[str]], ln: List[int],
+                 source: str) -> Dict[str, FloatArray]:
+    """Column name -> finite numbers of every row (no empty, non-numeric or missing cells)."""
     data: Dict[str, List[float]] = {c: [] for c in cols}
     for r, row in enumerate(rows):
         line = ln[r]
@@ -130,24 +128,37 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
             data[c].append(v)
     if not rows:
         raise _err(source, "no data rows")
-    f = np.array(data[fcol]); h = np.array(data["heading_deg"])
-    for c in (fcol,):
-        bad = np.flatnonzero(f <= 0)
-        if bad.size:
-            raise _err(source, f"line {ln[bad[0]]} column {c} must be > 0, got {show(f[bad[0]])}")
+    return {c: np.array(v) for c, v in data.items()}
+
+
+def _check_ranges(data: Dict[str, FloatArray], fcol: str, ln: List[int], source: str) -> None:
+    """Frequency > 0, heading in [0, 360), amplitudes >= 0; the first bad line is named."""
+    f, h = data[fcol], data["heading_deg"]
+    bad = np.flatnonzero(f <= 0)
+    if bad.size:
+        raise _err(source, f"line {ln[bad[0]]} column {fcol} must be > 0, got {show(f[bad[0]])}")
     bad = np.flatnonzero((h < 0) | (h >= 360))
     if bad.size:
         raise _err(source, f"line {ln[bad[0]]} column heading_deg must lie in [0, 360), got {show(h[bad[0]])}")
     for c in AMPLITUDE_COLUMNS:
-        a = np.array(data[c]); bad = np.flatnonzero(a < 0)
+        a = data[c]
+        bad = np.flatnonzero(a < 0)
         if bad.size:
             raise _err(source, f"line {ln[bad[0]]} column {c} is a negative amplitude: {show(a[bad[0]])}")
+
+
+def _check_order(f: FloatArray, h: FloatArray, fcol: str, ln: List[int], source: str) -> None:
+    """Rows sorted by frequency column then heading, without duplicates."""
     for r in range(1, f.size):
         prev, cur = (f[r - 1], h[r - 1]), (f[r], h[r])
         if cur == prev:
             raise _err(source, f"line {ln[r]} duplicates line {ln[r - 1]} ({fcol}={show(f[r])}, heading_deg={show(h[r])})")
         if cur < prev:
             raise _err(source, f"line {ln[r]} is out of order: rows must be sorted by {fcol}, then heading_deg (got {fcol}={show(f[r])}, heading_deg={show(h[r])} after {fcol}={show(prev[0])}, heading_deg={show(prev[1])})")
+
+
+def _grid_axes(f: FloatArray, h: FloatArray, fcol: str, source: str) -> tuple:
+    """(unique frequencies, headings, symmetric) of a full rectangular grid of >= 2 x 2."""
     fu = np.unique(f)
     heads = h[f == fu[0]]
     for fv in fu[1:]:
@@ -156,19 +167,40 @@ def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *,
             miss = sorted(set(heads.tolist()) - set(hv.tolist()))
             extra = sorted(set(hv.tolist()) - set(heads.tolist()))
             raise _err(source, f"grid is not rectangular: {fcol}={show(fv)} has headings missing {miss} / extra {extra} compared with {fcol}={show(fu[0])}")
-    nf, nh = fu.size, heads.size
-    if nf < 2 or nh < 2:
-        raise _err(source, f"need at least 2 frequencies and 2 headings, got {nf} and {nh}")
+    if fu.size < 2 or heads.size < 2:
+        raise _err(source, f"need at least 2 frequencies and 2 headings, got {fu.size} and {heads.size}")
     symmetric = bool(heads.max() <= 180.0)
     if symmetric and not (heads[0] == 0.0 and heads[-1] == 180.0):
         raise _err(source, f"headings within 0..180 deg must include 0 and 180 (symmetric hull), got {heads.tolist()}")
+    return fu, heads, symmetric
+
+
+def _omega_from_column(fcol: str, values: FloatArray) -> FloatArray:
+    """Angular frequency [rad/s]: omega = 2 pi / T (period_s), 2 pi f (freq_hz), or as given."""
     if fcol == "period_s":
-        omega = 2 * math.pi / fu
-    elif fcol == "freq_hz":
-        omega = 2 * math.pi * fu
-    else:
-        omega = fu.copy()
-    grid = {c: np.array(data[c]).reshape(nf, nh) for c in AMPLITUDE_COLUMNS}
+        return 2 * math.pi / values
+    if fcol == "freq_hz":
+        return 2 * math.pi * values
+    return values.copy()
+
+
+def rao_table_from_rows(header: Sequence[str], rows: Sequence[Sequence[str]], *, source: str = "<rows>",
+                        line_numbers: Optional[Sequence[int]] = None) -> RaoTable:
+    """Validate parsed CSV rows (strings) and build a :class:`RaoTable`.
+
+    ``line_numbers`` are the file line numbers of the rows (default 2, 3, ...), used in
+    messages. Errors name the source, the line and the column.
+    """
+    ln = list(line_numbers) if line_numbers is not None else list(range(2, 2 + len(rows)))
+    cols = [c.strip() for c in header]
+    fcol = _frequency_column(cols, source)
+    data = _parse_cells(cols, rows, ln, source)
+    _check_ranges(data, fcol, ln, source)
+    f, h = data[fcol], data["heading_deg"]
+    _check_order(f, h, fcol, ln, source)
+    fu, heads, symmetric = _grid_axes(f, h, fcol, source)
+    omega = _omega_from_column(fcol, fu)
+    grid = {c: data[c].reshape(fu.size, heads.size) for c in AMPLITUDE_COLUMNS}
     order = np.argsort(omega)
     return RaoTable(
         omega_rad_s=omega[order], heading_deg=heads.astype(float),

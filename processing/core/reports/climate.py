@@ -1,22 +1,14 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """The seasonal-climate report: one self-contained HTML page and a short text summary.
 
-All text from outside (file names, vessel and station names, notes) is escaped with
-:func:`html.escape`; the page has no script and no external link. With matplotlib (a bare
-``Figure``, rendered by Agg; pyplot and the host's backend are never touched) it holds a month x distance heat map of the share of time within the worst acceptable
-class and a month bar chart of the weather-window probability, embedded as base64 PNG; without
-matplotlib the same numbers are given as tables. The planning-aid caution
-(:data:`..flags.CAUTION`) heads and closes the page.
-
-Palette (our own): five steps of "share of time within the acceptable class", dark plum for
-rarely acceptable to pale mint for nearly always acceptable, ordered by lightness so that it
-reads in grey-scale print; neutral grey for no data.
+Built from the shared page parts of :mod:`.html` (escaping, no script, no external link, the
+planning-aid caution heading and closing the page). With matplotlib it holds a month x distance
+heat map of the share of time within the worst acceptable class and a month bar chart of the
+weather-window probability, embedded as base64 PNG; without matplotlib the same numbers are
+given as tables. The share palette lives in :mod:`.palette`.
 """
 from __future__ import annotations
 
-import base64
-import html
-import io
 import math
 from typing import List, Optional, Sequence, Tuple
 
@@ -24,28 +16,20 @@ import numpy as np
 
 from ..flags import CAUTION
 from ..climate.monthly import ClimateResult
+from .html import bullets, esc, figure_png, new_figure, page, png_img, table, write_page
+from .palette import NO_DATA_COLOUR, SHARE_BOUNDS, SHARE_PALETTE, share_bin
 
 __all__ = ["SHARE_PALETTE", "SHARE_BOUNDS", "NO_DATA_COLOUR", "share_bin", "render_climate_html",
            "write_climate_html", "climate_text_summary"]
 
-SHARE_PALETTE: Tuple[str, ...] = ("#4a1f3d", "#9c4a3c", "#d49a3f", "#86bfae", "#e4f3ef")
-"""Fill colours for shares of acceptable time in [0, .2), [.2, .4), [.4, .6), [.6, .8), [.8, 1]."""
-SHARE_BOUNDS: Tuple[float, ...] = (0.2, 0.4, 0.6, 0.8)
-"""Upper bounds of the first four palette steps (share 0..1)."""
-NO_DATA_COLOUR: str = "#9a9a9a"
-
 MONTH_NAMES: Tuple[str, ...] = ("Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec")
 
-
-def share_bin(share: float) -> int:
-    """Palette step 0..4 of a share 0..1 (-1 for NaN)."""
-    if share is None or not math.isfinite(float(share)):
-        return -1
-    return int(np.searchsorted(np.asarray(SHARE_BOUNDS), float(share), side="right"))
-
-
-def _e(v: object) -> str:
-    return html.escape(str(v), quote=True)
+READING_NOTES: Tuple[str, ...] = (
+    "Time shares count every hindcast step of the month (all years pooled) at every route sample.",
+    "A departure counts for the window probability when the whole passage, with the vessel moving "
+    "along the route, stays within the acceptable class.",
+    "Mean wait: from a start at any hindcast step of the month to the next such departure.",
+)
 
 
 def _pct(v: float) -> str:
@@ -56,14 +40,13 @@ def _h(v: float) -> str:
     return "–" if not math.isfinite(float(v)) else f"{float(v):.0f} h"
 
 
-def _plots_png(r: ClimateResult) -> Optional[Tuple[bytes, bytes]]:
-    try:
-        from matplotlib.colors import BoundaryNorm, ListedColormap
-        from matplotlib.figure import Figure
-    except Exception:
+def _heat_map_png(r: ClimateResult) -> Optional[bytes]:
+    """Month x distance heat map of the share of time within the acceptable class."""
+    fig = new_figure(8.0, 0.35 * len(r.months) + 1.6, dpi=96)
+    if fig is None:
         return None
-    labels = [MONTH_NAMES[m - 1] for m in r.months]
-    fig = Figure(figsize=(8.0, 0.35 * len(r.months) + 1.6), dpi=96)
+    from matplotlib.colors import BoundaryNorm, ListedColormap
+
     ax = fig.add_subplot(1, 1, 1)
     cmap = ListedColormap(list(SHARE_PALETTE))
     cmap.set_bad(NO_DATA_COLOUR)
@@ -73,33 +56,28 @@ def _plots_png(r: ClimateResult) -> Optional[Tuple[bytes, bytes]]:
     data = np.ma.masked_invalid(r.ok_share)
     mesh = ax.pcolormesh(edges, np.arange(len(r.months) + 1), data, cmap=cmap, norm=norm, shading="flat")
     ax.set_yticks(np.arange(len(r.months)) + 0.5)
-    ax.set_yticklabels(labels)
+    ax.set_yticklabels([MONTH_NAMES[m - 1] for m in r.months])
     ax.invert_yaxis()
     ax.set_xlabel("distance along the route [NM]")
     ax.set_title(f"Share of time with comfort class <= {r.max_class}")
     cb = fig.colorbar(mesh, ax=ax, ticks=[0.0, *SHARE_BOUNDS, 1.0])
     cb.ax.set_yticklabels(["0", "20 %", "40 %", "60 %", "80 %", "100 %"])
-    fig.tight_layout()
-    b1 = io.BytesIO()
-    fig.savefig(b1, format="png")
-    fig2 = Figure(figsize=(8.0, 3.0), dpi=96)
-    ax2 = fig2.add_subplot(1, 1, 1)
+    return figure_png(fig)
+
+
+def _window_bars_png(r: ClimateResult) -> Optional[bytes]:
+    """Month bar chart of the weather-window probability."""
+    fig = new_figure(8.0, 3.0, dpi=96)
+    if fig is None:
+        return None
+    ax = fig.add_subplot(1, 1, 1)
     p = np.nan_to_num(np.asarray(r.window_probability, dtype=float), nan=0.0)
     cols = [SHARE_PALETTE[max(share_bin(v), 0)] if math.isfinite(v) else NO_DATA_COLOUR for v in r.window_probability]
-    ax2.bar(labels, 100.0 * p, color=cols, edgecolor="#333333", linewidth=0.6)
-    ax2.set_ylim(0, 100)
-    ax2.set_ylabel("window probability [%]")
-    ax2.set_title(f"Departures with the whole {r.passage_h:.0f} h passage within class <= {r.max_class}")
-    fig2.tight_layout()
-    b2 = io.BytesIO()
-    fig2.savefig(b2, format="png")
-    return b1.getvalue(), b2.getvalue()
-
-
-def _table(headers: Sequence[str], rows: Sequence[Sequence[str]]) -> str:
-    head = "".join(f"<th>{_e(h)}</th>" for h in headers)
-    body = "".join("<tr>" + "".join(f"<td>{_e(c)}</td>" for c in row) + "</tr>" for row in rows)
-    return f"<table><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>"
+    ax.bar([MONTH_NAMES[m - 1] for m in r.months], 100.0 * p, color=cols, edgecolor="#333333", linewidth=0.6)
+    ax.set_ylim(0, 100)
+    ax.set_ylabel("window probability [%]")
+    ax.set_title(f"Departures with the whole {r.passage_h:.0f} h passage within class <= {r.max_class}")
+    return figure_png(fig)
 
 
 def _thin(n: int, k: int = 12) -> List[int]:
@@ -108,72 +86,61 @@ def _thin(n: int, k: int = 12) -> List[int]:
     return sorted(set(int(round(x)) for x in np.linspace(0, n - 1, k)))
 
 
+def _run_table(r: ClimateResult) -> str:
+    from ..comfort.indices import COMFORT_CLASS_LABELS
+
+    return table(["item", "value"], [
+        ["vessel", r.vessel_name], ["station", f"{r.station_name} ({r.task})"],
+        ["speed", f"{r.speed_kn:g} kn"], ["route length", f"{r.dist_nm[-1]:.1f} NM ({r.n} samples)"],
+        ["passage", f"{r.passage_h:.1f} h"],
+        ["worst acceptable class", f"{r.max_class} ({COMFORT_CLASS_LABELS[r.max_class]})"],
+        ["hindcast", f"{r.first_utc}Z to {r.last_utc}Z, step {r.step_h:g} h, {r.n_years} year(s)"],
+        ["computed on", r.backend or "-"],
+    ])
+
+
+def _month_table(r: ClimateResult) -> str:
+    rows = [[MONTH_NAMES[m - 1], _pct(r.route_ok_share[k]), _pct(r.route_exceed_share[k]),
+             _pct(r.window_probability[k]), _h(r.mean_wait_h[k]), str(int(r.departures_known[k])),
+             str(int(r.wait_censored[k])), str(int(r.missing_steps[k].sum()))] for k, m in enumerate(r.months)]
+    return table(["month", f"time within class <= {r.max_class}", "criteria exceeded", "window probability",
+                  "mean wait", "departures counted", "starts without window", "missing (step x sample)"], rows)
+
+
+def _share_figures(r: ClimateResult, plots: bool) -> List[str]:
+    """The two figures, or without matplotlib the share along the route as a table."""
+    if plots:
+        imgs = (_heat_map_png(r), _window_bars_png(r))
+        if all(i is not None for i in imgs):
+            return [png_img(i, alt) for i, alt in zip(imgs, ("month x distance heat map of acceptable time",
+                                                             "window probability per month"))]
+    idx = _thin(r.n)
+    hdr = ["month"] + [f"{r.dist_nm[i]:.0f} NM" for i in idx]
+    return ["<h2>Share of time within the acceptable class along the route</h2>",
+            table(hdr, [[MONTH_NAMES[m - 1]] + [_pct(r.ok_share[k, i]) for i in idx] for k, m in enumerate(r.months)])]
+
+
 def render_climate_html(r: ClimateResult, *, title: str = "Seasonal comfort climate", plots: bool = True,
                         sources: Sequence[str] = ()) -> str:
     """The report page as text (module docstring)."""
     from ..comfort.indices import COMFORT_CLASS_LABELS
 
-    png = _plots_png(r) if plots else None
-    parts: List[str] = [
-        "<!DOCTYPE html><html><head><meta charset='utf-8'>",
-        f"<title>{_e(title)}</title>",
-        "<style>body{font-family:sans-serif;max-width:60em;margin:1em auto;color:#222}"
-        "table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #bbb;padding:2px 6px;"
-        "text-align:right}th{background:#eee}.caution{border:2px solid #9c4a3c;padding:.5em;"
-        "background:#fbf3ee}</style></head><body>",
-        f"<h1>{_e(title)}</h1>",
-        f"<p class='caution'><strong>{_e(CAUTION)}</strong></p>",
-        "<h2>Run</h2>",
-        _table(["item", "value"], [
-            ["vessel", r.vessel_name], ["station", f"{r.station_name} ({r.task})"],
-            ["speed", f"{r.speed_kn:g} kn"], ["route length", f"{r.dist_nm[-1]:.1f} NM ({r.n} samples)"],
-            ["passage", f"{r.passage_h:.1f} h"],
-            ["worst acceptable class", f"{r.max_class} ({COMFORT_CLASS_LABELS[r.max_class]})"],
-            ["hindcast", f"{r.first_utc}Z to {r.last_utc}Z, step {r.step_h:g} h, {r.n_years} year(s)"],
-            ["computed on", r.backend or "-"],
-        ]),
-    ]
+    parts: List[str] = ["<h2>Run</h2>", _run_table(r)]
     if sources:
-        parts.append("<p>Hindcast files: " + ", ".join(_e(s) for s in sources) + "</p>")
-    parts.append("<h2>Per month</h2>")
-    rows = []
-    for k, m in enumerate(r.months):
-        rows.append([MONTH_NAMES[m - 1], _pct(r.route_ok_share[k]), _pct(r.route_exceed_share[k]),
-                     _pct(r.window_probability[k]), _h(r.mean_wait_h[k]), str(int(r.departures_known[k])),
-                     str(int(r.wait_censored[k])), str(int(r.missing_steps[k].sum()))])
-    parts.append(_table(["month", f"time within class <= {r.max_class}", "criteria exceeded",
-                         "window probability", "mean wait", "departures counted", "starts without window",
-                         "missing (step x sample)"], rows))
-    if png is not None:
-        for img, alt in zip(png, ("month x distance heat map of acceptable time", "window probability per month")):
-            parts.append(f"<p><img alt='{_e(alt)}' src='data:image/png;base64,{base64.b64encode(img).decode('ascii')}'></p>")
-    else:
-        idx = _thin(r.n)
-        parts.append("<h2>Share of time within the acceptable class along the route</h2>")
-        hdr = ["month"] + [f"{r.dist_nm[i]:.0f} NM" for i in idx]
-        parts.append(_table(hdr, [[MONTH_NAMES[m - 1]] + [_pct(r.ok_share[k, i]) for i in idx]
-                                  for k, m in enumerate(r.months)]))
+        parts.append("<p>Hindcast files: " + ", ".join(esc(s) for s in sources) + "</p>")
+    parts += ["<h2>Per month</h2>", _month_table(r), *_share_figures(r, plots)]
     parts.append("<h2>Class shares on the whole route</h2>")
-    parts.append(_table(["month"] + list(COMFORT_CLASS_LABELS),
-                        [[MONTH_NAMES[m - 1]] + [_pct(v) for v in r.route_class_share[k]] for k, m in enumerate(r.months)]))
-    parts.append("<h2>How to read this</h2><ul>"
-                 "<li>Time shares count every hindcast step of the month (all years pooled) at every route sample.</li>"
-                 "<li>A departure counts for the window probability when the whole passage, with the vessel moving "
-                 "along the route, stays within the acceptable class.</li>"
-                 "<li>Mean wait: from a start at any hindcast step of the month to the next such departure.</li>"
-                 "</ul>")
+    parts.append(table(["month"] + list(COMFORT_CLASS_LABELS),
+                       [[MONTH_NAMES[m - 1]] + [_pct(v) for v in r.route_class_share[k]] for k, m in enumerate(r.months)]))
+    parts.append("<h2>How to read this</h2>" + bullets(READING_NOTES))
     if r.notes:
-        parts.append("<h2>Notes</h2><ul>" + "".join(f"<li>{_e(n)}</li>" for n in r.notes) + "</ul>")
-    parts.append(f"<p class='caution'>{_e(CAUTION)}</p></body></html>")
-    return "\n".join(parts)
+        parts.append("<h2>Notes</h2>" + bullets(r.notes))
+    return page(title, parts, CAUTION)
 
 
 def write_climate_html(path: str, r: ClimateResult, **kwargs: object) -> str:
     """Write :func:`render_climate_html` to ``path`` (UTF-8); returns the path."""
-    text = render_climate_html(r, **kwargs)  # type: ignore[arg-type]
-    with open(path, "w", encoding="utf-8") as fh:
-        fh.write(text)
-    return path
+    return write_page(path, render_climate_html(r, **kwargs))  # type: ignore[arg-type]
 
 
 def climate_text_summary(r: ClimateResult) -> str:

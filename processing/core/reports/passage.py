@@ -5,28 +5,22 @@ Everything that comes from outside (file names, source names, vessel and leg nam
 escaped with :func:`html.escape`; the page holds no script and no external link. Plots are
 drawn with matplotlib (Agg backend, embedded as base64 PNG) when it can be imported; without it
 the report still has every table. The planning-aid caution (:data:`.flags.CAUTION`) heads and
-closes the page.
-
-The comfort-class palette lives here as well (the QGIS styling reuses it): five colours of our
-own, ordered from light to dark so that the classes stay apart by lightness alone (readable
-under the common colour-vision deficiencies and in grey-scale print), with a neutral grey for
-samples without results.
+closes the page. The page parts come from :mod:`.html`, the colours from :mod:`.palette`.
 """
 from __future__ import annotations
 
-import base64
 import datetime as _dt
-import html
-import io
-import math
 from dataclasses import dataclass, field
 from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 
-from ..flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS
+from ..flags import CAUTION
 from ..passage.fields import MOTION_OUTPUTS
 from ..passage.pipeline import NOT_COMPUTED_CLASS, PassageResult, PassageSummary
+from .html import bullets, figure_png, flag_table, new_figure, page, png_img, write_page
+from .html import esc as _esc, fmt_num as _fmt, fmt_time_utc as _fmt_time, swatch as _swatch, table as _table
+from .palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 
 __all__ = [
     "COMFORT_PALETTE",
@@ -40,38 +34,8 @@ __all__ = [
     "text_summary",
 ]
 
-COMFORT_PALETTE: Tuple[str, ...] = ("#e3f1f7", "#a3d6cf", "#d69a3a", "#b4492a", "#4d1a47")
-"""Fill colours for comfort classes 0..4 (smooth, steady, lively, taxing, punishing); CIE L*
-about 94, 82, 68, 45, 19 (more than 10 units apart, so the order reads without hue)."""
-
-NOT_COMPUTED_COLOUR: str = "#9a9a9a"
-"""Colour of samples without results (no sea data, outside the grid or the time range)."""
-
 MAX_TABLE_ROWS: int = 400
 """Sample rows in the per-leg table; longer legs are thinned evenly (vertices always kept)."""
-
-
-def _esc(value: object) -> str:
-    return html.escape(str(value), quote=True)
-
-
-def _fmt(value: object, digits: int = 2) -> str:
-    try:
-        v = float(value)  # type: ignore[arg-type]
-    except (TypeError, ValueError):
-        return str(value)
-    if not math.isfinite(v):
-        return "n/a"
-    return f"{v:.{digits}f}"
-
-
-def _fmt_time(t: object) -> str:
-    if t is None:
-        return "n/a"
-    t64 = np.datetime64(t, "m")
-    if np.isnat(t64):
-        return "n/a"
-    return str(t64).replace("T", " ") + " UTC"
 
 
 @dataclass(frozen=True)
@@ -162,17 +126,11 @@ def build_report(
 
 def _leg_plot_png(leg: LegReport, labels: Sequence[str]) -> Optional[bytes]:
     """A three-panel time plot of one leg as PNG bytes, or None without matplotlib."""
-    try:
-        from matplotlib.backends.backend_agg import FigureCanvasAgg
-        from matplotlib.figure import Figure
-    except Exception:  # noqa: BLE001 - any import problem means "no plots"
-        return None
     r = leg.result
-    if r.n < 2:
+    fig = new_figure(8.0, 6.0) if r.n >= 2 else None
+    if fig is None:
         return None
     hours = (r.eta_utc - r.eta_utc[0]).astype("timedelta64[s]").astype(float) / 3600.0
-    fig = Figure(figsize=(8.0, 6.0), dpi=90)
-    FigureCanvasAgg(fig)  # Agg canvas attached to this figure only (no global backend switch)
     ax1, ax2, ax3 = fig.subplots(3, 1, sharex=True)
     ax1.plot(hours, r.hs_m, color="#2b5d7c", label="Hs [m]")
     ax1.set_ylabel("Hs [m]")
@@ -200,26 +158,12 @@ def _leg_plot_png(leg: LegReport, labels: Sequence[str]) -> Optional[bytes]:
     ax3.set_yticklabels(labels, fontsize=7)
     ax3.set_ylabel("comfort")
     ax3.set_xlabel("hours since departure")
-    fig.tight_layout()
-    buf = io.BytesIO()
-    fig.savefig(buf, format="png")
-    return buf.getvalue()
+    return figure_png(fig)
 
 
 # ---------------------------------------------------------------------------------------------
 # HTML
 # ---------------------------------------------------------------------------------------------
-
-_CSS = """
-body{font-family:sans-serif;margin:1.5em;color:#222;max-width:70em}
-h1{font-size:1.5em}h2{font-size:1.2em;margin-top:1.6em}h3{font-size:1.05em}
-table{border-collapse:collapse;margin:.5em 0}
-td,th{border:1px solid #bbb;padding:.2em .5em;font-size:.9em;text-align:left}
-th{background:#eef2f4}
-.caution{border:2px solid #c4572a;background:#fff4ec;padding:.6em .8em;margin:1em 0}
-.swatch{display:inline-block;width:1.1em;height:.9em;border:1px solid #555;vertical-align:middle}
-.small{font-size:.8em;color:#555}
-"""
 
 METHOD_NOTES: Tuple[str, ...] = (
     "Route samples on WGS84 geodesics (Karney 2013, J. Geodesy 87, 43-55, via PROJ).",
@@ -241,22 +185,6 @@ METHOD_NOTES: Tuple[str, ...] = (
 )
 
 
-def _table(headers: Sequence[str], rows: Sequence[Sequence[str]], *, raw_cols: Sequence[int] = ()) -> str:
-    """An HTML table; cells are escaped except the columns listed in raw_cols (built here)."""
-    out = ["<table>", "<tr>" + "".join(f"<th>{_esc(h)}</th>" for h in headers) + "</tr>"]
-    for row in rows:
-        cells = []
-        for i, cell in enumerate(row):
-            cells.append(f"<td>{cell if i in raw_cols else _esc(cell)}</td>")
-        out.append("<tr>" + "".join(cells) + "</tr>")
-    out.append("</table>")
-    return "\n".join(out)
-
-
-def _swatch(colour: str) -> str:
-    return f'<span class="swatch" style="background:{_esc(colour)}"></span>'
-
-
 def _thin_rows(r: PassageResult, max_rows: int) -> np.ndarray:
     if r.n <= max_rows:
         return np.arange(r.n)
@@ -267,9 +195,9 @@ def _thin_rows(r: PassageResult, max_rows: int) -> np.ndarray:
     return pick
 
 
-def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
+def _leg_facts_html(leg: LegReport) -> str:
+    """The leg's key figures as an item/value table."""
     r, s = leg.result, leg.summary
-    parts = [f"<h2>Leg {s.leg + 1}: {_esc(leg.name)}</h2>"]
     worst = s.worst_index
     rows = [
         ("Departure", _fmt_time(s.departure_utc)),
@@ -291,29 +219,20 @@ def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
             f"{_fmt(r.vacc_rms_m_s2[worst])} m/s2 RMS, lateral acc. {_fmt(r.lacc_rms_m_s2[worst])} m/s2 RMS, "
             f"roll {_fmt(r.roll_rms_deg[worst], 1)} deg RMS, MSI {_fmt(r.msi_pct[worst], 1)} %",
         ))
-    parts.append(_table(("Item", "Value"), rows))
-    parts.append("<h3>Time in each comfort class</h3>")
-    class_rows = []
-    for c, label in enumerate(labels):
-        class_rows.append((_swatch(COMFORT_PALETTE[c]), label, _fmt(s.hours_per_class.get(label, 0.0), 1)))
-    class_rows.append((_swatch(NOT_COMPUTED_COLOUR), "not computed",
-                       _fmt(s.hours_per_class.get("not computed", 0.0), 1)))
-    parts.append(_table(("", "Class", "Hours"), class_rows, raw_cols=(0,)))
-    if plots:
-        png = _leg_plot_png(leg, labels)
-        if png is not None:
-            b64 = base64.b64encode(png).decode("ascii")
-            parts.append(
-                f'<p><img alt="Time plot of leg {s.leg + 1}" src="data:image/png;base64,{b64}"></p>'
-            )
-    if s.flag_counts:
-        parts.append("<h3>Flagged samples</h3>")
-        by_code = {code: flag for flag, code in FLAG_CODES.items()}
-        frows = [(code, str(n), FLAG_EXPLANATIONS[by_code[code]]) for code, n in s.flag_counts.items()]
-        parts.append(_table(("Flag", "Samples", "Meaning"), frows))
-    if r.notes:
-        parts.append("<h3>Notes</h3><ul>" + "".join(f"<li>{_esc(n)}</li>" for n in r.notes) + "</ul>")
-    parts.append("<h3>Samples</h3>")
+    return _table(("Item", "Value"), rows)
+
+
+def _class_hours_html(leg: LegReport, labels: Sequence[str]) -> str:
+    """Hours in each comfort class (with its colour) and without results."""
+    hours = leg.summary.hours_per_class
+    class_rows = [(_swatch(COMFORT_PALETTE[c]), label, _fmt(hours.get(label, 0.0), 1)) for c, label in enumerate(labels)]
+    class_rows.append((_swatch(NOT_COMPUTED_COLOUR), "not computed", _fmt(hours.get("not computed", 0.0), 1)))
+    return "<h3>Time in each comfort class</h3>\n" + _table(("", "Class", "Hours"), class_rows, raw_cols=(0,))
+
+
+def _samples_html(r: PassageResult) -> str:
+    """The (evenly thinned) per-sample table of one leg."""
+    parts = ["<h3>Samples</h3>"]
     pick = _thin_rows(r, MAX_TABLE_ROWS)
     if pick.size < r.n:
         parts.append(f'<p class="small">{pick.size} of {r.n} samples shown (evenly thinned, route '
@@ -340,64 +259,57 @@ def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
     return "\n".join(parts)
 
 
+def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
+    r, s = leg.result, leg.summary
+    parts = [f"<h2>Leg {s.leg + 1}: {_esc(leg.name)}</h2>", _leg_facts_html(leg), _class_hours_html(leg, labels)]
+    if plots:
+        parts.append(png_img(_leg_plot_png(leg, labels), f"Time plot of leg {s.leg + 1}"))
+    if s.flag_counts:
+        parts.append("<h3>Flagged samples</h3>")
+        parts.append(flag_table(s.flag_counts, "Samples"))
+    if r.notes:
+        parts.append("<h3>Notes</h3>" + bullets(r.notes))
+    parts.append(_samples_html(r))
+    return "\n".join(p for p in parts if p)
+
+
+def _overview_html(legs: Sequence[LegReport]) -> str:
+    """One row per leg: times, distance, worst class, highest MSI, dose, samples without results."""
+    if not legs:
+        return "<p>No leg was computed.</p>"
+    over = []
+    for leg in legs:
+        s = leg.summary
+        worst = "n/a"
+        if s.worst_index is not None:
+            worst = leg.result.comfort_label[s.worst_index]
+        over.append((
+            str(s.leg + 1), leg.name, _fmt_time(s.departure_utc), _fmt_time(s.arrival_utc),
+            _fmt(s.distance_nm, 1), _fmt(s.duration_h, 1), worst, _fmt(s.max_msi_pct, 1),
+            _fmt(s.final_msdv, 1), str(s.n_samples - s.n_computed),
+        ))
+    return "<h2>Overview</h2>\n" + _table(
+        ("Leg", "Name", "Departure", "Arrival", "NM", "Hours", "Worst class", "Max MSI %",
+         "MSDV at arrival", "Samples without results"),
+        over,
+    )
+
+
 def render_html(report: ReportData, *, plots: bool = True) -> str:
     """The report as one self-contained HTML5 page (no scripts, no external resources)."""
     labels = report.class_labels or tuple(f"class {i}" for i in range(len(COMFORT_PALETTE)))
-    caution = f'<div class="caution"><strong>Caution.</strong> {_esc(report.caution)}</div>'
-    parts = [
-        "<!DOCTYPE html>",
-        '<html lang="en">',
-        "<head>",
-        '<meta charset="utf-8">',
-        f"<title>{_esc(report.title)}</title>",
-        f"<style>{_CSS}</style>",
-        "</head>",
-        "<body>",
-        f"<h1>{_esc(report.title)}</h1>",
-        caution,
-        "<h2>Inputs</h2>",
-        _table(("Input", "Value"), report.inputs.rows()),
-    ]
+    parts = ["<h2>Inputs</h2>", _table(("Input", "Value"), report.inputs.rows())]
     if report.warnings:
-        parts.append("<h2>Warnings</h2><ul>" + "".join(f"<li>{_esc(w)}</li>" for w in report.warnings) + "</ul>")
-    if report.legs:
-        parts.append("<h2>Overview</h2>")
-        over = []
-        for leg in report.legs:
-            s = leg.summary
-            worst = "n/a"
-            if s.worst_index is not None:
-                worst = leg.result.comfort_label[s.worst_index]
-            over.append((
-                str(s.leg + 1), leg.name, _fmt_time(s.departure_utc), _fmt_time(s.arrival_utc),
-                _fmt(s.distance_nm, 1), _fmt(s.duration_h, 1), worst, _fmt(s.max_msi_pct, 1),
-                _fmt(s.final_msdv, 1), str(s.n_samples - s.n_computed),
-            ))
-        parts.append(_table(
-            ("Leg", "Name", "Departure", "Arrival", "NM", "Hours", "Worst class", "Max MSI %",
-             "MSDV at arrival", "Samples without results"),
-            over,
-        ))
-    else:
-        parts.append("<p>No leg was computed.</p>")
-    for leg in report.legs:
-        parts.append(_leg_html(leg, labels, plots))
-    parts.append("<h2>Methods and sources</h2><ul>")
-    parts.extend(f"<li>{_esc(m)}</li>" for m in METHOD_NOTES)
-    parts.append("</ul>")
-    parts.append(caution)
-    parts.append('<p class="small">Made with Seaway Comfort.</p>')
-    parts.append("</body>")
-    parts.append("</html>")
-    return "\n".join(parts) + "\n"
+        parts.append("<h2>Warnings</h2>" + bullets(report.warnings))
+    parts.append(_overview_html(report.legs))
+    parts.extend(_leg_html(leg, labels, plots) for leg in report.legs)
+    parts.append("<h2>Methods and sources</h2>" + bullets(METHOD_NOTES))
+    return page(report.title, parts, report.caution)
 
 
 def write_html(path: str, report: ReportData, *, plots: bool = True) -> str:
     """Write :func:`render_html` to ``path`` (UTF-8) and return the path."""
-    text = render_html(report, plots=plots)
-    with open(path, "w", encoding="utf-8") as fh:
-        fh.write(text)
-    return path
+    return write_page(path, render_html(report, plots=plots))
 
 
 def text_summary(report: ReportData) -> str:

@@ -1,12 +1,9 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """The departure-sweep report: one self-contained HTML page from a :class:`.sweep.SweepResult`.
 
-Same rules as the passage report (:mod:`.report`): every text from outside (file, source,
-vessel and route names, notes) is escaped with :func:`html.escape`; no script and no external
-link; the planning-aid caution (:data:`.flags.CAUTION`) heads and closes the page; plots are
-drawn with matplotlib (Agg canvas, embedded as base64 PNG) only when it can be imported, and
-the page keeps every table without it. Colours are the comfort-class palette of :mod:`.report`
-(also used by the QGIS styling).
+Built from the shared page parts of :mod:`.html` (escaping, no script, no external link, the
+planning-aid caution heading and closing the page, plots only when matplotlib imports, every
+table without it); colours from :mod:`.palette` (also used by the QGIS styling).
 
 Content: the recommendation in words; a heat map of departure time (vertical) x distance along
 the route (horizontal) coloured by the worst comfort class over the sources; the criterion per
@@ -14,18 +11,17 @@ departure with one line per source and the spread between sources shaded; the ra
 """
 from __future__ import annotations
 
-import base64
 import datetime as _dt
-import html
-import io
-import math
 from dataclasses import dataclass, field
 from typing import List, Optional, Sequence, Tuple
 
 import numpy as np
 
-from ..flags import CAUTION, FLAG_CODES, FLAG_EXPLANATIONS, flag_counts
-from .passage import COMFORT_PALETTE, METHOD_NOTES, NOT_COMPUTED_COLOUR, ReportInputs
+from ..flags import CAUTION, flag_counts
+from .html import bullets, esc, figure_png, flag_table, fmt_num, new_figure, page, png_img, swatch, table, write_page
+from .html import fmt_time_utc as _time
+from .palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .passage import METHOD_NOTES, ReportInputs
 from ..sweep.engine import CRITERION_LABELS, CRITERION_UNITS, ROBUST_SOURCE, SweepResult, SweepRow
 
 __all__ = [
@@ -51,44 +47,9 @@ SWEEP_METHOD_NOTES: Tuple[str, ...] = (
     "dose and criterion; the spread is the largest minus the smallest value over the sources.",
 )
 
-_CSS = """
-body{font-family:sans-serif;margin:1.5em;color:#222;max-width:74em}
-h1{font-size:1.5em}h2{font-size:1.2em;margin-top:1.6em}
-table{border-collapse:collapse;margin:.5em 0}
-td,th{border:1px solid #bbb;padding:.2em .45em;font-size:.85em;text-align:left}
-th{background:#eef2f4}
-.caution{border:2px solid #c4572a;background:#fff4ec;padding:.6em .8em;margin:1em 0}
-.pick{border:2px solid #2b5d7c;background:#eef6fa;padding:.6em .8em;margin:1em 0}
-.swatch{display:inline-block;width:1.1em;height:.9em;border:1px solid #555;vertical-align:middle}
-.small{font-size:.8em;color:#555}
-"""
-
-
-# minimal own helpers (the passage report's _esc/_fmt/_table are private to report.py)
-def _esc(value: object) -> str:
-    return html.escape(str(value), quote=True)
-
 
 def _num(value: float, digits: int = 1) -> str:
-    v = float(value)
-    return f"{v:.{digits}f}" if math.isfinite(v) else "n/a"
-
-
-def _time(t: object) -> str:
-    t64 = np.datetime64(t, "m")
-    return "n/a" if np.isnat(t64) else str(t64).replace("T", " ") + " UTC"
-
-
-def _table(headers: Sequence[str], rows: Sequence[Sequence[str]], raw_cols: Sequence[int] = ()) -> str:
-    out = ["<table>", "<tr>" + "".join(f"<th>{_esc(h)}</th>" for h in headers) + "</tr>"]
-    for row in rows:
-        out.append("<tr>" + "".join(f"<td>{c if i in raw_cols else _esc(c)}</td>" for i, c in enumerate(row)) + "</tr>")
-    out.append("</table>")
-    return "\n".join(out)
-
-
-def _swatch(colour: str) -> str:
-    return f'<span class="swatch" style="background:{_esc(colour)}"></span>'
+    return fmt_num(float(value), digits)
 
 
 @dataclass(frozen=True)
@@ -116,27 +77,9 @@ def build_sweep_report(result: SweepResult, inputs: ReportInputs, *, title: str 
 # ---------------------------------------------------------------------------------------------
 
 
-def _figure(w: float, h: float):  # type: ignore[no-untyped-def]
-    try:
-        from matplotlib.backends.backend_agg import FigureCanvasAgg
-        from matplotlib.figure import Figure
-    except Exception:  # noqa: BLE001 - any import problem means "no plots"
-        return None
-    fig = Figure(figsize=(w, h), dpi=90)
-    FigureCanvasAgg(fig)
-    return fig
-
-
-def _png(fig) -> bytes:  # type: ignore[no-untyped-def]
-    fig.tight_layout()
-    buf = io.BytesIO()
-    fig.savefig(buf, format="png")
-    return buf.getvalue()
-
-
 def heat_map_png(result: SweepResult) -> Optional[bytes]:
     """Departure (vertical) x distance (horizontal) coloured by the worst class over sources."""
-    fig = _figure(8.0, 2.2 + 2.6 * len(result.speeds_kn))
+    fig = new_figure(8.0, 2.2 + 2.6 * len(result.speeds_kn))
     if fig is None:
         return None
     from matplotlib.colors import BoundaryNorm, ListedColormap
@@ -166,12 +109,12 @@ def heat_map_png(result: SweepResult) -> Optional[bytes]:
     handles.append(Patch(facecolor=NOT_COMPUTED_COLOUR, edgecolor="#555", label="not computed"))
     # outside the map so it never hides departures (the top rows are often the ones past the horizon)
     axes[0].legend(handles=handles, fontsize=6, loc="upper left", bbox_to_anchor=(1.01, 1.0))
-    return _png(fig)
+    return figure_png(fig)
 
 
 def criterion_plot_png(result: SweepResult) -> Optional[bytes]:
     """The criterion per departure: one line per source (and speed), the spread shaded."""
-    fig = _figure(8.0, 3.4)
+    fig = new_figure(8.0, 3.4)
     if fig is None:
         return None
     ax = fig.subplots()
@@ -199,13 +142,7 @@ def criterion_plot_png(result: SweepResult) -> Optional[bytes]:
     ax.set_ylabel(ylabel, fontsize=8)
     ax.set_title("Criterion per departure (shaded: spread between sources)", fontsize=9)
     ax.legend(fontsize=7)
-    return _png(fig)
-
-
-def _img(png: Optional[bytes], alt: str) -> str:
-    if png is None:
-        return ""
-    return f'<p><img alt="{_esc(alt)}" src="data:image/png;base64,{base64.b64encode(png).decode("ascii")}"></p>'
+    return figure_png(fig)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -229,25 +166,12 @@ def _row_cells(r: SweepRow, digits: int) -> List[str]:
     ]
 
 
-def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
-    """The report as one self-contained HTML5 page (no scripts, no external resources)."""
-    res = report.result
-    rec = res.recommendation
-    crit = res.criterion
-    digits = 2 if crit == "dose" else 1
+def _summary_html(res: SweepResult) -> str:
+    """What was compared: criterion, acceptable class, departures, speeds, sources, route, vessel."""
     from ..comfort.indices import COMFORT_CLASS_LABELS
 
-    caution = f'<div class="caution"><strong>Caution.</strong> {_esc(report.caution)}</div>'
-    parts = [
-        "<!DOCTYPE html>", '<html lang="en">', "<head>", '<meta charset="utf-8">',
-        f"<title>{_esc(report.title)}</title>", f"<style>{_CSS}</style>", "</head>", "<body>",
-        f"<h1>{_esc(report.title)}</h1>", caution,
-        "<h2>Recommended departure</h2>",
-        f'<div class="pick"><strong>{_esc(_time(rec.depart_utc))} at {_esc(f"{rec.speed_kn:g}")} kn.</strong> '
-        f"{_esc(rec.reason)}</div>",
-    ]
-    summary_rows = [
-        ("What best means", CRITERION_LABELS[crit]),
+    rows = [
+        ("What best means", CRITERION_LABELS[res.criterion]),
         ("Worst acceptable comfort class", f"{res.max_class} {COMFORT_CLASS_LABELS[res.max_class]}"),
         ("Departures", f"{res.n_departures}, {_time(res.departures_utc[0])} to {_time(res.departures_utc[-1])}"),
         ("Speeds", ", ".join(f"{v:g} kn" for v in res.speeds_kn)),
@@ -258,54 +182,67 @@ def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
         ("Vessel / station", f"{res.vessel_name} / {res.station_name}"),
         ("Response method", res.method),
     ]
-    parts.append(_table(("Item", "Value"), summary_rows))
-    parts.append("<h2>Inputs</h2>")
-    parts.append(_table(("Input", "Value"), report.inputs.rows()))
-    if report.warnings:
-        parts.append("<h2>Warnings</h2><ul>" + "".join(f"<li>{_esc(w)}</li>" for w in report.warnings) + "</ul>")
-    if plots:
-        parts.append("<h2>Comfort by departure and distance</h2>")
-        parts.append(_img(heat_map_png(res), "Heat map of comfort class by departure and distance"))
-        parts.append('<p class="small">' + " ".join(
-            f"{_swatch(COMFORT_PALETTE[c])} {_esc(lab)}" for c, lab in enumerate(COMFORT_CLASS_LABELS))
-            + f" {_swatch(NOT_COMPUTED_COLOUR)} not computed (no data in at least one source). Dashed line: "
-            "the recommended departure.</p>")
-        parts.append("<h2>Criterion per departure</h2>")
-        parts.append(_img(criterion_plot_png(res), "Criterion per departure for each source"))
+    return table(("Item", "Value"), rows)
+
+
+def _plots_html(res: SweepResult) -> List[str]:
+    """The heat map with its class legend and the criterion plot ("" parts without matplotlib)."""
+    from ..comfort.indices import COMFORT_CLASS_LABELS
+
+    legend = " ".join(f"{swatch(COMFORT_PALETTE[c])} {esc(lab)}" for c, lab in enumerate(COMFORT_CLASS_LABELS))
+    return [
+        "<h2>Comfort by departure and distance</h2>",
+        png_img(heat_map_png(res), "Heat map of comfort class by departure and distance"),
+        f'<p class="small">{legend} {swatch(NOT_COMPUTED_COLOUR)} not computed (no data in at least one '
+        "source). Dashed line: the recommended departure.</p>",
+        "<h2>Criterion per departure</h2>",
+        png_img(criterion_plot_png(res), "Criterion per departure for each source"),
+    ]
+
+
+def _ranked_html(res: SweepResult) -> List[str]:
+    """The best robust departures, then all rows (robust first, by rank; capped)."""
+    digits = 2 if res.criterion == "dose" else 1
     robust = sorted(res.robust_rows(), key=lambda r: r.rank)
-    parts.append(f"<h2>Best {min(TOP_ROWS, len(robust))} departures (worst case over the sources)</h2>")
-    parts.append(_table(TABLE_HEADERS, [_row_cells(r, digits) for r in robust[:TOP_ROWS]]))
-    parts.append("<h2>All rows</h2>")
+    parts = [f"<h2>Best {min(TOP_ROWS, len(robust))} departures (worst case over the sources)</h2>",
+             table(TABLE_HEADERS, [_row_cells(r, digits) for r in robust[:TOP_ROWS]]), "<h2>All rows</h2>"]
     ordered = sorted(res.rows, key=lambda r: (r.source != ROBUST_SOURCE, r.rank, r.source))
     shown = ordered[:MAX_TABLE_ROWS]
     if len(shown) < len(ordered):
         parts.append(f'<p class="small">{len(shown)} of {len(ordered)} rows shown (robust rows first, by rank); '
                      "every row is in the output table.</p>")
-    parts.append(_table(TABLE_HEADERS, [_row_cells(r, digits) for r in shown]))
+    parts.append(table(TABLE_HEADERS, [_row_cells(r, digits) for r in shown]))
+    return parts
+
+
+def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
+    """The report as one self-contained HTML5 page (no scripts, no external resources)."""
+    res = report.result
+    rec = res.recommendation
+    parts = [
+        "<h2>Recommended departure</h2>",
+        f'<div class="pick"><strong>{esc(_time(rec.depart_utc))} at {esc(f"{rec.speed_kn:g}")} kn.</strong> '
+        f"{esc(rec.reason)}</div>",
+        _summary_html(res), "<h2>Inputs</h2>", table(("Input", "Value"), report.inputs.rows()),
+    ]
+    if report.warnings:
+        parts.append("<h2>Warnings</h2>" + bullets(report.warnings))
+    if plots:
+        parts.extend(_plots_html(res))
+    parts.extend(_ranked_html(res))
     counts = flag_counts(res.flags)
     if counts:
-        by_code = {code: f for f, code in FLAG_CODES.items()}
         parts.append("<h2>Flags raised on some passages</h2>")
-        parts.append(_table(("Flag", "Passages", "Meaning"),
-                            [(c, str(n), FLAG_EXPLANATIONS[by_code[c]]) for c, n in counts.items()]))
+        parts.append(flag_table(counts, "Passages"))
     if res.notes:
-        parts.append("<h2>Notes</h2><ul>" + "".join(f"<li>{_esc(n)}</li>" for n in res.notes) + "</ul>")
-    parts.append("<h2>Methods and sources</h2><ul>")
-    parts.extend(f"<li>{_esc(m)}</li>" for m in (*SWEEP_METHOD_NOTES, *METHOD_NOTES))
-    parts.append("</ul>")
-    parts.append(caution)
-    parts.append('<p class="small">Made with Seaway Comfort.</p>')
-    parts.append("</body>")
-    parts.append("</html>")
-    return "\n".join(p for p in parts if p) + "\n"
+        parts.append("<h2>Notes</h2>" + bullets(res.notes))
+    parts.append("<h2>Methods and sources</h2>" + bullets((*SWEEP_METHOD_NOTES, *METHOD_NOTES)))
+    return page(report.title, parts, report.caution)
 
 
 def write_sweep_html(path: str, report: SweepReport, *, plots: bool = True) -> str:
     """Write :func:`render_sweep_html` to ``path`` (UTF-8) and return the path."""
-    text = render_sweep_html(report, plots=plots)
-    with open(path, "w", encoding="utf-8") as fh:
-        fh.write(text)
-    return path
+    return write_page(path, render_sweep_html(report, plots=plots))
 
 
 def sweep_text_summary(result: SweepResult, *, top: int = 5) -> str:

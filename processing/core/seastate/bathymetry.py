@@ -27,7 +27,7 @@ from numpy.typing import NDArray
 from ..flags import SampleFlag
 from ..units import FloatArray
 from ..validation import SeawayInputError, as_float_array, require_in_range, show
-from .grid import read_window_for
+from .grid import bilinear_corners, read_window_for
 from .layer import gdal_call, grid_from_dataset, open_gdal
 from .variables import HEIGHT, unit_conversion
 
@@ -103,21 +103,11 @@ class Bathymetry:
         if act.size == 0:
             return DepthSample(depth, flags)
         cf, rf = col_f[act], row_f[act]
-        c0 = np.floor(cf).astype(np.int64)
-        r0 = np.floor(rf).astype(np.int64)
-        fx, fy = cf - c0, rf - r0
-        cc = np.stack([c0, c0 + 1, c0, c0 + 1], axis=1)
-        rr = np.stack([r0, r0, r0 + 1, r0 + 1], axis=1)
-        ww = np.stack([(1 - fx) * (1 - fy), fx * (1 - fy), (1 - fx) * fy, fx * fy], axis=1)
+        corners = bilinear_corners(g, cf, rf)
+        cc, rr, ww, ok = corners.cols, corners.rows, corners.weights, corners.valid
         cn = np.rint(cf).astype(np.int64)
         rn = np.clip(np.rint(rf).astype(np.int64), 0, g.ny - 1)
-        ok = (rr >= 0) & (rr < g.ny)
-        if g.wraps:
-            cc, cn = np.mod(cc, g.nx), np.mod(cn, g.nx)
-        else:
-            ok &= (cc >= 0) & (cc < g.nx)
-            cn = np.clip(cn, 0, g.nx - 1)
-        cc, rr = np.clip(cc, 0, g.nx - 1), np.clip(rr, 0, g.ny - 1)
+        cn = np.mod(cn, g.nx) if g.wraps else np.clip(cn, 0, g.nx - 1)
         win = read_window_for(g, np.concatenate([cc[ok], cn]), np.concatenate([rr[ok], rn]), 0, 0)
         band = self._ds.GetRasterBand(1)
         parts = [np.asarray(gdal_call(f"bathymetry {self.path}: GDAL could not read", band.ReadAsArray,

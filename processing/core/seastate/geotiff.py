@@ -12,12 +12,35 @@ import os
 from typing import Dict, List, Optional, Sequence
 
 import numpy as np
+from numpy.typing import NDArray
 
 from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .layer import VariableLayer, grid_from_dataset, open_gdal
 from .timeaxis import as_utc_seconds, parse_iso_utc, require_increasing
 from .variables import CF_STANDARD_NAMES, canonical_kind, unit_conversion
+
+
+def _band_times(ds: object, path: str, where: str, times_utc: Optional[Sequence]) -> NDArray[np.int64]:
+    """Valid time of every band [s since 1970 UTC]: ``times_utc`` when given, else each band's
+    ``valid_time`` metadata or description (ISO 8601)."""
+    n = ds.RasterCount  # type: ignore[attr-defined]
+    if times_utc is not None:
+        times_s = as_utc_seconds(f"times_utc for {path}", times_utc)
+        if times_s.size != n:
+            raise SeawayInputError(f"{where}: times_utc has {times_s.size} entries but the file has {n} bands")
+        return times_s
+    vals: List[int] = []
+    for b in range(1, n + 1):
+        band = ds.GetRasterBand(b)  # type: ignore[attr-defined]
+        text = band.GetMetadataItem("valid_time") or band.GetDescription()
+        if not text:
+            raise SeawayInputError(
+                f"{where}: no time information for band {b} (no band description or "
+                "valid_time metadata); pass times_utc"
+            )
+        vals.append(int(parse_iso_utc(text, where=f"{where} band {b}").astype(np.int64)))
+    return np.array(vals, dtype=np.int64)
 
 
 def discover_geotiff(path: str, inverse_map: Dict[str, str], direction_convention: str, *,
@@ -53,24 +76,7 @@ def discover_geotiff(path: str, inverse_map: Dict[str, str], direction_conventio
         going_to, dir_note = resolve_going_to(kind, declared, direction_convention, where=where,
                                               warnings=disc.warnings)
         n = ds.RasterCount
-        if times_utc is not None:
-            times_s = as_utc_seconds(f"times_utc for {path}", times_utc)
-            if times_s.size != n:
-                raise SeawayInputError(
-                    f"{where}: times_utc has {times_s.size} entries but the file has {n} bands"
-                )
-        else:
-            vals: List[int] = []
-            for b in range(1, n + 1):
-                band = ds.GetRasterBand(b)
-                text = band.GetMetadataItem("valid_time") or band.GetDescription()
-                if not text:
-                    raise SeawayInputError(
-                        f"{where}: no time information for band {b} (no band description or "
-                        "valid_time metadata); pass times_utc"
-                    )
-                vals.append(int(parse_iso_utc(text, where=f"{where} band {b}").astype(np.int64)))
-            times_s = np.array(vals, dtype=np.int64)
+        times_s = _band_times(ds, path, where, times_utc)
         require_increasing(times_s, where=where)
         grid = grid_from_dataset(ds, where=where)
     except SeawayInputError as exc:

@@ -19,6 +19,7 @@ import numpy as np
 
 from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
+from .grid import GridGeometry
 from .layer import VariableLayer, grid_from_dataset, open_gdal
 from .timeaxis import parse_grib_time
 from .variables import (
@@ -65,78 +66,87 @@ def identify_band(md: Dict[str, str]) -> Tuple[Optional[GribParameter], int, flo
     return param, level_type, level_value
 
 
+def _band_identity(b: int, md: Dict[str, str], inverse_map: Dict[str, str], disc: Discovery
+                   ) -> Optional[Tuple[str, int, str, str]]:
+    """(canonical, priority, how recognised, note) of one band; None (and an ignored entry) when
+    the band is not a wave parameter we use."""
+    element = md.get("GRIB_ELEMENT", f"band{b}")
+    param, ltype, lval = identify_band(md)
+    qualified = f"{element}@{ltype}:{lval:g}"
+    mapped = qualified if qualified in inverse_map else (element if element in inverse_map else None)
+    if mapped is not None:
+        return inverse_map[mapped], -1, f"variable_map {show(inverse_map[mapped])} -> GRIB {mapped}", ""
+    if param is None:
+        disc.ignored.append((f"{element} (band {b})", "not a GRIB2 wave parameter we use"))
+        return None
+    hit = grib_canonical(param, ltype, lval)
+    if hit is None:
+        disc.ignored.append((f"{element} (band {b})", f"{param.name}: not used by the sampler"))
+        return None
+    lvl = f", level type {ltype} value {lval:g}" if ltype not in (-1, 1) else ""
+    return hit[0], hit[1], f"GRIB2 discipline 10 category 0 parameter {param.number} ({element}{lvl})", param.note
+
+
+def _distinct_times(entries: List[Tuple[int, int]], where: str, warnings: List[str]) -> List[Tuple[int, int]]:
+    """(time, band) sorted by time; of two messages for one time the first band is kept (warning)."""
+    kept: List[Tuple[int, int]] = []
+    for t, b in sorted(entries, key=lambda e: e[0]):
+        if kept and kept[-1][0] == t:
+            warnings.append(f"{where}: two messages for {np.datetime64(t, 's')}Z (bands {kept[-1][1]} and {b}); "
+                            f"band {kept[-1][1]} is used")
+            continue
+        kept.append((t, b))
+    return kept
+
+
+def _grib_layer(path: str, canonical: str, grp: Dict[str, object], grid: GridGeometry, direction_convention: str,
+                disc: Discovery, strict: bool) -> None:
+    """Append the layer of one canonical variable (or an ignored entry for unknown units)."""
+    element = str(grp["element"])
+    where = f"{path} variable {show(canonical)} (GRIB {element})"
+    kept = _distinct_times(grp["entries"], where, disc.warnings)  # type: ignore[arg-type]
+    try:
+        kind = canonical_kind(canonical)
+        conv = unit_conversion(kind, str(grp["unit"]), where=where)
+    except SeawayInputError as exc:
+        if strict:
+            raise
+        disc.ignored.append((element, str(exc)))
+        return
+    going_to, dir_note = resolve_going_to(kind, False, direction_convention, where=where, warnings=disc.warnings)
+    disc.layers.append(VariableLayer(
+        canonical=canonical, kind=kind, file=path, file_variable=element,
+        recognised_by=str(grp["how"]), priority=int(grp["priority"]),  # type: ignore[arg-type]
+        units=conv, going_to=going_to, grid=grid,
+        times_s=np.array([t for t, _ in kept], dtype=np.int64),
+        bands=tuple((path, b) for _, b in kept), notes=tuple(n for n in (str(grp["note"]), dir_note) if n),
+    ))
+
+
 def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: str,
                   *, strict: bool) -> Discovery:
     """Scan a GRIB2 file; one layer per canonical variable (bands sorted by valid time)."""
     disc = Discovery(path, "grib2")
     ds = open_gdal(path, what="GRIB2 file")
-    where_file = f"{path}"
-    grid = grid_from_dataset(ds, where=where_file)
+    grid = grid_from_dataset(ds, where=f"{path}")
     groups: Dict[str, Dict[str, object]] = {}
     for b in range(1, ds.RasterCount + 1):
         md = ds.GetRasterBand(b).GetMetadata() or {}
-        element = md.get("GRIB_ELEMENT", f"band{b}")
-        param, ltype, lval = identify_band(md)
-        qualified = f"{element}@{ltype}:{lval:g}"
-        mapped = qualified if qualified in inverse_map else (element if element in inverse_map else None)
-        if mapped is not None:
-            canonical, priority = inverse_map[mapped], -1
-            how = f"variable_map {show(canonical)} -> GRIB {mapped}"
-            note = ""
-        elif param is not None:
-            hit = grib_canonical(param, ltype, lval)
-            if hit is None:
-                disc.ignored.append((f"{element} (band {b})", f"{param.name}: not used by the sampler"))
-                continue
-            canonical, priority = hit
-            lvl = f", level type {ltype} value {lval:g}" if ltype not in (-1, 1) else ""
-            how = f"GRIB2 discipline 10 category 0 parameter {param.number} ({element}{lvl})"
-            note = param.note
-        else:
-            disc.ignored.append((f"{element} (band {b})", "not a GRIB2 wave parameter we use"))
+        ident = _band_identity(b, md, inverse_map, disc)
+        if ident is None:
             continue
-        where = f"{path} variable {show(canonical)} (GRIB {element}, band {b})"
+        canonical, priority, how, note = ident
+        element = md.get("GRIB_ELEMENT", f"band{b}")
         try:
-            t = parse_grib_time(md.get("GRIB_VALID_TIME"), where=where)
+            t = parse_grib_time(md.get("GRIB_VALID_TIME"), where=f"{path} variable {show(canonical)} (GRIB {element}, band {b})")
         except SeawayInputError as exc:
             if strict:
                 raise
             disc.ignored.append((f"{element} (band {b})", str(exc)))
             continue
         grp = groups.setdefault(canonical, {"entries": [], "element": element, "how": how,
-                                            "priority": priority, "unit": md.get("GRIB_UNIT", ""),
-                                            "note": note})
+                                            "priority": priority, "unit": md.get("GRIB_UNIT", ""), "note": note})
         grp["entries"].append((int(t.astype(np.int64)), b))  # type: ignore[union-attr]
     for canonical, grp in groups.items():
-        entries: List[Tuple[int, int]] = grp["entries"]  # type: ignore[assignment]
-        element = str(grp["element"])
-        where = f"{path} variable {show(canonical)} (GRIB {element})"
-        entries.sort(key=lambda e: e[0])
-        kept: List[Tuple[int, int]] = []
-        for t, b in entries:
-            if kept and kept[-1][0] == t:
-                disc.warnings.append(
-                    f"{where}: two messages for {np.datetime64(t, 's')}Z (bands {kept[-1][1]} and {b}); "
-                    f"band {kept[-1][1]} is used"
-                )
-                continue
-            kept.append((t, b))
-        try:
-            kind = canonical_kind(canonical)
-            conv = unit_conversion(kind, str(grp["unit"]), where=where)
-        except SeawayInputError as exc:
-            if strict:
-                raise
-            disc.ignored.append((element, str(exc)))
-            continue
-        going_to, dir_note = resolve_going_to(kind, False, direction_convention, where=where,
-                                              warnings=disc.warnings)
-        notes = tuple(n for n in (str(grp["note"]), dir_note) if n)
-        disc.layers.append(VariableLayer(
-            canonical=canonical, kind=kind, file=path, file_variable=element,
-            recognised_by=str(grp["how"]), priority=int(grp["priority"]),  # type: ignore[arg-type]
-            units=conv, going_to=going_to, grid=grid,
-            times_s=np.array([t for t, _ in kept], dtype=np.int64),
-            bands=tuple((path, b) for _, b in kept), notes=notes,
-        ))
+        _grib_layer(path, canonical, grp, grid, direction_convention, disc, strict)
     return disc

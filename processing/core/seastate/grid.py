@@ -244,3 +244,40 @@ def read_window_for(grid: GridGeometry, cols: NDArray[np.int64], rows: NDArray[n
     else:
         runs = ((start, nx - start), (0, start + length - nx))
     return Window(rmin, rmax - rmin + 1, runs, start, length, True)
+
+
+@dataclass(frozen=True)
+class BilinearCorners:
+    """The four neighbouring cell centres of n points and their bilinear weights, each (n, 4).
+
+    Corners beyond the grid's rows (or columns, unless it wraps) are not ``valid``, carry weight 0
+    and have their indices clipped into the grid (never read as data). Columns of a wrapping grid
+    are taken modulo nx.
+    """
+
+    cols: NDArray[np.int64]
+    rows: NDArray[np.int64]
+    weights: FloatArray
+    valid: NDArray[np.bool_]
+
+
+def bilinear_corners(grid: GridGeometry, col_f: FloatArray, row_f: FloatArray) -> BilinearCorners:
+    """Bilinear neighbours and weights in centre-index coordinates (:meth:`GridGeometry.centre_index`).
+
+    Weights ``(1-fx)(1-fy), fx(1-fy), (1-fx)fy, fx fy`` for corners (c0, r0), (c0+1, r0),
+    (c0, r0+1), (c0+1, r0+1) with ``c0 = floor(col_f)``, ``fx = col_f - c0`` (likewise rows)
+    (Press et al., Numerical Recipes, 3rd ed. 2007, s.3.6 eq. 3.6.5; section from memory).
+    """
+    c0 = np.floor(col_f).astype(np.int64)
+    r0 = np.floor(row_f).astype(np.int64)
+    fx, fy = col_f - c0, row_f - r0
+    cc = np.stack([c0, c0 + 1, c0, c0 + 1], axis=1)
+    rr = np.stack([r0, r0, r0 + 1, r0 + 1], axis=1)
+    ww = np.stack([(1 - fx) * (1 - fy), fx * (1 - fy), (1 - fx) * fy, fx * fy], axis=1)
+    ok = (rr >= 0) & (rr < grid.ny)
+    if grid.wraps:
+        cc = np.mod(cc, grid.nx)
+    else:
+        ok &= (cc >= 0) & (cc < grid.nx)
+    return BilinearCorners(cols=np.clip(cc, 0, grid.nx - 1), rows=np.clip(rr, 0, grid.ny - 1),
+                           weights=np.where(ok, ww, 0.0), valid=ok)

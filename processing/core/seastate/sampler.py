@@ -37,7 +37,7 @@ from numpy.typing import NDArray
 
 from ..flags import SampleFlag
 from ..units import FloatArray
-from .grid import EARTH_MEAN_RADIUS_KM, Window, great_circle_km, read_window_for
+from .grid import EARTH_MEAN_RADIUS_KM, Window, bilinear_corners, great_circle_km, read_window_for
 from .layer import DatasetCache, VariableLayer
 from .variables import DIRECTION, PLAUSIBLE_RANGE
 
@@ -83,6 +83,103 @@ def _margins(layer: VariableLayer, lat_deg: FloatArray, land_search_km: float) -
     return min(mc, g.nx), min(mr, g.ny)
 
 
+@dataclass(frozen=True)
+class _Brackets:
+    """Per active sample: the two bracketing steps, the weight of the later one, which are needed."""
+
+    s0: NDArray[np.int64]
+    s1: NDArray[np.int64]
+    w: FloatArray
+    need0: NDArray[np.bool_]
+    need1: NDArray[np.bool_]
+
+
+def _read_corners(layer: VariableLayer, cache: DatasetCache, cc: NDArray[np.int64], rr: NDArray[np.int64],
+                  used: NDArray[np.bool_], br: _Brackets, mc: int, mr: int
+                  ) -> Tuple[FloatArray, FloatArray, Dict[int, Tuple[Window, NDArray[np.float64]]]]:
+    """Corner values (n, 4) at the earlier and later step, and the window read per step.
+
+    One window per time step around the samples that use it: a long route crossing a large grid
+    over days reads a band of cells along its track, not its whole bounding box per step.
+    """
+    g = layer.grid
+    steps = np.unique(np.concatenate([br.s0[br.need0], br.s1[br.need1]]))
+    v0 = np.full(cc.shape, np.nan)
+    v1 = np.full(cc.shape, np.nan)
+    step_data: Dict[int, Tuple[Window, NDArray[np.float64]]] = {}
+    groups = []  # per bracket end: (sample indices sorted by step, their steps, target array)
+    for need, sg, target in ((br.need0, br.s0, v0), (br.need1, br.s1, v1)):
+        idx = np.flatnonzero(need)
+        idx = idx[np.argsort(sg[idx], kind="stable")]
+        groups.append((idx, sg[idx], target))
+    for s in steps:
+        parts = []
+        for idx, sgs, target in groups:
+            a, b = np.searchsorted(sgs, [s, s + 1])
+            parts.append(idx[a:b])
+        sel = np.concatenate(parts)
+        u = used[sel]
+        win = read_window_for(g, cc[sel][u], rr[sel][u], mc, mr)
+        arr = cache.read_band_window(layer, int(s), win)
+        step_data[int(s)] = (win, arr)
+        for k, (_, _, target) in zip(parts, groups):
+            if k.size:
+                # zero-weight corners may lie outside the window: clipped here, masked below
+                lc = np.minimum(np.maximum(win.local_col(cc[k], g.nx), 0), win.ncols - 1)
+                lr = np.minimum(np.maximum(win.local_row(rr[k]), 0), win.nrows - 1)
+                target[k] = arr[lr, lc]
+    return v0, v1, step_data
+
+
+def _blend_directions(layer: VariableLayer, v0: FloatArray, v1: FloatArray, ok0: NDArray[np.bool_],
+                      ok1: NDArray[np.bool_], ww: FloatArray, den0: FloatArray, den1: FloatArray,
+                      br: _Brackets) -> FloatArray:
+    """Directions [deg, coming from] averaged as unit vectors in space and time (module docstring)."""
+    wt, need0, need1 = br.w, br.need0, br.need1
+    turn = math.pi if layer.going_to else 0.0
+    a0 = np.radians(np.where(ok0, v0, 0.0)) + turn
+    a1 = np.radians(np.where(ok1, v1, 0.0)) + turn
+    c_0 = np.sum(np.where(ok0, ww * np.cos(a0), 0.0), axis=1) / den0
+    s_0 = np.sum(np.where(ok0, ww * np.sin(a0), 0.0), axis=1) / den0
+    c_1 = np.sum(np.where(ok1, ww * np.cos(a1), 0.0), axis=1) / den1
+    s_1 = np.sum(np.where(ok1, ww * np.sin(a1), 0.0), axis=1) / den1
+    cx = np.where(need0, (1 - wt) * c_0, 0.0) + np.where(need1, wt * c_1, 0.0)
+    sx = np.where(need0, (1 - wt) * s_0, 0.0) + np.where(need1, wt * s_1, 0.0)
+    val = np.degrees(np.arctan2(sx, cx))
+    val = np.where(np.isfinite(cx) & np.isfinite(sx), val, np.nan)
+    tiny = np.isfinite(val) & (np.hypot(cx, sx) < 1e-9)
+    if tiny.any():
+        use1 = wt >= 0.5
+        heavy = np.argmax(np.where(use1[:, None], np.where(ok1, ww, -1), np.where(ok0, ww, -1)), axis=1)
+        j = np.arange(wt.size)
+        pick = np.where(use1, a1[j, heavy], a0[j, heavy])
+        val = np.where(tiny, np.degrees(pick), val)
+    val = np.mod(val, 360.0)
+    return np.where(val >= 360.0, 0.0, val)
+
+
+def _blend(layer: VariableLayer, v0: FloatArray, v1: FloatArray, ww: FloatArray, br: _Brackets
+           ) -> Tuple[FloatArray, NDArray[np.bool_]]:
+    """Space-time interpolated values (NaN where a needed step has no data around the sample)
+    and the implausible-value mask."""
+    need0, need1, wt = br.need0, br.need1, br.w
+    ok0 = np.isfinite(v0) & (ww > 0)
+    ok1 = np.isfinite(v1) & (ww > 0)
+    lo, hi = PLAUSIBLE_RANGE[layer.kind]
+    odd = (need0[:, None] & ok0 & ((v0 < lo) | (v0 > hi))).any(axis=1)
+    odd |= (need1[:, None] & ok1 & ((v1 < lo) | (v1 > hi))).any(axis=1)
+    den0 = np.sum(np.where(ok0, ww, 0.0), axis=1)
+    den1 = np.sum(np.where(ok1, ww, 0.0), axis=1)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        if layer.kind == DIRECTION:
+            val = _blend_directions(layer, v0, v1, ok0, ok1, ww, den0, den1, br)
+        else:
+            m0 = np.sum(np.where(ok0, ww * v0, 0.0), axis=1) / den0
+            m1 = np.sum(np.where(ok1, ww * v1, 0.0), axis=1) / den1
+            val = np.where(need0, (1 - wt) * m0, 0.0) + np.where(need1, wt * m1, 0.0)
+    return np.where((need0 & (den0 <= 0)) | (need1 & (den1 <= 0)), np.nan, val), odd
+
+
 def sample_layer(
     layer: VariableLayer,
     cache: DatasetCache,
@@ -105,99 +202,19 @@ def sample_layer(
     act = np.flatnonzero(inside & in_time)
     if act.size == 0:
         return LayerSample(layer.canonical, values, flags)
-
     cf, rf = col_f[act], row_f[act]
-    c0 = np.floor(cf).astype(np.int64)
-    r0 = np.floor(rf).astype(np.int64)
-    fx, fy = cf - c0, rf - r0
-    cc = np.stack([c0, c0 + 1, c0, c0 + 1], axis=1)
-    rr = np.stack([r0, r0, r0 + 1, r0 + 1], axis=1)
-    ww = np.stack([(1 - fx) * (1 - fy), fx * (1 - fy), (1 - fx) * fy, fx * fy], axis=1)
-    ok = (rr >= 0) & (rr < g.ny)
-    if g.wraps:
-        cc = np.mod(cc, g.nx)
-    else:
-        ok &= (cc >= 0) & (cc < g.nx)
-    ww = np.where(ok, ww, 0.0)
-    cc = np.clip(cc, 0, g.nx - 1)
-    rr = np.clip(rr, 0, g.ny - 1)
-
+    corners = bilinear_corners(g, cf, rf)
+    used = corners.valid & (corners.weights > 0)  # at least the nearest centre of every sample has weight >= 1/4
+    ww = np.where(used, corners.weights, 0.0)
     mc, mr = _margins(layer, lat_deg[act], land_search_km)
-    used = ok & (ww > 0)  # at least the nearest centre of every sample has weight >= 1/4
-    ww = np.where(used, ww, 0.0)
     wt = w[act]
-    need0 = wt < 1.0
-    need1 = wt > 0.0
-    s0g, s1g = i0[act], i1[act]
-    steps = np.unique(np.concatenate([s0g[need0], s1g[need1]]))
-    v0 = np.full(cc.shape, np.nan)
-    v1 = np.full(cc.shape, np.nan)
-    # one window per time step around the samples that use it: a long route crossing a large
-    # grid over days reads a band of cells along its track, not its whole bounding box per step
-    step_data: Dict[int, Tuple[Window, NDArray[np.float64]]] = {}
-    groups = []  # per bracket end: (sample indices sorted by step, their steps, target array)
-    for need, sg, target in ((need0, s0g, v0), (need1, s1g, v1)):
-        idx = np.flatnonzero(need)
-        idx = idx[np.argsort(sg[idx], kind="stable")]
-        groups.append((idx, sg[idx], target))
-    for s in steps:
-        parts = []
-        for idx, sgs, target in groups:
-            a, b = np.searchsorted(sgs, [s, s + 1])
-            parts.append(idx[a:b])
-        sel = np.concatenate(parts)
-        u = used[sel]
-        win = read_window_for(g, cc[sel][u], rr[sel][u], mc, mr)
-        arr = cache.read_band_window(layer, int(s), win)
-        step_data[int(s)] = (win, arr)
-        for k, (_, _, target) in zip(parts, groups):
-            if k.size:
-                # zero-weight corners may lie outside the window: clipped here, masked below
-                lc = np.minimum(np.maximum(win.local_col(cc[k], g.nx), 0), win.ncols - 1)
-                lr = np.minimum(np.maximum(win.local_row(rr[k]), 0), win.nrows - 1)
-                target[k] = arr[lr, lc]
-    ok0 = np.isfinite(v0) & (ww > 0)
-    ok1 = np.isfinite(v1) & (ww > 0)
-    is_dir = layer.kind == DIRECTION
-    lo, hi = PLAUSIBLE_RANGE[layer.kind]
-
-    odd = (need0[:, None] & ok0 & ((v0 < lo) | (v0 > hi))).any(axis=1)
-    odd |= (need1[:, None] & ok1 & ((v1 < lo) | (v1 > hi))).any(axis=1)
-
-    den0 = np.sum(np.where(ok0, ww, 0.0), axis=1)
-    den1 = np.sum(np.where(ok1, ww, 0.0), axis=1)
-    with np.errstate(invalid="ignore", divide="ignore"):
-        if is_dir:
-            turn = math.pi if layer.going_to else 0.0
-            a0 = np.radians(np.where(ok0, v0, 0.0)) + turn
-            a1 = np.radians(np.where(ok1, v1, 0.0)) + turn
-            c_0 = np.sum(np.where(ok0, ww * np.cos(a0), 0.0), axis=1) / den0
-            s_0 = np.sum(np.where(ok0, ww * np.sin(a0), 0.0), axis=1) / den0
-            c_1 = np.sum(np.where(ok1, ww * np.cos(a1), 0.0), axis=1) / den1
-            s_1 = np.sum(np.where(ok1, ww * np.sin(a1), 0.0), axis=1) / den1
-            cx = np.where(need0, (1 - wt) * c_0, 0.0) + np.where(need1, wt * c_1, 0.0)
-            sx = np.where(need0, (1 - wt) * s_0, 0.0) + np.where(need1, wt * s_1, 0.0)
-            val = np.degrees(np.arctan2(sx, cx))
-            val = np.where(np.isfinite(cx) & np.isfinite(sx), val, np.nan)
-            tiny = np.isfinite(val) & (np.hypot(cx, sx) < 1e-9)
-            if tiny.any():
-                use1 = wt >= 0.5
-                heavy = np.argmax(np.where(use1[:, None], np.where(ok1, ww, -1), np.where(ok0, ww, -1)), axis=1)
-                j = np.arange(act.size)
-                pick = np.where(use1, a1[j, heavy], a0[j, heavy])
-                val = np.where(tiny, np.degrees(pick), val)
-            val = np.mod(val, 360.0)
-            val = np.where(val >= 360.0, 0.0, val)
-        else:
-            m0 = np.sum(np.where(ok0, ww * v0, 0.0), axis=1) / den0
-            m1 = np.sum(np.where(ok1, ww * v1, 0.0), axis=1) / den1
-            val = np.where(need0, (1 - wt) * m0, 0.0) + np.where(need1, wt * m1, 0.0)
-    val = np.where((need0 & (den0 <= 0)) | (need1 & (den1 <= 0)), np.nan, val)
-
+    br = _Brackets(s0=i0[act], s1=i1[act], w=wt, need0=wt < 1.0, need1=wt > 0.0)
+    v0, v1, step_data = _read_corners(layer, cache, corners.cols, corners.rows, used, br, mc, mr)
+    val, odd = _blend(layer, v0, v1, ww, br)
     missing = np.flatnonzero(~np.isfinite(val))
     if missing.size:
         _nearest_sea(layer, step_data, act, missing, val, odd, flags, lon_deg, lat_deg,
-                     cf, rf, s0g, s1g, wt, need0, need1, land_search_km, mc, mr)
+                     cf, rf, br.s0, br.s1, wt, br.need0, br.need1, land_search_km, mc, mr)
     values[act] = val
     flags[act[odd]] |= int(SampleFlag.IMPLAUSIBLE_VALUE)
     return LayerSample(layer.canonical, values, flags)

@@ -20,13 +20,13 @@ from ..validation import (
     require_nonnegative,
     show,
 )
-from .combine import SampledSeaState, combine_samples
+from .sampled_sea_state import SampledSeaState, sea_state_from_layer_samples
 from .discovery import Discovery, check_direction_convention, invert_variable_map
 from .geotiff import discover_geotiff
 from .grib import discover_grib
 from .inventory import IgnoredEntry, Inventory, entry_for_layer
 from .layer import DatasetCache, VariableLayer, open_gdal
-from .merge import merge_layers
+from .layer_choice import choose_layers
 from .netcdf import discover_netcdf
 from .sampler import LayerSample, sample_layer
 from .timeaxis import as_utc_seconds, to_datetime64
@@ -138,7 +138,7 @@ class SeaStateSource:
                 self._check_any_inside([out[h] for h in heights], lon, lat, t)
             if progress is not None and progress((k + 1) / len(order)) is False:
                 raise SamplingCancelled("sea-state sampling cancelled")
-        return combine_samples(out, lon.size, self._layers, self.partitions, self.name, self.warnings)
+        return sea_state_from_layer_samples(out, lon.size, self._layers, self.partitions, self.name, self.warnings)
 
     def _check_any_inside(self, samples: List[LayerSample], lon, lat, t) -> None:  # type: ignore[no-untyped-def]
         off = int(SampleFlag.OUTSIDE_GRID | SampleFlag.OUTSIDE_TIME)
@@ -203,7 +203,7 @@ def open_sea_state(
         ignored += [IgnoredEntry(f, name, reason) for name, reason in d.ignored]
         layers += sorted(d.layers, key=lambda l: l.priority)
     found_files = {inverse[k] for k in inverse}
-    chosen = merge_layers(layers, warnings)
+    chosen = choose_layers(layers, warnings)
     unused = [l for l in layers if chosen.get(l.canonical) is not l and not any(
         l.bands[0] in c.bands for c in chosen.values())]
     missing_map = sorted(c for c in found_files if c not in chosen)
@@ -245,7 +245,7 @@ def describe_file(path: str, *, variable_map: Optional[Dict[str, str]] = None) -
     d = _discover(f, inverse, "auto", None, strict=False)
     warnings = list(d.warnings)
     layers = sorted(d.layers, key=lambda l: l.priority)
-    chosen = merge_layers(layers, warnings)
+    chosen = choose_layers(layers, warnings)
     entries = [entry_for_layer(l, chosen.get(l.canonical) is l) for l in layers]
     return Inventory(os.path.splitext(os.path.basename(f))[0], (f,), tuple(entries),
                      tuple(IgnoredEntry(f, n, r) for n, r in d.ignored), tuple(warnings))

@@ -166,6 +166,15 @@ class VesselProfile:
             v = getattr(self, fname)
             if v is not None:
                 object.__setattr__(self, fname, _num(src, fname, v))
+        self._check_hull(src)
+        self._check_stability(src)
+        object.__setattr__(self, "stations", tuple(self.stations))
+        self._check_stations(src)
+        if self.rao_table is not None and (not isinstance(self.rao_table, str) or not self.rao_table):
+            raise _err(src, f"rao_table must be a non-empty path string or null, got {show(self.rao_table)}")
+
+    def _check_hull(self, src: str) -> None:
+        """L > 0, 0 < B <= L, 0 < T <= B, Cb in [CB_MIN, CB_MAX], Cwp in [Cb, 1]."""
         L, B, T = self.length_wl_m, self.beam_m, self.draught_m
         if L <= 0:
             raise _err(src, f"length_wl_m must be > 0, got {show(L)}")
@@ -187,6 +196,9 @@ class VesselProfile:
                 f"waterplane_coeff must lie in [block_coeff={show(self.block_coeff)}, 1.0], "
                 f"got {show(self.waterplane_coeff)}",
             )
+
+    def _check_stability(self, src: str) -> None:
+        """GM or roll period given and > 0, roll damping in (0, 1), service speed > 0."""
         if self.gm_m is None and self.roll_period_s is None:
             raise _err(src, "one of gm_m or roll_period_s is required, got neither")
         if self.gm_m is not None and self.gm_m <= 0:
@@ -197,12 +209,14 @@ class VesselProfile:
             raise _err(src, f"roll_damping_ratio must lie in (0, 1), got {show(self.roll_damping_ratio)}")
         if self.service_speed_kn <= 0:
             raise _err(src, f"service_speed_kn must be > 0, got {show(self.service_speed_kn)}")
-        stations = tuple(self.stations)
-        object.__setattr__(self, "stations", stations)
-        if not stations:
+
+    def _check_stations(self, src: str) -> None:
+        """At least one Station, unique names, each inside the box of the class docstring."""
+        L, B, T = self.length_wl_m, self.beam_m, self.draught_m
+        if not self.stations:
             raise _err(src, "stations must list at least one station")
         seen: set = set()
-        for st in stations:
+        for st in self.stations:
             if not isinstance(st, Station):
                 raise _err(src, f"stations must hold Station objects, got {show(st)}")
             if st.name in seen:
@@ -219,8 +233,6 @@ class VesselProfile:
                     f"station {show(st.name)} z_m={show(st.z_m)} is unreasonable (allowed -draught "
                     f"{-T:g} m to L/2 + B = {zmax:g} m above the waterline)",
                 )
-        if self.rao_table is not None and (not isinstance(self.rao_table, str) or not self.rao_table):
-            raise _err(src, f"rao_table must be a non-empty path string or null, got {show(self.rao_table)}")
 
     # ------------------------------------------------------------------ derived values
     @property

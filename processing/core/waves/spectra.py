@@ -13,6 +13,14 @@ Hydrogr. Z. A8(12)):
     S_J(omega)  = A_gamma S_PM(omega) gamma**exp(-(omega - omega_p)**2 / (2 sigma**2 omega_p**2))
     A_gamma = 1 - 0.287 ln(gamma);  sigma = 0.07 (omega <= omega_p), 0.09 (omega > omega_p)
 
+gamma = 1 gives Pierson-Moskowitz exactly; S(0) = 0 (the limit); Hs = 0 gives an all-zero "calm"
+spectrum. A_gamma is DNV's approximate normalisation. When a frequency grid's quadrature weights
+[rad/s] are at hand (:attr:`FrequencyGrid.weights_rad_s`), :func:`jonswap_s_m2_s_rad` can take them
+as ``normalise_weights`` and replace A_gamma by the numerical factor that makes
+4 sqrt(sum(S * w)) == Hs on that grid, so the spectrum's m0 matches Hs whatever the grid's
+truncation; weights that capture no energy of a sea state with Hs > 0 (a grid that misses the
+peak) are an error rather than a silent zero.
+
 Directional spreading (Longuet-Higgins, Cartwright & Smith 1963, "Observations of the directional
 spectrum of sea waves using the motions of a floating buoy", in Ocean Wave Spectra, Prentice-Hall,
 111-136): D(theta) = Gamma(s+1) / (2 sqrt(pi) Gamma(s+1/2)) cos**(2s)(theta/2), |theta| <= pi,
@@ -92,49 +100,10 @@ def _normalise_weights(weights: Optional[ArrayLike], nf: int) -> Optional[FloatA
     return w
 
 
-def jonswap_s_m2_s_rad(
-    omega_rad_s: ArrayLike,
-    hs_m: ArrayLike,
-    tp_s: ArrayLike,
-    gamma: ArrayLike = 3.3,
-    *,
-    sigma_a: float = 0.07,
-    sigma_b: float = 0.09,
-    normalise_weights: Optional[ArrayLike] = None,
-) -> FloatArray:
-    """JONSWAP spectral density S(omega) [m^2 s/rad] for sea states (Hs, Tp, gamma).
-
-    DNV-RP-C205 (2010) s.3.5.5, in angular frequency:
-
-        S_J(omega) = A_gamma (5/16) Hs**2 omega_p**4 omega**-5 exp(-(5/4)(omega/omega_p)**-4)
-                     * gamma**exp(-(omega - omega_p)**2 / (2 sigma**2 omega_p**2)),
-        omega_p = 2 pi / Tp, sigma = sigma_a for omega <= omega_p else sigma_b,
-        A_gamma = 1 - 0.287 ln(gamma)  (DNV's approximate normalisation).
-
-    gamma = 1 gives Pierson-Moskowitz exactly. S(0) = 0 (the limit).
-
-    Parameters
-    ----------
-    omega_rad_s : 1-D (nf,) angular frequencies [rad/s], >= 0.
-    hs_m : significant wave height [m], >= 0 (0 gives an all-zero "calm" spectrum).
-    tp_s : peak period [s], > 0.
-    gamma : peak enhancement factor (dimensionless) >= 1. ``hs_m``, ``tp_s`` and ``gamma``
-        broadcast among themselves to the sea-state shape ``S``.
-    sigma_a, sigma_b : spectral width parameters below / above the peak (dimensionless, > 0).
-    normalise_weights : optional (nf,) quadrature weights [rad/s] (e.g.
-        :attr:`FrequencyGrid.weights_rad_s`). If given, A_gamma is replaced by the numerical
-        factor that makes ``4 sqrt(sum(S * w)) == hs_m`` on that grid.
-
-    Returns
-    -------
-    S [m^2 s/rad] of shape ``S + (nf,)``.
-
-    Raises
-    ------
-    SeawayInputError
-        hs_m < 0, tp_s <= 0, gamma < 1, non-finite input, omega not 1-D or < 0, weights of the
-        wrong shape, or weights that capture no energy of a sea state with hs_m > 0.
-    """
+def _jonswap_inputs(omega_rad_s: ArrayLike, hs_m: ArrayLike, tp_s: ArrayLike, gamma: ArrayLike,
+                    sigma_a: float, sigma_b: float,
+                    normalise_weights: Optional[ArrayLike]) -> tuple:
+    """Checked (omega, hs, tp, gamma broadcast together, sigma_a, sigma_b, weights or None)."""
     omega = _omega_1d(omega_rad_s)
     hs = require_nonnegative("hs_m", hs_m)
     tp = require_positive("tp_s", tp_s)
@@ -152,7 +121,54 @@ def jonswap_s_m2_s_rad(
             f"hs_m {np.shape(hs_m)}, tp_s {np.shape(tp_s)} and gamma {np.shape(gamma)} "
             "do not broadcast"
         ) from exc
+    return omega, hs, tp, gam, sa, sb, w
 
+
+def _normalised_to_hs(s: FloatArray, hs: FloatArray, tp: FloatArray, w: FloatArray) -> FloatArray:
+    """S (S..., nf) scaled so that m0 = sum(S * w) [m^2] equals Hs**2 / 16 on the grid of ``w``."""
+    m0 = s @ w  # (S...)
+    target = hs * hs / 16.0
+    lost = (target > 0) & ~(m0 > 0)
+    if lost.any():
+        raise SeawayInputError(
+            "normalise_weights capture no energy for a sea state with hs_m > 0 "
+            f"(first: hs_m={show(hs[lost].ravel()[0])}, tp_s={show(tp[lost].ravel()[0])}); "
+            "the frequency grid does not cover the spectral peak"
+        )
+    scale = np.where(m0 > 0, target / np.where(m0 > 0, m0, 1.0), 0.0)
+    return s * scale[..., None]
+
+
+def jonswap_s_m2_s_rad(
+    omega_rad_s: ArrayLike,
+    hs_m: ArrayLike,
+    tp_s: ArrayLike,
+    gamma: ArrayLike = 3.3,
+    *,
+    sigma_a: float = 0.07,
+    sigma_b: float = 0.09,
+    normalise_weights: Optional[ArrayLike] = None,
+) -> FloatArray:
+    """JONSWAP spectral density S(omega) [m^2 s/rad] for sea states (Hs, Tp, gamma).
+
+    DNV-RP-C205 (2010) s.3.5.5, in angular frequency:
+
+        S_J(omega) = A_gamma (5/16) Hs**2 omega_p**4 omega**-5 exp(-(5/4)(omega/omega_p)**-4)
+                     * gamma**exp(-(omega - omega_p)**2 / (2 sigma**2 omega_p**2)),
+        omega_p = 2 pi / Tp, sigma = sigma_a for omega <= omega_p else sigma_b,
+        A_gamma = 1 - 0.287 ln(gamma), or the grid normalisation of ``normalise_weights``
+        (see the module docstring).
+
+    ``omega_rad_s``: 1-D (nf,) [rad/s] >= 0. ``hs_m`` [m] >= 0, ``tp_s`` [s] > 0 and ``gamma``
+    (dimensionless, >= 1) broadcast among themselves to the sea-state shape ``S``.
+    ``sigma_a``/``sigma_b``: width below / above the peak (dimensionless, > 0).
+    ``normalise_weights``: optional (nf,) quadrature weights [rad/s].
+    Returns S [m^2 s/rad] of shape ``S + (nf,)``. Raises :class:`SeawayInputError` for hs_m < 0,
+    tp_s <= 0, gamma < 1, non-finite input, omega not 1-D or < 0, weights of the wrong shape or
+    weights that capture no energy of a sea state with hs_m > 0.
+    """
+    omega, hs, tp, gam, sa, sb, w = _jonswap_inputs(
+        omega_rad_s, hs_m, tp_s, gamma, sigma_a, sigma_b, normalise_weights)
     wp = (2.0 * math.pi / tp)[..., None]  # (S..., 1)
     hs2 = (hs * hs)[..., None]
     ln_gam = np.log(gam)[..., None]
@@ -162,22 +178,11 @@ def jonswap_s_m2_s_rad(
     pm = (5.0 / 16.0) * hs2 * wp**4 * om**-5.0 * np.exp(-1.25 * ratio**-4.0)
     sigma = np.where(om <= wp, sa, sb)
     peak = np.exp(ln_gam * np.exp(-((om - wp) ** 2) / (2.0 * sigma**2 * wp**2)))
-    s = pm * peak
-    s = np.where(pos, s, 0.0)
+    s = np.where(pos, pm * peak, 0.0)
     if w is None:
         s = s * (1.0 - 0.287 * ln_gam)
     else:
-        m0 = s @ w  # (S...)
-        target = hs * hs / 16.0
-        lost = (target > 0) & ~(m0 > 0)
-        if lost.any():
-            raise SeawayInputError(
-                "normalise_weights capture no energy for a sea state with hs_m > 0 "
-                f"(first: hs_m={show(hs[lost].ravel()[0])}, tp_s={show(tp[lost].ravel()[0])}); "
-                "the frequency grid does not cover the spectral peak"
-            )
-        scale = np.where(m0 > 0, target / np.where(m0 > 0, m0, 1.0), 0.0)
-        s = s * scale[..., None]
+        s = _normalised_to_hs(s, hs, tp, w)
     return np.asarray(s, dtype=float)
 
 

@@ -30,7 +30,7 @@ def file_of(gdal_name: str) -> str:
     return gdal_name
 
 
-def merge_layers(layers_in_order: List[VariableLayer], warnings: List[str]) -> Dict[str, VariableLayer]:
+def choose_layers(layers_in_order: List[VariableLayer], warnings: List[str]) -> Dict[str, VariableLayer]:
     """One layer per canonical variable: first file wins; same-grid files extend the time axis."""
     chosen: Dict[str, VariableLayer] = {}
     for layer in layers_in_order:

@@ -1,0 +1,49 @@
+# SPDX-License-Identifier: GPL-2.0-or-later
+"""The colours of every output, in one place: the reports and the QGIS styling both read them.
+
+Comfort classes: five colours of our own, ordered from light to dark so that the classes stay
+apart by lightness alone (readable under the common colour-vision deficiencies and in grey-scale
+print), with a neutral grey for samples without results.
+
+Climate shares: five steps of "share of time within the acceptable class", dark plum for rarely
+acceptable to pale mint for nearly always acceptable, also ordered by lightness; the same grey
+for no data.
+"""
+from __future__ import annotations
+
+import math
+from typing import Optional, Tuple
+
+import numpy as np
+
+__all__ = ["COMFORT_PALETTE", "NOT_COMPUTED_COLOUR", "comfort_colour", "SHARE_PALETTE", "SHARE_BOUNDS",
+           "NO_DATA_COLOUR", "share_bin"]
+
+COMFORT_PALETTE: Tuple[str, ...] = ("#e3f1f7", "#a3d6cf", "#d69a3a", "#b4492a", "#4d1a47")
+"""Fill colours for comfort classes 0..4 (smooth, steady, lively, taxing, punishing); CIE L*
+about 94, 82, 68, 45, 19 (more than 10 units apart, so the order reads without hue)."""
+
+NOT_COMPUTED_COLOUR: str = "#9a9a9a"
+"""Colour of samples without results (no sea data, outside the grid or the time range)."""
+
+SHARE_PALETTE: Tuple[str, ...] = ("#4a1f3d", "#9c4a3c", "#d49a3f", "#86bfae", "#e4f3ef")
+"""Fill colours for shares of acceptable time in [0, .2), [.2, .4), [.4, .6), [.6, .8), [.8, 1]."""
+
+SHARE_BOUNDS: Tuple[float, ...] = (0.2, 0.4, 0.6, 0.8)
+"""Upper bounds of the first four share steps (share 0..1)."""
+
+NO_DATA_COLOUR: str = NOT_COMPUTED_COLOUR
+"""Colour of climate cells without data."""
+
+
+def comfort_colour(comfort_class: int) -> str:
+    """Colour of a comfort class 0..4; :data:`NOT_COMPUTED_COLOUR` for any other value (-1)."""
+    c = int(comfort_class)
+    return COMFORT_PALETTE[c] if 0 <= c < len(COMFORT_PALETTE) else NOT_COMPUTED_COLOUR
+
+
+def share_bin(share: Optional[float]) -> int:
+    """Palette step 0..4 of a share 0..1 (-1 for NaN)."""
+    if share is None or not math.isfinite(float(share)):
+        return -1
+    return int(np.searchsorted(np.asarray(SHARE_BOUNDS), float(share), side="right"))
