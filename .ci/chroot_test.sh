@@ -13,7 +13,7 @@ set -euo pipefail
 suite="${1:-}"
 case "$suite" in
     trixie|sid) ;;
-    *) echo "usage: $0 trixie|sid" >&2; exit 2 ;;
+    *) echo "usage: $0 trixie|sid [make arguments, default: test]" >&2; exit 2 ;;
 esac
 here="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$here"
@@ -237,7 +237,10 @@ inside 'echo "chroot-test['"$suite"']: $(. /etc/os-release; echo "$PRETTY_NAME")
 
 start=$(date +%s)
 rc=0
-inside 'cd "$1" && make test' "$here" || rc=$?
+# Extra arguments are make arguments run instead of `test` (e.g. `demo OUT=/tmp/demo-trixie`).
+make_args=("${@:2}")
+[ "${#make_args[@]}" -gt 0 ] || make_args=(test)
+inside 'cd "$1" && shift && make "$@"' "$here" "${make_args[@]}" || rc=$?
 phase_end tests "$start"
-log "timings: ${timings[*]}; make test exit code $rc"
+log "timings: ${timings[*]}; make ${make_args[*]} exit code $rc"
 exit "$rc"

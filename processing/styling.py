@@ -116,6 +116,36 @@ def qml_path_for(dest: str) -> str:
     return base + ".qml"
 
 
+def mark_datetimes_utc(dest: str) -> None:
+    """Make every date-time in a GeoPackage output carry its UTC marker ('...Z').
+
+    All our date-times are UTC. QGIS 3.40 writes them to a GeoPackage with the 'Z' of ISO 8601;
+    QGIS 3.22 writes the same instant without it, which readers then take for local time
+    (GeoPackage 1.3, requirement 5: DATETIME in ISO 8601 'YYYY-MM-DDTHH:MM:SS.SSSZ'). Adding the
+    marker where it is missing gives the same file on both. Other formats are left as written.
+    """
+    path, layer_name = _file_and_layer(dest)
+    if not path.lower().endswith(".gpkg") or not os.path.isfile(path):
+        return
+    from osgeo import ogr
+
+    ds = ogr.Open(path, 1)
+    if ds is None:
+        return
+    try:
+        layers = [ds.GetLayerByName(layer_name)] if layer_name else [ds.GetLayer(i) for i in range(ds.GetLayerCount())]
+        for lyr in (x for x in layers if x is not None):
+            defn = lyr.GetLayerDefn()
+            for i in range(defn.GetFieldCount()):
+                fd = defn.GetFieldDefn(i)
+                if fd.GetType() == ogr.OFTDateTime:
+                    table, col = lyr.GetName().replace('"', '""'), fd.GetName().replace('"', '""')
+                    ds.ExecuteSQL(f'UPDATE "{table}" SET "{col}" = "{col}" || \'Z\' '
+                                  f'WHERE "{col}" IS NOT NULL AND "{col}" NOT LIKE \'%Z\'')
+    finally:
+        ds = None
+
+
 def save_output_style(dest: str, *, title: str, abstract: str) -> Tuple[str, List[str]]:
     """Open a written output, style it and save the style beside it (and into a GeoPackage).
 
@@ -124,6 +154,7 @@ def save_output_style(dest: str, *, title: str, abstract: str) -> Tuple[str, Lis
     it reports it in the warnings instead (the QML still holds everything).
     """
     warnings: List[str] = []
+    mark_datetimes_utc(dest)
     layer = QgsVectorLayer(dest, os.path.basename(str(dest)), "ogr")
     if not layer.isValid():
         return "", [f"could not reopen {show(dest)} to save its style"]

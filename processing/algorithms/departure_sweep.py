@@ -439,6 +439,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             return
         if not table_id:
             return
+        styling.mark_datetimes_utc(table_id)
         lyr = QgsVectorLayer(table_id, os.path.basename(str(table_id)), "ogr")
         if not lyr.isValid():
             feedback.pushWarning(f"could not reopen {show(table_id)} to save its metadata")

@@ -402,3 +402,19 @@ def test_default_source_names_are_distinct():
     names = default_source_names(["/a/f.nc", "/b/f.nc", "/c/f.grib2"])
     assert names == ("f (nc) #1", "f (nc) #2", "f (grib2)")
     assert len(set(names)) == 3
+
+
+def test_datetimes_stored_as_utc_on_every_qgis(seaway_provider, route, sea, tmp_path):
+    """eta_utc is stored with its UTC marker whichever QGIS wrote it (GeoPackage 1.3 requirement 5:
+    ISO 8601 'YYYY-MM-DDTHH:MM:SS.SSSZ'), so 3.22 and 3.40 outputs mean the same instant; the
+    first sample is the departure itself (2030-06-01T01:00Z, the parameter)."""
+    import sqlite3
+
+    _run(_params(route, sea, tmp_path))
+    for name in ("points", "segments"):
+        con = sqlite3.connect(str(tmp_path / f"{name}.gpkg"))
+        table = con.execute("select table_name from gpkg_contents where data_type='features'").fetchone()[0]
+        etas = [r[0] for r in con.execute(f'select eta_utc from "{table}" order by fid')]
+        con.close()
+        assert etas and all(e.endswith("Z") for e in etas), etas[:3]
+        assert etas[0] == "2030-06-01T01:00:00.000Z"
