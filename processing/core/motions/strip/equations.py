@@ -96,7 +96,7 @@ def prepare_hull(sections: HullSections, rho_kg_m3: float = 1025.0,
         if not (math.isfinite(v) and v > 0):
             raise StripInputError(f"{name} = {v!r}: give a positive value")
     forms = lewis_forms(sections.beam_m, sections.draught_m, sections.area_m2)
-    coeffs = section_coefficients(forms)
+    coeffs = _unique_section_coefficients(forms)
     w = sections.integration_weights_m()
     x, b = sections.x_m, sections.beam_m
     ms = forms.scale_m[:, None]
@@ -115,6 +115,20 @@ def prepare_hull(sections: HullSections, rho_kg_m3: float = 1025.0,
         waterplane_inertia_t_m4=float(np.sum(w * b ** 3) / 12.0),
         length_m=sections.length_m, beam_m=float(b.max()),
         draught_m=float(sections.draught_m.max()))
+
+
+def _unique_section_coefficients(forms: LewisForms) -> SectionCoefficients:
+    """2-D tables computed once per distinct Lewis shape (a1, a3) and spread to the sections
+    (the tables are per unit scale, so equal shapes share them; e.g. fore-aft symmetry)."""
+    key = np.round(np.stack([forms.a1, forms.a3], axis=1), 12)
+    _, first, inverse = np.unique(key, axis=0, return_index=True, return_inverse=True)
+    inverse = np.asarray(inverse).reshape(-1)
+    sub = LewisForms(forms.scale_m[first], forms.a1[first], forms.a3[first],
+                     forms.area_coeff[first], forms.clipped[first])
+    c = section_coefficients(sub)
+    fields = {name: getattr(c, name) for name in c.__dataclass_fields__}
+    return SectionCoefficients(**{name: (value if name == "nu" else value[inverse])
+                                  for name, value in fields.items()})
 
 
 @dataclass(frozen=True)
@@ -218,9 +232,9 @@ def _radiation(hull: HullModel, ip: _Interp, wa: NDArray) -> dict:
     return out
 
 
-def _exciting(hull: HullModel, ip: _Interp, k: NDArray, mu: NDArray, wes: NDArray,
-              omega: NDArray, speed: float) -> tuple[NDArray, ...]:
-    """F2..F6 per unit wave amplitude (STF eqs. 35-38 as in the module docstring)."""
+def _incident(hull: HullModel, k: NDArray, mu: NDArray) -> tuple[NDArray, ...]:
+    """Speed-independent parts: sectional Froude-Krylov f2, f3, f4 and the diffraction kernel
+    (i n3 - n2 sin mu) e^{kz} e^{i k y sin mu} dl at the contour nodes."""
     c, rho, g = hull.coeffs, hull.rho_kg_m3, hull.g_m_s2
     ms = hull.forms.scale_m[:, None, None, None]
     y, z = ms * c.y_hat[:, None, None, :], ms * c.z_hat[:, None, None, :]
@@ -232,11 +246,23 @@ def _exciting(hull: HullModel, ip: _Interp, k: NDArray, mu: NDArray, wes: NDArra
     f2 = -rho * g * np.sum(e_q * wz, -1)
     f4 = rho * g * np.sum(e_q * (y * wy + z * wz), -1)
     kern = e_q * (-1j * wy - sin_mu * wz)
+    half = kern.shape[-1] // 2      # nodes: port half, then its mirror images (lewis.py)
+    return f2, f3, f4, kern[..., :half] + kern[..., half:], kern[..., :half] - kern[..., half:]
+
+
+def _exciting(hull: HullModel, ip: _Interp, k: NDArray, mu: NDArray, wes: NDArray,
+              omega: NDArray, speed: float, incident: tuple) -> tuple[NDArray, ...]:
+    """F2..F6 per unit wave amplitude (STF eqs. 35-38 as in the module docstring)."""
+    c, rho = hull.coeffs, hull.rho_kg_m3
+    ms = hull.forms.scale_m[:, None, None, None]
+    f2, f3, f4, kern_sym, kern_anti = incident
     neg = (wes < 0)[None, ..., None]
     scale = -1j * wes[None] * rho * omega[None, :, None]
+    half = kern_sym.shape[-1]
     h = {}
-    for j, power in (("2", 1), ("3", 1), ("4", 2)):
-        phi = ip(getattr(c, "phi" + j)) * ms ** power
+    for j, power, kern in (("2", 1, kern_anti), ("3", 1, kern_sym), ("4", 2, kern_anti)):
+        # potentials are even (heave) or odd (sway, roll) across the centre plane
+        phi = ip(getattr(c, "phi" + j)[:, :, :half]) * ms ** power
         phi = np.where(neg, np.conj(phi), phi)
         h[j] = scale * np.sum(phi * kern, -1)
     x = hull.sections.x_m[:, None, None]
@@ -322,44 +348,64 @@ def strip_raos(hull: HullModel, body: RigidBody, omega_rad_s: ArrayLike, k_rad_m
     roll_damping_extra_n_m_s: linear viscous roll damping [N m s/rad] added to the wave
     damping, a scalar or an array broadcastable to (omega, heading) (``roll_damping.py``).
     """
+    return strip_rao_set(hull, body, omega_rad_s, k_rad_m, heading_deg, [speed_m_s],
+                         [roll_damping_extra_n_m_s])[0]
+
+
+def strip_rao_set(hull: HullModel, body: RigidBody, omega_rad_s: ArrayLike, k_rad_m: ArrayLike,
+                  heading_deg: ArrayLike, speeds_m_s: ArrayLike,
+                  roll_damping_extra_n_m_s: Optional[list] = None) -> list[StripRaos]:
+    """``strip_raos`` for several speeds, sharing the speed-independent incident-wave parts.
+
+    roll_damping_extra_n_m_s: one entry per speed (scalar or (omega, heading) array); None = 0.
+    """
     omega = _as_1d("omega_rad_s", omega_rad_s)
     k = _as_1d("k_rad_m", k_rad_m)
     mu_deg = _as_1d("heading_deg", heading_deg)
+    speeds = _as_1d("speeds_m_s", speeds_m_s)
     if k.shape != omega.shape:
         raise StripInputError(f"k_rad_m has {k.size} values, omega_rad_s {omega.size}: "
                               "give one wavenumber per frequency")
     for name, arr in (("omega_rad_s", omega), ("k_rad_m", k)):
         if np.any(arr <= 0):
             raise StripInputError(f"{name} = {arr[arr <= 0][0]!r}: must be > 0")
-    if not (math.isfinite(speed_m_s) and speed_m_s >= 0):
-        raise StripInputError(f"speed_m_s = {speed_m_s!r}: give a speed >= 0 through the water")
-    extra = np.broadcast_to(np.asarray(roll_damping_extra_n_m_s, dtype=float),
-                            (omega.size, mu_deg.size))
-    if np.any(~np.isfinite(extra)) or np.any(extra < 0):
+    bad = speeds[speeds < 0]
+    if bad.size:
+        raise StripInputError(f"speed_m_s = {bad[0]!r}: give a speed >= 0 through the water")
+    shape = (omega.size, mu_deg.size)
+    extras = [0.0] * speeds.size if roll_damping_extra_n_m_s is None \
+        else list(roll_damping_extra_n_m_s)
+    if len(extras) != speeds.size:
+        raise StripInputError("roll_damping_extra_n_m_s needs one entry per speed")
+    extras = [np.broadcast_to(np.asarray(e, dtype=float), shape) for e in extras]
+    if any(np.any(~np.isfinite(e)) or np.any(e < 0) for e in extras):
         raise StripInputError("roll_damping_extra_n_m_s must be finite and >= 0")
     floor = OMEGA_E_FLOOR_FRACTION * math.sqrt(hull.g_m_s2 / hull.length_m)
-    shape = (omega.size, mu_deg.size)
-    eta = {n: np.empty(shape, dtype=complex) for n in ("2", "3", "4", "5", "6")}
-    we_all = np.empty(shape)
+    eta = [{n: np.empty(shape, dtype=complex) for n in "23456"} for _ in speeds]
+    we_all = np.empty((speeds.size,) + shape)
     for lo in range(0, mu_deg.size, HEADING_CHUNK):
         sl = slice(lo, lo + HEADING_CHUNK)
         mu = np.deg2rad(mu_deg[sl])
-        we = omega[:, None] - k[:, None] * speed_m_s * np.cos(mu)[None, :]
-        we_all[:, sl] = we
-        wa = np.maximum(np.abs(we), floor)
-        wes = np.where(we < 0, -wa, wa)
-        ip = _Interp(hull, wa)
-        r = _radiation(hull, ip, wa)
-        F2, F3, F4, F5, F6 = _exciting(hull, ip, k, mu, wes, omega, speed_m_s)
-        hp = np.linalg.solve(_heave_pitch(hull, body, r, wes, speed_m_s),
-                             np.stack([F3, F5], -1)[..., None])[..., 0]
-        sry = np.linalg.solve(_sway_roll_yaw(hull, body, r, wes, speed_m_s, extra[:, sl]),
-                              np.stack([F2, F4, F6], -1)[..., None])[..., 0]
-        eta["3"][:, sl], eta["5"][:, sl] = hp[..., 0], hp[..., 1]
-        eta["2"][:, sl], eta["4"][:, sl], eta["6"][:, sl] = sry[..., 0], sry[..., 1], sry[..., 2]
+        incident = _incident(hull, k, mu)
+        for i, u in enumerate(speeds):
+            we = omega[:, None] - k[:, None] * u * np.cos(mu)[None, :]
+            we_all[i, :, sl] = we
+            wa = np.maximum(np.abs(we), floor)
+            wes = np.where(we < 0, -wa, wa)
+            ip = _Interp(hull, wa)
+            r = _radiation(hull, ip, wa)
+            F2, F3, F4, F5, F6 = _exciting(hull, ip, k, mu, wes, omega, u, incident)
+            hp = np.linalg.solve(_heave_pitch(hull, body, r, wes, u),
+                                 np.stack([F3, F5], -1)[..., None])[..., 0]
+            sry = np.linalg.solve(_sway_roll_yaw(hull, body, r, wes, u, extras[i][:, sl]),
+                                  np.stack([F2, F4, F6], -1)[..., None])[..., 0]
+            e = eta[i]
+            e["3"][:, sl], e["5"][:, sl] = hp[..., 0], hp[..., 1]
+            e["2"][:, sl], e["4"][:, sl], e["6"][:, sl] = sry[..., 0], sry[..., 1], sry[..., 2]
     xg, zg = body.x_g_m, body.z_g_m
-    return StripRaos(omega, mu_deg, float(speed_m_s), we_all,
-                     heave_m_m=eta["3"] - xg * eta["5"],
-                     sway_m_m=eta["2"] + xg * eta["6"] - zg * eta["4"],
-                     roll_rad_m=eta["4"], pitch_rad_m=eta["5"], yaw_rad_m=eta["6"],
-                     x_g_m=xg, z_g_m=zg)
+    return [StripRaos(omega, mu_deg, float(u), we_all[i],
+                      heave_m_m=e["3"] - xg * e["5"],
+                      sway_m_m=e["2"] + xg * e["6"] - zg * e["4"],
+                      roll_rad_m=e["4"], pitch_rad_m=e["5"], yaw_rad_m=e["6"],
+                      x_g_m=xg, z_g_m=zg)
+            for i, (u, e) in enumerate(zip(speeds, eta))]
