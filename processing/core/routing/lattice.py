@@ -39,11 +39,11 @@ class LatticeSettings:
 
 
 def lattice_settings(ref_length_nm: float, max_detour_pct: float, *, n_stages: int = 0, n_side: int = 12) -> LatticeSettings:
-    """Default lattice for a reference of ``ref_length_nm``: about one stage per 5 NM (12 to 60
+    """Default lattice for a reference of ``ref_length_nm``: about one stage per 5 NM (20 to 60
     stages unless ``n_stages`` is given); offsets spanning the half-width of the detour
     ellipse b = L/2 sqrt((1 + p)**2 - 1) (p = max_detour_pct / 100) in ``n_side`` steps per
     side; jumps up to about 60 deg off the reference's course."""
-    stages = n_stages or int(min(max(round(ref_length_nm / 5.0), 12), 60))
+    stages = n_stages or int(min(max(round(ref_length_nm / 5.0), 20), 60))
     stage_nm = ref_length_nm / stages
     p = max(max_detour_pct, 1.0) / 100.0
     half = 0.5 * ref_length_nm * math.sqrt((1.0 + p) ** 2 - 1.0)

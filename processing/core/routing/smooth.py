@@ -4,11 +4,11 @@
 The rule (ours; common practice, no source, for the thresholds):
 
 1. **Shortcuts** (string pulling, as in any-angle path planning, e.g. Botea A. et al. (2004)
-   "Near optimal hierarchical path-finding", J. Game Dev. 1(1) 7-28): walking from the start,
-   the next waypoint kept is the farthest path vertex (at most :data:`MAX_SKIP` stages ahead)
-   whose direct geodesic is legal (:mod:`.legality`) and, for the tracks that weigh
-   exposure, whose dose (:mod:`.edge_costs`, started when the path reaches the waypoint) is
-   no higher than that of the path it replaces. The fastest track takes any legal shortcut.
+   "Near optimal hierarchical path-finding", J. Game Dev. 1(1) 7-28): among the chains of
+   path vertices joined by legal direct geodesics (:mod:`.legality`; at most
+   :data:`MAX_SKIP` vertices apart), keep the cheapest: the shortest for the fastest track;
+   for the tracks that weigh exposure the one with the least dose (:mod:`.edge_costs`, each
+   leg started when the path reaches its first vertex), so no shortcut adds dose.
 2. **Waypoints kept**: consecutive legs differ in course by at least :data:`MIN_TURN_DEG` and
    no leg is shorter than :data:`MIN_LEG_NM`; a waypoint breaking either rule is dropped when
    the leg replacing it is legal (else it stays, and the track keeps the turn it needs).
@@ -45,28 +45,37 @@ def shortcut(lon: FloatArray, lat: FloatArray, time_s: FloatArray, legal: LegalF
     """Indices of the path vertices kept by rule 1 (``dose`` None: the fastest track's rule).
 
     ``legal(lon0, lat0, lon1, lat1)`` tells which legs are legal; ``dose(lon0, lat0, lon1,
-    lat1, start_s)`` gives the dose of legs started at ``start_s``.
+    lat1, start_s)`` gives the dose of legs started at ``start_s``. The vertices kept are the
+    cheapest chain through the legal shortcuts (dynamic programming over the path's vertices;
+    cost: length for the fastest track, else the dose with length as a tie-break), so no
+    shortcut raises the estimated dose.
     """
     n = lon.size
     i_idx, k_idx = (a.ravel() for a in np.meshgrid(np.arange(n), np.arange(n), indexing="ij"))
-    cand = (k_idx - i_idx >= 2) & (k_idx - i_idx <= MAX_SKIP)
+    cand = (k_idx - i_idx >= 1) & (k_idx - i_idx <= MAX_SKIP)
     ci, ck = i_idx[cand], k_idx[cand]
-    ok = legal(lon[ci], lat[ci], lon[ck], lat[ck]) if ci.size else np.zeros(0, bool)
-    if dose is not None and ci.size:
-        base = dose(lon[:-1], lat[:-1], lon[1:], lat[1:], time_s[:-1])
-        cum = np.r_[0.0, np.cumsum(np.nan_to_num(base, nan=np.inf))]
-        good = np.flatnonzero(ok)
-        direct = dose(lon[ci[good]], lat[ci[good]], lon[ck[good]], lat[ck[good]], time_s[ci[good]])
-        ok[good] = np.isfinite(direct) & (direct <= (cum[ck[good]] - cum[ci[good]]) * (1 + 1e-9))
-    best = np.arange(1, n + 1)
-    best[-1] = n - 1
-    for a, b in zip(ci[ok], ck[ok]):
-        best[a] = max(best[a], b)
-    kept, i = [0], 0
-    while i < n - 1:
-        i = int(best[i])
-        kept.append(i)
-    return np.asarray(kept, dtype=np.int64)
+    ok = (ck - ci == 1) | legal(lon[ci], lat[ci], lon[ck], lat[ck])
+    ci, ck = ci[ok], ck[ok]
+    length = inverse(lon[ci], lat[ci], lon[ck], lat[ck])[2]
+    cost = length
+    if dose is not None:
+        d = dose(lon[ci], lat[ci], lon[ck], lat[ck], time_s[ci])
+        d = np.where(np.isfinite(d), d, np.inf)
+        base = d[ck - ci == 1]
+        scale = float(np.sum(base[np.isfinite(base)])) / max(float(np.sum(length[ck - ci == 1])), 1.0)
+        cost = d + 1e-6 * max(scale, 1e-30) * length
+    best = np.full(n, np.inf)
+    prev = np.zeros(n, dtype=np.int64)
+    best[0] = 0.0
+    for k in range(1, n):
+        sel = np.flatnonzero(ck == k)
+        tot = best[ci[sel]] + cost[sel]
+        j = int(np.argmin(tot))
+        best[k], prev[k] = tot[j], ci[sel][j]
+    kept = [n - 1]
+    while kept[-1] != 0:
+        kept.append(int(prev[kept[-1]]))
+    return np.asarray(kept[::-1], dtype=np.int64)
 
 
 def _turns_and_legs(lon: FloatArray, lat: FloatArray) -> "tuple[FloatArray, FloatArray]":
