@@ -17,15 +17,23 @@ The forecasts here are invented test data.
 """
 from __future__ import annotations
 
+import re
+from xml.etree import ElementTree
+
 import numpy as np
 import pytest
 from geographiclib.geodesic import Geodesic
 from shapely.geometry import LineString, Point, Polygon
 
 from seaway_comfort.processing.core.demo.writers import write_bathymetry_geotiff, write_cf_netcdf
+
+
+
+from seaway_comfort.processing.core.reports.html import fmt_num
+from seaway_comfort.processing.core.reports.track import TRACK_CAUTION, track_report_html
 from seaway_comfort.processing.core.passage.pipeline import PassageCancelled, compute_passage
 from seaway_comfort.processing.core.routing.barriers import barriers_from_rings
-from seaway_comfort.processing.core.routing.engine import plan_tracks, track_fields
+from seaway_comfort.processing.core.routing.engine import ALTERNATIVES, plan_tracks, track_fields
 from seaway_comfort.processing.core.routing.geodesy import inverse, points_along
 from seaway_comfort.processing.core.routing.lattice import build_lattice, lattice_settings
 from seaway_comfort.processing.core.seastate import open_bathymetry, open_sea_state
@@ -246,3 +254,17 @@ def test_cancel(calm, profile):
     with pytest.raises(PassageCancelled):
         plan_tracks([0.0, 1.0], [0.0, 0.0], departure_utc=T0, speed_kn=10.0, sea_states=[calm], profile=profile,
                     progress=lambda f: f < 0.3)
+
+
+def test_report_has_map_front_table_and_caution(storm_plan):
+    text = track_report_html(storm_plan, [("Route", "invented <test>")])
+    assert "<script" not in text and "http://" not in text.replace('xmlns="http://www.w3.org/2000/svg"', "")
+    assert text.count(TRACK_CAUTION.split(":")[0]) >= 2
+    assert "invented &lt;test&gt;" in text
+    svgs = re.findall(r"<svg.*?</svg>", text, flags=re.S)
+    assert len(svgs) == 2
+    for s in svgs:
+        ElementTree.fromstring(s)  # well-formed XML
+    for name in ALTERNATIVES:
+        f = track_fields(storm_plan.get(name))
+        assert f"<td>{name}</td><td>{fmt_num(f['dist_nm'], 1)}</td><td>{fmt_num(f['hours'], 2)}</td>" in text
