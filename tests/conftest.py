@@ -65,3 +65,20 @@ def pytest_runtest_makereport(item, call):  # type: ignore[no-untyped-def]
         )
         return report
     return None
+
+
+QGIS_TEST_DIR = Path(__file__).resolve().parent / "qgis"
+
+
+@pytest.hookimpl(hookwrapper=True)
+def pytest_make_collect_report(collector):  # type: ignore[no-untyped-def]
+    """Turn a QGIS test file that skips at import (``pytest.importorskip("qgis")``) into a
+    failure where QGIS is required: the skip in setup above never sees such files."""
+    outcome = yield
+    report = outcome.get_result()
+    if not (report.skipped and require_qgis_enabled()):
+        return
+    path = Path(str(getattr(collector, "path", None) or getattr(collector, "fspath", "")))
+    if QGIS_TEST_DIR in path.resolve().parents:
+        report.outcome = "failed"
+        report.longrepr = f"QGIS test file {path.name} skipped although SEAWAY_REQUIRE_QGIS=1: {report.longrepr}"
