@@ -432,6 +432,7 @@ def test_datetimes_stored_as_utc_on_every_qgis(seaway_provider, route, sea, tmp_
         assert etas and all(e.endswith("Z") for e in etas), etas[:3]
         assert etas[0] == "2030-06-01T01:00:00.000Z"
 
+
 def _gpkg_rows(path, columns):
     """Rows of the single feature table of a GeoPackage read with Python's sqlite3 (OGC
     GeoPackage 1.3, OGC 12-128r18, s.1.1.3: feature tables are SQLite tables listed in
