@@ -92,6 +92,8 @@ def _criterion_text(task: str, d: int, vacc: float, lacc: float, roll: float) ->
     value, limit = {1: (vacc / G_STANDARD_M_S2, c.vacc_rms_g), 2: (lacc / G_STANDARD_M_S2, c.lacc_rms_g),
                     3: (roll, c.roll_rms_deg)}[d]
     fmt = _g if d in (1, 2) else (lambda x: f"{x:.1f} deg")
+    if d in (1, 2) and f"{value:.2f}" == f"{limit:.2f}":
+        fmt = lambda x: f"{x:.3f} g"  # noqa: E731 - one more digit where two would read as equal
     lim = f"{limit:.2f} g" if d in (1, 2) else f"{limit:.1f} deg"
     use = value / limit
     if use >= 1.0:
