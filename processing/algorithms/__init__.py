@@ -10,6 +10,7 @@ from typing import Tuple
 from .departure_sweep import DepartureSweepAlgorithm
 from .describe_sea_state import DescribeSeaStateAlgorithm
 from .route_comfort import RouteComfortAlgorithm
+from .speed_heading import SpeedHeadingAlgorithm
 from .seasonal_climate import SeasonalClimateAlgorithm
 
 ALGORITHM_CLASSES: Tuple[type, ...] = (
@@ -17,4 +18,5 @@ ALGORITHM_CLASSES: Tuple[type, ...] = (
     DepartureSweepAlgorithm,
     SeasonalClimateAlgorithm,
     DescribeSeaStateAlgorithm,
+    SpeedHeadingAlgorithm,
 )

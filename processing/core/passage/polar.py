@@ -26,7 +26,7 @@ from .plan import Track, as_utc_datetime64
 from .respond import respond_motions
 from .sample import DEFAULT_LAND_SEARCH_KM, DEFAULT_TIME_TOLERANCE_S, SeaAtSamples, check_departure_in_forecast, sample_sea_at
 
-__all__ = ["DEFAULT_SPEED_STEPS", "MAX_CELLS", "default_speeds_kn", "courses_deg", "SpeedHeadingResult", "speed_heading"]
+__all__ = ["DEFAULT_SPEED_STEPS", "MAX_CELLS", "default_speeds_kn", "parse_speed_list_kn", "courses_deg", "SpeedHeadingResult", "speed_heading"]
 
 DEFAULT_SPEED_STEPS: int = 5
 """Speeds in the default list (0 .. 1.2 x service speed)."""
@@ -40,6 +40,20 @@ def default_speeds_kn(service_speed_kn: float) -> Tuple[float, ...]:
     if not np.isfinite(v) or v <= 0:
         raise SeawayInputError(f"service_speed_kn must be a positive number, got {show(service_speed_kn)}")
     return tuple(float(x) for x in np.round(np.linspace(0.0, 1.2 * v, DEFAULT_SPEED_STEPS), 1))
+
+
+def parse_speed_list_kn(text: str) -> Tuple[float, ...]:
+    """Speeds [kn] from comma-separated text ('0, 4.5, 9'); 0 (stopped, lying to) is allowed."""
+    out = []
+    for part in str(text).split(","):
+        try:
+            v = float(part.strip())
+        except ValueError:
+            raise SeawayInputError(f"SPEEDS_KN must be numbers in kn separated by commas, got {show(text)}") from None
+        if not (np.isfinite(v) and 0.0 <= v <= 60.0):
+            raise SeawayInputError(f"SPEEDS_KN values must lie in 0..60 kn, got {show(part.strip())}")
+        out.append(v)
+    return tuple(dict.fromkeys(out))
 
 
 def courses_deg(heading_step_deg: float) -> FloatArray:
