@@ -271,18 +271,32 @@ POINT_FIELDS = (
     *((o.name, "double", o.name) for o in MOTION_OUTPUTS),  # declared once in core.passage.fields
     ("msdv_cum", "double", "msdv_cum"),
     ("vomit_pct", "double", "vomit_pct"),
+    ("sick_pct_passage", "double", "sick_pct_passage"),
     ("comfort_class", "int", None),
+    ("class_reason", "string", None),
     ("comfort_label", "string", None),
     ("flags", "string", None),
     ("source", "string", None),
 )
 
 
+POINT_FIELD_ALIASES = {
+    "msi_pct": "MSI % (2 h exposure at this sea state)",
+    "sick_pct_passage": "share who may vomit %, ISO 2631-1, accumulated from departure (hours since departure)",
+    "vomit_pct": "same as sick_pct_passage (old name, kept for one release)",
+    "class_reason": "what set the comfort class (measure, value, limit)",
+}
+"""Layer field aliases stating the exposure of each sickness figure."""
+
+
 def passage_fields() -> QgsFields:
     """Fields of the point and segment layers (names and units are the public interface)."""
     fields = QgsFields()
     for name, kind, _ in POINT_FIELDS:
-        fields.append(make_field(name, kind))
+        f = make_field(name, kind)
+        if name in POINT_FIELD_ALIASES:
+            f.setAlias(POINT_FIELD_ALIASES[name])
+        fields.append(f)
     return fields
 
 
@@ -310,6 +324,8 @@ def _attributes(r: PassageResult, i: int, leg_name: str, flag_text: Sequence[str
             attrs.append(c if c != NOT_COMPUTED_CLASS else _null())
         elif name == "comfort_label":
             attrs.append(r.comfort_label[i] or _null())
+        elif name == "class_reason":
+            attrs.append(r.class_reason[i] or _null())
         elif name == "flags":
             attrs.append(flag_text[i])
         elif name == "source":

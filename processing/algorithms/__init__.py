@@ -11,6 +11,7 @@ from .comfort_track import ComfortTrackAlgorithm
 from .departure_sweep import DepartureSweepAlgorithm
 from .describe_sea_state import DescribeSeaStateAlgorithm
 from .route_comfort import RouteComfortAlgorithm
+from .speed_heading import SpeedHeadingAlgorithm
 from .seasonal_climate import SeasonalClimateAlgorithm
 
 ALGORITHM_CLASSES: Tuple[type, ...] = (
@@ -19,4 +20,5 @@ ALGORITHM_CLASSES: Tuple[type, ...] = (
     ComfortTrackAlgorithm,
     SeasonalClimateAlgorithm,
     DescribeSeaStateAlgorithm,
+    SpeedHeadingAlgorithm,
 )

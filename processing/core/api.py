@@ -360,7 +360,8 @@ def _assessment(profile: VesselProfile, st: Station, sea: _Sea, r: MotionRespons
                 exposure_h: float) -> MotionAssessment:
     """Comfort verdict and guidance flags on top of the station's motions."""
     tr_s = profile.natural_roll_period_s
-    safety = circ1228_flags(profile.length_wl_m, tr_s, sea.speed, sea.course, sea.hs, sea.tp, sea.wf, sea.depth)
+    safety = circ1228_flags(profile.length_wl_m, tr_s, sea.speed, sea.course, sea.hs, sea.tp, sea.wf, sea.depth,
+                            gamma=sea.gam)
     vacc, lacc = r.vacc_rms_m_s2[:, 0], r.lacc_rms_m_s2[:, 0]
     v = comfort_verdict(st.task, vacc, r.vacc_omega_rad_s[:, 0], lacc, r.roll_rms_deg, exposure_h=exposure_h)
     flags = r.flags | safety.mask

@@ -38,6 +38,11 @@ class SampleFlag(enum.IntFlag):
     PARAMETRIC_ROLL = 1 << 14  # encounter period close to half the natural roll period
     # --- comfort criteria ---
     CRITERIA_EXCEEDED = 1 << 15  # a seakeeping criterion at the station is exceeded
+    # --- grade "danger" of the IMO guidance flags (beside the phenomenon's own bit) ---
+    SURF_RIDING_DANGER = 1 << 16
+    HIGH_WAVE_GROUPS_DANGER = 1 << 17
+    SYNC_ROLL_DANGER = 1 << 18
+    PARAMETRIC_ROLL_DANGER = 1 << 19
 
 
 FLAG_CODES: Dict[SampleFlag, str] = {
@@ -57,6 +62,10 @@ FLAG_CODES: Dict[SampleFlag, str] = {
     SampleFlag.SYNC_ROLL: "ROLLSYNC",
     SampleFlag.PARAMETRIC_ROLL: "ROLLPARAM",
     SampleFlag.CRITERIA_EXCEEDED: "CRITERIA",
+    SampleFlag.SURF_RIDING_DANGER: "SURFDANGER",
+    SampleFlag.HIGH_WAVE_GROUPS_DANGER: "GROUPDANGER",
+    SampleFlag.SYNC_ROLL_DANGER: "SYNCDANGER",
+    SampleFlag.PARAMETRIC_ROLL_DANGER: "PARAMDANGER",
 }
 
 FLAG_EXPLANATIONS: Dict[SampleFlag, str] = {
@@ -71,11 +80,15 @@ FLAG_EXPLANATIONS: Dict[SampleFlag, str] = {
     SampleFlag.OVERTAKING: "The vessel outruns the peak-period wave crests; the regular encounter period is undefined.",
     SampleFlag.OUTSIDE_VALIDITY: "Sea state or speed outside the response method's validity range; results indicative only.",
     SampleFlag.SHALLOW_WATER: "Shallow water at the peak period (depth < 1/20 wavelength); waves may steepen or break.",
-    SampleFlag.SURF_RIDING: "Speed and heading in the surf-riding/broaching zone of IMO MSC.1/Circ.1228 4.2.1.",
-    SampleFlag.HIGH_WAVE_GROUPS: "Wavelength > 0.8 L and Hs > 0.04 L: successive high-wave attack possible (IMO MSC.1/Circ.1228 4.2.2).",
-    SampleFlag.SYNC_ROLL: "Encounter period close to the natural roll period: synchronous rolling possible (IMO MSC.1/Circ.1228 4.2.3).",
-    SampleFlag.PARAMETRIC_ROLL: "Encounter period close to half the natural roll period: parametric rolling possible (IMO MSC.1/Circ.1228 4.2.3).",
+    SampleFlag.SURF_RIDING: "Speed and heading in the surf-riding/broaching zone of IMO MSC.1/Circ.1228 4.2.1 (advisory unless SURFDANGER).",
+    SampleFlag.HIGH_WAVE_GROUPS: "Average wavelength > 0.8 L, Hs > 0.04 L and encounter period 1.8-3.0 times the wave period: successive high-wave attack (IMO MSC.1/Circ.1228 4.2.2; advisory unless GROUPDANGER).",
+    SampleFlag.SYNC_ROLL: "Encounter period close to the natural roll period: synchronous rolling possible (IMO MSC.1/Circ.1228 4.2.3.1; advisory unless SYNCDANGER).",
+    SampleFlag.PARAMETRIC_ROLL: "Head or following sea of about the ship's length, encounter period close to half the natural roll period: parametric rolling possible (IMO MSC.1/Circ.1228 4.2.3.2; advisory unless PARAMDANGER).",
     SampleFlag.CRITERIA_EXCEEDED: "A seakeeping criterion (RMS acceleration or roll) at the station is exceeded.",
+    SampleFlag.SURF_RIDING_DANGER: "Danger grade of SURFRISK: the wave system has Hs > 0.04 L (IMO MSC.1/Circ.1228 4.2.1).",
+    SampleFlag.HIGH_WAVE_GROUPS_DANGER: "Danger grade of WAVEGROUPS: successive high waves together with danger-graded synchronous or parametric rolling (IMO MSC.1/Circ.1228 4.2.2).",
+    SampleFlag.SYNC_ROLL_DANGER: "Danger grade of ROLLSYNC: the wave system has Hs > 0.04 L (IMO MSC.1/Circ.1228 4.2.3.1).",
+    SampleFlag.PARAMETRIC_ROLL_DANGER: "Danger grade of ROLLPARAM: the wave system has Hs > 0.04 L (IMO MSC.1/Circ.1228 4.2.3.2).",
 }
 
 SAFETY_FLAGS = (
@@ -84,10 +97,25 @@ SAFETY_FLAGS = (
     | SampleFlag.SYNC_ROLL
     | SampleFlag.PARAMETRIC_ROLL
 )
-"""Flags that warn of dangerous situations (IMO guidance) rather than data quality."""
+"""Flags that warn of dangerous situations (IMO guidance) rather than data quality (any grade)."""
+
+DANGER_FLAGS = (
+    SampleFlag.SURF_RIDING_DANGER
+    | SampleFlag.HIGH_WAVE_GROUPS_DANGER
+    | SampleFlag.SYNC_ROLL_DANGER
+    | SampleFlag.PARAMETRIC_ROLL_DANGER
+)
+"""Danger-graded guidance: a hard limit (a passage with one is not within limits)."""
+
+HARD_LIMIT_FLAGS = DANGER_FLAGS | SampleFlag.CRITERIA_EXCEEDED
+"""Flags that put a sample outside limits; the other guidance flags are advisories."""
 
 NOT_COMPUTED_FLAGS = SampleFlag.NO_SEA_DATA | SampleFlag.OUTSIDE_GRID | SampleFlag.OUTSIDE_TIME
 """Flags after which a sample carries no motion results (values are NULL, never zero)."""
+
+UNCLASSED_FLAGS = NOT_COMPUTED_FLAGS | SampleFlag.IMPLAUSIBLE_VALUE
+"""Flags after which the passage computes no motions and no class: no sea, or a sea value
+outside its plausible range (a unit mix-up is likely; motions on it would mislead)."""
 
 CAUTION = (
     "Planning aid only: not a substitute for the master's judgement, official forecasts and "

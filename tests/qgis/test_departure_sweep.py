@@ -249,7 +249,7 @@ def test_progress_and_cancel(sweep_registered, route, seas, tmp_path):
     assert all(b >= a - 1e-9 for a, b in zip(fb.values, fb.values[1:]))
     # the recommendation with its reason and the caution are in the log
     log = "\n".join(fb.infos)
-    assert "Recommended: Depart 2030-06-01 14:00 UTC" in log and "within limits" in log
+    assert "Recommended: Go. Depart 2030-06-01 14:00 UTC" in log and "within limits" in log
     assert "CAUTION: Planning aid only" in log
 
     class CancelSoon(QgsProcessingFeedback):

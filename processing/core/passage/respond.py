@@ -24,7 +24,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from ..comfort.exposure import NOT_COMPUTED_CLASS, dose_intervals, dwell_s
-from ..flags import NOT_COMPUTED_FLAGS, SampleFlag
+from ..flags import UNCLASSED_FLAGS, SampleFlag
 from ..units import FloatArray, m_s_from_kn, nm_from_m
 from ..validation import SeawayInputError, require_positive
 from .fields import MOTION_OUTPUT_NAMES
@@ -48,7 +48,8 @@ class SampleMotions:
 
     ``wavelength_m``, ``celerity_m_s``, ``rel_heading_deg``, ``enc_period_s`` (peak component);
     ``outputs`` one array per :data:`.fields.MOTION_OUTPUTS` name; ``comfort_class`` (-1 where
-    not computed); ``flags`` the sea's flags plus the response's; ``computed`` mask; and the
+    not computed); ``class_driver`` what set the class (:data:`..comfort.verdict.DRIVERS` index,
+    -1 where not computed); ``task`` the station's criteria task; ``flags`` the sea's flags plus the response's; ``computed`` mask; and the
     station, method and natural roll period used.
     """
 
@@ -63,12 +64,27 @@ class SampleMotions:
     station_name: str
     method: str
     roll_period_s: float
+    class_driver: NDArray[np.int8]
+    task: str
+
+    def class_reasons(self) -> Tuple[str, ...]:
+        """The class reason of every sample ('' where not classed), see
+        :func:`..comfort.verdict.class_reason`."""
+        from ..comfort.verdict import class_reasons
+
+        o = self.outputs
+        return class_reasons(self.task, self.class_driver, o["msi_pct"], o["vacc_rms_m_s2"], o["lacc_rms_m_s2"],
+                             o["roll_rms_deg"])
 
 
 def _computable(sea: SeaAtSamples) -> NDArray[np.bool_]:
-    """Samples with a usable sea state (Hs = 0, flat calm, is a value, not missing data)."""
+    """Samples with a usable sea state (Hs = 0, flat calm, is a value, not missing data).
+
+    A sea flagged ODDVALUE (a value outside its plausible range, e.g. Tp stored in ms or Hs in
+    cm) is not usable: such samples get NULL motions and no class (:data:`..flags.UNCLASSED_FLAGS`).
+    """
     comp = sea.valid & np.isfinite(sea.hs_m) & np.isfinite(sea.tp_s) & np.isfinite(sea.wave_from_deg)
-    comp &= (sea.flags & int(NOT_COMPUTED_FLAGS)) == 0
+    comp &= (sea.flags & int(UNCLASSED_FLAGS)) == 0
     return comp & (sea.tp_s > 0) & (sea.hs_m >= 0)
 
 
@@ -170,9 +186,23 @@ def respond_motions(track: Track, sea: SeaAtSamples, profile: object, *, station
         info.update(station=str(res.station or info["station"]), method=str(res.method or info["method"]),
                     roll=float(res.roll_period_s))
         span.check(0.05 + 0.9 * (start + chunk.size) / max(idx.size, 1))
+    task = profile.station(station).task  # type: ignore[attr-defined]
     return SampleMotions(*kin, outputs=outputs, comfort_class=cls, flags=flags, computed=comp,
                          station_name=str(info["station"]), method=str(info["method"]),
-                         roll_period_s=float(info["roll"]))
+                         roll_period_s=float(info["roll"]), class_driver=_drivers(task, outputs, cls), task=task)
+
+
+def _drivers(task: str, outputs: Dict[str, FloatArray], cls: NDArray[np.int64]) -> NDArray[np.int8]:
+    """What set each sample's class (-1 where not classed); MSI here is the 2 h MSI that the
+    class uses (:func:`..api.assess_motions` default exposure)."""
+    from ..comfort.verdict import class_drivers
+
+    out = np.full(cls.size, -1, dtype=np.int8)
+    ok = cls >= 0
+    if ok.any():
+        out[ok] = class_drivers(task, outputs["msi_pct"][ok], outputs["vacc_rms_m_s2"][ok],
+                                outputs["lacc_rms_m_s2"][ok], outputs["roll_rms_deg"][ok])
+    return out
 
 
 def _passage_dose(t_s: FloatArray, aw: FloatArray, comp: NDArray[np.bool_],
@@ -221,5 +251,5 @@ def respond(plan: PassagePlan, sea: SeaAtSamples, profile: object, *, station: O
         computed=mot.computed, vessel_name=str(getattr(profile, "name", "") or ""),
         station_name=mot.station_name, method=mot.method, roll_period_s=mot.roll_period_s,
         departure_utc=plan.departure_utc, partition_names=tuple(sea.partition_names),
-        notes=tuple(dict.fromkeys(notes)),
+        notes=tuple(dict.fromkeys(notes)), sick_pct_passage=vomit, class_reason=mot.class_reasons(),
     )

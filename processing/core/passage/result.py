@@ -34,6 +34,8 @@ class PassageSummary:
     final_msdv: float
     final_vomit_pct: float
     flag_counts: Dict[str, int]
+    worst_reason: str = ""
+    exposure_h: float = float("nan")
 
 
 @dataclass(frozen=True)
@@ -47,10 +49,13 @@ class PassageResult:
     ``celerity_m_s`` (peak component at local depth), ``rel_heading_deg`` (0 following,
     90 beam, 180 head), ``enc_period_s`` (NaN when overtaking); one float array per motion
     output of :data:`.fields.MOTION_OUTPUTS` (``heave_rms_m`` ... ``msi_pct``, MSI after
-    O'Hanlon & McCauley 1974, 2 h); ``msdv_cum`` [m/s^1.5] (ISO 2631-1), ``vomit_pct``
-    (ISO 2631-1 Annex D, from ``msdv_cum``), ``comfort_class`` (0..4,
-    :data:`NOT_COMPUTED_CLASS` = -1 where not computed), ``comfort_label`` ('' where not
-    computed), ``flags`` (SampleFlag masks), ``source``; ``lon_deg``, ``lat_deg``,
+    O'Hanlon & McCauley 1974: share who would vomit after 2 HOURS at that sea state);
+    ``msdv_cum`` [m/s^1.5] (ISO 2631-1), ``sick_pct_passage`` (ISO 2631-1 Annex D vomiting
+    incidence from ``msdv_cum``: accumulated from departure to the sample, exposure = hours
+    since departure), ``vomit_pct`` (the same array under its old name, kept for one release),
+    ``comfort_class`` (0..4, :data:`NOT_COMPUTED_CLASS` = -1 where not computed),
+    ``class_reason`` (measure, value and bound that set the class; '' where not classed),
+    ``comfort_label`` ('' where not computed), ``flags`` (SampleFlag masks), ``source``; ``lon_deg``, ``lat_deg``,
     ``speed_kn``, ``dwell_s`` (time each sample stands for), ``is_vertex``, ``computed``.
     Passage-wide: ``vessel_name``, ``station_name``, ``method``, ``roll_period_s``,
     ``departure_utc``, ``partition_names``, ``notes``.
@@ -88,6 +93,16 @@ class PassageResult:
     departure_utc: Optional[np.datetime64] = None
     partition_names: Tuple[str, ...] = ()
     notes: Tuple[str, ...] = field(default_factory=tuple)
+    sick_pct_passage: Optional[FloatArray] = None
+    class_reason: Tuple[str, ...] = ()
+
+    def __post_init__(self) -> None:
+        # sick_pct_passage and vomit_pct are one array under two names (vomit_pct kept for one
+        # release); a record built without reasons gets '' for every sample
+        if self.sick_pct_passage is None:
+            object.__setattr__(self, "sick_pct_passage", self.vomit_pct)
+        if len(self.class_reason) != self.seq.size:
+            object.__setattr__(self, "class_reason", ("",) * int(self.seq.size))
 
     @property
     def n(self) -> int:
@@ -140,5 +155,18 @@ class PassageResult:
             hours_per_class=self.hours_per_class(), worst_index=self.worst_index(),
             max_hs_m=_max(self.hs_m), max_msi_pct=_max(self.msi_pct),  # type: ignore[attr-defined]
             final_msdv=_last(self.msdv_cum), final_vomit_pct=_last(self.vomit_pct),
-            flag_counts=self.flag_counts(),
+            flag_counts=self.flag_counts(), worst_reason=self._reason_at(self.worst_index()),
+            exposure_h=_last_elapsed_h(self.sick_pct_passage, self.eta_utc),
         )
+
+    def _reason_at(self, i: Optional[int]) -> str:
+        return "" if i is None else str(self.class_reason[i])
+
+
+def _last_elapsed_h(sick: FloatArray, eta_utc: NDArray[np.datetime64]) -> float:
+    """Hours from the first sample (departure) to the last sample with a dose: the exposure of
+    the passage's accumulated sickness share."""
+    ok = np.flatnonzero(np.isfinite(sick))
+    if ok.size == 0:
+        return float("nan")
+    return float((eta_utc[ok[-1]] - eta_utc[0]).astype("timedelta64[ms]").astype(np.float64) / 3.6e6)

@@ -21,6 +21,7 @@ from ..passage.pipeline import NOT_COMPUTED_CLASS, PassageResult, PassageSummary
 from .html import bullets, figure_png, flag_table, new_figure, page, png_img, write_page
 from .html import esc as _esc, fmt_num as _fmt, fmt_time_utc as _fmt_time, swatch as _swatch, table as _table
 from .palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .verdict import verdict_rows, worst_sample_line
 
 __all__ = [
     "COMFORT_PALETTE",
@@ -207,18 +208,11 @@ def _leg_facts_html(leg: LegReport) -> str:
         ("Samples with results", f"{s.n_computed} of {s.n_samples}"),
         ("Vessel / station", f"{r.vessel_name} / {r.station_name}"),
         ("Highest Hs met", f"{_fmt(s.max_hs_m)} m"),
-        ("Highest MSI (2 h exposure)", f"{_fmt(s.max_msi_pct, 1)} %"),
         ("Motion sickness dose at arrival", f"{_fmt(s.final_msdv, 1)} m/s^1.5"),
-        ("Share who may vomit (ISO 2631-1 Annex D)", f"{_fmt(s.final_vomit_pct, 1)} %"),
     ]
+    rows += verdict_rows(r, s)
     if worst is not None:
-        rows.append((
-            "Worst sample",
-            f"#{int(r.seq[worst])} at {_fmt_time(r.eta_utc[worst])}, {_fmt(r.dist_nm[worst], 1)} NM: "
-            f"{r.comfort_label[worst]}, Hs {_fmt(r.hs_m[worst])} m, vertical acc. "
-            f"{_fmt(r.vacc_rms_m_s2[worst])} m/s2 RMS, lateral acc. {_fmt(r.lacc_rms_m_s2[worst])} m/s2 RMS, "
-            f"roll {_fmt(r.roll_rms_deg[worst], 1)} deg RMS, MSI {_fmt(r.msi_pct[worst], 1)} %",
-        ))
+        rows.append(("Worst sample", worst_sample_line(r, s) or ""))
     return _table(("Item", "Value"), rows)
 
 
@@ -282,14 +276,14 @@ def _overview_html(legs: Sequence[LegReport]) -> str:
         s = leg.summary
         worst = "n/a"
         if s.worst_index is not None:
-            worst = leg.result.comfort_label[s.worst_index]
+            worst = f"{leg.result.comfort_label[s.worst_index]} ({s.worst_reason})"
         over.append((
             str(s.leg + 1), leg.name, _fmt_time(s.departure_utc), _fmt_time(s.arrival_utc),
             _fmt(s.distance_nm, 1), _fmt(s.duration_h, 1), worst, _fmt(s.max_msi_pct, 1),
             _fmt(s.final_msdv, 1), str(s.n_samples - s.n_computed),
         ))
     return "<h2>Overview</h2>\n" + _table(
-        ("Leg", "Name", "Departure", "Arrival", "NM", "Hours", "Worst class", "Max MSI %",
+        ("Leg", "Name", "Departure", "Arrival", "NM", "Hours", "Worst class (set by)", "Max MSI % (2 h)",
          "MSDV at arrival", "Samples without results"),
         over,
     )
@@ -324,6 +318,8 @@ def text_summary(report: ReportData) -> str:
             f"{s.leg + 1:<4}{leg.name[:21]:<22}{_fmt(s.distance_nm, 1):>7}{_fmt(s.duration_h, 1):>7}  "
             f"{worst:<10}{_fmt(s.max_msi_pct, 1):>8}{_fmt(s.final_msdv, 1):>7}{s.n_samples - s.n_computed:>8}"
         )
+        if s.worst_reason:
+            lines.append(f"    worst class set by: {s.worst_reason}")
     lines.append("")
     lines.append("CAUTION: " + report.caution)
     return "\n".join(lines)

@@ -32,11 +32,14 @@ Ranking ("what best means", :data:`CRITERIA`; lower criterion value is better):
   (else no value).
 
 A passage is *within limits* when it lies inside the forecast, every sample has results (calm
-samples with Hs = 0 count as fine), no sample is above ``max_class`` and no IMO
-MSC.1/Circ.1228 guidance flag (:data:`.flags.SAFETY_FLAGS`) is raised. Rows are ranked within
-their own source (and within the robust rows) over every departure and speed: complete rows
-(inside the forecast, every sample computed) first, then by criterion value (rows without
-value last), then hours above ``max_class``, worst MSI, departure, speed.
+samples with Hs = 0 count as fine), no sample is above ``max_class``, no seakeeping criterion
+is exceeded and no IMO MSC.1/Circ.1228 guidance flag graded "danger" is raised
+(:data:`.flags.HARD_LIMIT_FLAGS`). Advisory guidance flags are shown but do not veto. Rows are
+ranked within their own source (and within the robust rows) over every departure and speed:
+rows within limits first, then complete rows (inside the forecast, every sample computed), then
+by criterion value (rows without value last), then hours above ``max_class``, worst MSI,
+departure, speed. So the recommendation is a departure within limits whenever one exists; its
+text says which limit rules out the other departures (:func:`limit_reason`).
 
 Robustness across sources: besides one row per source there is one row per departure and speed
 with source :data:`ROBUST_SOURCE`: every figure is the worst over the sources (per sample the
@@ -59,7 +62,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from ..comfort.exposure import NOT_COMPUTED_CLASS, dwell_s, hours_in_classes, msdv_at_end
-from ..flags import CAUTION, NOT_COMPUTED_FLAGS, SAFETY_FLAGS, SampleFlag, flag_codes
+from ..flags import CAUTION, DANGER_FLAGS, HARD_LIMIT_FLAGS, SAFETY_FLAGS, UNCLASSED_FLAGS, SampleFlag, flag_codes
 from ..passage.plan import PassagePlan, as_utc_datetime64, plan_passage
 from ..passage.progress import Progress, Span
 from ..passage.respond import respond_motions
@@ -86,6 +89,7 @@ __all__ = [
     "Recommendation",
     "SweepResult",
     "sweep_departures",
+    "limit_reason",
 ]
 
 CRITERIA: Tuple[str, ...] = ("worst_msi", "hours_above", "dose", "earliest_ok")
@@ -98,6 +102,9 @@ CRITERION_LABELS: Dict[str, str] = {
     "earliest_ok": "earliest departure that stays within limits",
 }
 CRITERION_UNITS: Dict[str, str] = {"worst_msi": "%", "hours_above": "h", "dose": "m/s^1.5", "earliest_ok": "h"}
+
+SAFETY_ADVISORY: int = int(SAFETY_FLAGS)
+"""Guidance flags shown as advisories in the recommendation (any grade)."""
 
 ROBUST_SOURCE: str = "ALL (worst case)"
 """Source name of the robust rows (worst case over every source)."""
@@ -197,7 +204,8 @@ class SweepRow:
     passage; ``n_missing`` samples without results (calm Hs = 0 samples not counted);
     ``criterion_value`` in :data:`CRITERION_UNITS` (NaN = no value, e.g. not within limits for
     ``earliest_ok``); ``crit_spread``, ``msi_spread``: largest minus smallest over the sources
-    (robust rows only, NaN elsewhere or where a source has no value).
+    (robust rows only, NaN elsewhere or where a source has no value); ``limit_driver`` what set
+    the class of the worst sample (:data:`..comfort.verdict.DRIVERS` index, -1 none).
     """
 
     rank: int
@@ -221,6 +229,7 @@ class SweepRow:
     criterion_value: float
     crit_spread: float = float("nan")
     msi_spread: float = float("nan")
+    limit_driver: int = -1
 
     @property
     def is_robust(self) -> bool:
@@ -297,6 +306,7 @@ class SweepResult:
     source_time_ranges: Tuple[Tuple[np.datetime64, np.datetime64], ...] = ()
     notes: Tuple[str, ...] = ()
     caution: str = field(default=CAUTION)
+    limit_driver: Optional[NDArray[np.int8]] = None
 
     @property
     def n_departures(self) -> int:
@@ -334,11 +344,13 @@ class _Block:
     flags: NDArray[np.int64]
     n_missing: NDArray[np.int64]
     comfort_class: NDArray[np.int8]
+    limit_driver: NDArray[np.int8]
 
 
 def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDArray[np.int64],
-            missing: NDArray[np.bool_], elapsed_s: FloatArray) -> _Block:
-    """Reduce (D, n) per-sample arrays to per-departure figures (module docstring)."""
+            missing: NDArray[np.bool_], elapsed_s: FloatArray, driver: NDArray[np.int8]) -> _Block:
+    """Reduce (D, n) per-sample arrays to per-departure figures (module docstring); the
+    driver of the worst-class sample."""
     m = np.where(np.isfinite(msi), msi, -np.inf)
     worst_idx = np.argmax(m, axis=1).astype(np.int64)
     worst = m[np.arange(cls.shape[0]), worst_idx]
@@ -349,6 +361,7 @@ def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDAr
         hours_missing=hours_missing, msdv_arrival=msdv_at_end(elapsed_s, aw),
         flags=np.bitwise_or.reduce(flags, axis=1).astype(np.int64),
         n_missing=missing.sum(axis=1).astype(np.int64), comfort_class=cls.astype(np.int8),
+        limit_driver=np.take_along_axis(driver, np.argmax(cls, axis=1)[:, None], axis=1)[:, 0].astype(np.int8),
     )
 
 
@@ -371,7 +384,7 @@ def _outside_block(shape: Tuple[int, int], elapsed_s: FloatArray) -> _Block:
     """Departures none of whose samples lie in the source's time range: all marked OFFTIME."""
     return _reduce(np.full(shape, NOT_COMPUTED_CLASS, dtype=np.int64), np.full(shape, np.nan),
                    np.full(shape, np.nan), np.full(shape, int(SampleFlag.OUTSIDE_TIME), dtype=np.int64),
-                   np.ones(shape, dtype=bool), elapsed_s)
+                   np.ones(shape, dtype=bool), elapsed_s, np.full(shape, -1, dtype=np.int8))
 
 
 def _run_chunk(plan: PassagePlan, eta: NDArray[np.datetime64], src: object, setup: _Setup, span: Span,
@@ -391,13 +404,13 @@ def _run_chunk(plan: PassagePlan, eta: NDArray[np.datetime64], src: object, setu
                           progress=span.part(0.4, 1.0))
     notes.extend(f"{name}: {n_}" for n_ in sea.notes)
     # calm samples (Hs = 0, no motions to compute) are not missing data
-    calm = ~mot.computed & np.isfinite(sea.hs_m) & (sea.hs_m <= 0.0) & ((mot.flags & int(NOT_COMPUTED_FLAGS)) == 0)
+    calm = ~mot.computed & np.isfinite(sea.hs_m) & (sea.hs_m <= 0.0) & ((mot.flags & int(UNCLASSED_FLAGS)) == 0)
 
     def back(a: NDArray) -> NDArray:
         return a[inv].reshape(shape)
 
     block = _reduce(back(mot.comfort_class), back(mot.outputs["msi_pct"]), back(mot.outputs["vacc_wf_rms_m_s2"]),
-                    back(mot.flags), back(~mot.computed & ~calm), plan.elapsed_s)
+                    back(mot.flags), back(~mot.computed & ~calm), plan.elapsed_s, back(mot.class_driver))
     return block, mot.station_name, mot.method
 
 
@@ -444,14 +457,15 @@ def _criterion_values(criterion: str, worst_msi: FloatArray, hours_above: FloatA
     return np.where(within, offset_h, np.nan)
 
 
-def _rank(complete: NDArray[np.bool_], value: FloatArray, hours_above: FloatArray, worst_msi: FloatArray,
-          dep_index: NDArray[np.int64], speed_index: NDArray[np.int64]) -> NDArray[np.int64]:
-    """1-based ranks: complete first, then value (NaN last), hours above, worst MSI, departure, speed."""
+def _rank(within: NDArray[np.bool_], complete: NDArray[np.bool_], value: FloatArray, hours_above: FloatArray,
+          worst_msi: FloatArray, dep_index: NDArray[np.int64], speed_index: NDArray[np.int64]) -> NDArray[np.int64]:
+    """1-based ranks: within limits first, then complete, value (NaN last), hours above, worst
+    MSI, departure, speed."""
     def key(a: FloatArray) -> FloatArray:
         return np.where(np.isfinite(a), a, np.inf)
 
     order = np.lexsort((speed_index, dep_index, key(worst_msi), key(hours_above), key(value),
-                        (~complete).astype(int)))
+                        (~complete).astype(int), (~within).astype(int)))
     ranks = np.empty(order.size, dtype=np.int64)
     ranks[order] = np.arange(1, order.size + 1)
     return ranks
@@ -479,6 +493,40 @@ def _fmt_v(v: float, unit: str) -> str:
     return f"{v:.{digits}f} {unit}"
 
 
+def limit_reason(row: SweepRow, max_class: int) -> str:
+    """The limit that puts ``row`` outside limits, in words ('' when within limits), in the
+    order: forecast coverage, missing results, danger-graded guidance, exceeded criterion,
+    comfort class above ``max_class`` (naming the measure that set the class)."""
+    from ..comfort.indices import COMFORT_CLASS_LABELS
+    from ..comfort.verdict import DRIVERS
+
+    if row.within_limits:
+        return ""
+    if not row.in_forecast:
+        return "outside the forecast's time coverage"
+    if row.n_missing:
+        return "samples without results"
+    if row.flags & int(DANGER_FLAGS):
+        return f"danger-graded IMO guidance ({flag_codes(row.flags & int(DANGER_FLAGS))})"
+    what = DRIVERS[row.limit_driver] if 0 <= row.limit_driver < len(DRIVERS) else ""
+    if row.flags & int(SampleFlag.CRITERIA_EXCEEDED):
+        return f"{what} criterion exceeded" if row.limit_driver > 0 else "a seakeeping criterion exceeded"
+    return f"comfort class above '{COMFORT_CLASS_LABELS[max_class]}'" + (f" ({what})" if what else "")
+
+
+def _ruled_out(robust: Sequence[SweepRow], max_class: int) -> str:
+    """'ruled out: 12 by lateral acc. criterion exceeded, 3 by ...' over the robust rows."""
+    counts: Dict[str, int] = {}
+    for r in robust:
+        why = limit_reason(r, max_class)
+        if why:
+            counts[why] = counts.get(why, 0) + 1
+    if not counts:
+        return ""
+    parts = [f"{n} by {why}" for why, n in sorted(counts.items(), key=lambda kv: -kv[1])]
+    return f"{sum(counts.values())} of {len(robust)} departure/speed combinations are ruled out: " + "; ".join(parts) + "."
+
+
 def _recommend(rows: Sequence[SweepRow], deps: NDArray[np.datetime64], robust_ok: NDArray[np.bool_],
                speeds: Sequence[float], criterion: str, max_class: int, n_sources: int) -> Recommendation:
     from ..comfort.indices import COMFORT_CLASS_LABELS
@@ -500,25 +548,29 @@ def _recommend(rows: Sequence[SweepRow], deps: NDArray[np.datetime64], robust_ok
             crit += f" (spread between sources {_fmt_v(best.crit_spread, unit)})"
     parts = [head + (": " + crit if crit else "") + "."]
     if best.within_limits:
-        parts.append(f"It stays at or below class '{label}' throughout, inside the forecast, without IMO guidance flags.")
+        parts.insert(0, "Go.")
+        parts.append(f"It stays at or below class '{label}' throughout, inside the forecast, with no criterion "
+                     "exceeded and no danger-graded IMO guidance.")
+        adv = best.flags & int(SAFETY_ADVISORY)
+        if adv:
+            parts.append(f"Advisory guidance shown, no veto: {flag_codes(adv)}.")
     else:
-        why = []
-        if not best.in_forecast:
-            why.append("the passage runs outside the forecast's time coverage")
-        if best.n_missing:
-            why.append(f"{best.n_missing} samples have no results")
-        if best.hours_above > 0:
-            why.append(f"{best.hours_above:.1f} h above class '{label}'")
-        if best.flags & int(SAFETY_FLAGS):
-            why.append(f"guidance flags {flag_codes(best.flags & int(SAFETY_FLAGS))}")
         parts.insert(0, f"No departure stays within limits in {srcs}; the least bad is shown.")
-        parts.append("Not within limits: " + "; ".join(why) + ".")
-    parts.append(f"Worst MSI {_fmt_v(best.worst_msi_pct, '%')} at {_fmt_v(best.worst_msi_dist_nm, 'NM')} "
-                 f"({_fmt_t(best.worst_msi_utc)}); dose at arrival {_fmt_v(best.msdv_arrival, 'm/s^1.5')}, "
-                 f"share who may vomit {_fmt_v(best.sick_pct_arrival, '%')}.")
+        parts.append(f"Not within limits: {limit_reason(best, max_class)}.")
+    parts.append(f"Worst MSI (2 h exposure) {_fmt_v(best.worst_msi_pct, '%')} at "
+                 f"{_fmt_v(best.worst_msi_dist_nm, 'NM')} ({_fmt_t(best.worst_msi_utc)}); dose at arrival "
+                 f"{_fmt_v(best.msdv_arrival, 'm/s^1.5')}, share who may vomit over the {best.duration_h:.1f} h "
+                 f"passage {_fmt_v(best.sick_pct_arrival, '%')}.")
     if wins:
+        here = [w for w in wins if w[0] <= best.depart_utc <= w[1]]
+        if here:
+            a, b = here[0]
+            parts.append(f"Best window: {_fmt_t(a)}" + ("" if a == b else f" to {_fmt_t(b)}") + ".")
         txt = ", ".join(_fmt_t(a) if a == b else f"{_fmt_t(a)} to {_fmt_t(b)}" for a, b in wins)
         parts.append(f"Departures at {best.speed_kn:g} kn within limits in {srcs}: {txt}.")
+    ruled = _ruled_out(robust, max_class)
+    if ruled:
+        parts.append(ruled)
     return Recommendation(
         depart_utc=best.depart_utc, speed_kn=best.speed_kn, arrive_utc=best.arrive_utc, criterion=criterion,
         criterion_value=best.criterion_value, crit_spread=best.crit_spread, within_limits=best.within_limits,
@@ -638,8 +690,8 @@ def _judge(fig: Dict[str, NDArray], criterion: str, max_class: int, in_forecast:
     fin = np.isfinite(msdv)
     sick[fin] = vomiting_share_pct(msdv[fin])
     above = fig["hours_class"][..., max_class + 1:].sum(axis=-1)
-    safety = (fig["flags"] & int(SAFETY_FLAGS)) != 0
-    within = in_forecast & (fig["n_missing"] == 0) & (above <= 0.0) & ~safety
+    hard = (fig["flags"] & int(HARD_LIMIT_FLAGS)) != 0
+    within = in_forecast & (fig["n_missing"] == 0) & (above <= 0.0) & ~hard
     # a sample above max_class with zero dwell (single-sample passage) still counts
     within &= ~np.any(fig["comfort_class"] > max_class, axis=-1)
     crit = _criterion_values(criterion, fig["worst_msi_pct"], above, msdv, within,
@@ -667,13 +719,15 @@ def _robust(fig: Dict[str, NDArray], plans: Sequence[PassagePlan], criterion: st
     hours = [hours_in_classes(rcls[s], dwell_s(p.elapsed_s)) for s, p in enumerate(plans)]
     worst = fig["worst_msi_pct"]
     k_at = np.argmax(np.where(np.isfinite(worst), worst, -np.inf), axis=1)[:, None]
+    k_cls = np.argmax(cls_all.max(axis=-1), axis=1)[:, None]  # the source with the worst class
     r = dict(robust_class=rcls, hours_class=np.stack([h for h, _ in hours]),
              hours_missing=np.stack([m for _, m in hours]), worst_msi_pct=_worst_over_sources(worst),
              msdv_arrival=_worst_over_sources(fig["msdv_arrival"]),
              sick_pct_arrival=_worst_over_sources(fig["sick_pct_arrival"]),
              flags=np.bitwise_or.reduce(fig["flags"], axis=1), n_missing=fig["n_missing"].max(axis=1),
              in_forecast=fig["in_forecast"].all(axis=1), within_limits=fig["within_limits"].all(axis=1),
-             crit_spread=_spread_over_sources(fig["criterion_value"]), msi_spread=_spread_over_sources(worst))
+             crit_spread=_spread_over_sources(fig["criterion_value"]), msi_spread=_spread_over_sources(worst),
+             limit_driver=np.take_along_axis(fig["limit_driver"], k_cls, axis=1)[:, 0])
     fin = np.isfinite(r["worst_msi_pct"])
     r["worst_msi_dist_nm"] = np.where(fin, np.take_along_axis(fig["worst_msi_dist_nm"], k_at, axis=1)[:, 0], np.nan)
     r["worst_msi_utc"] = np.where(fin, np.take_along_axis(fig["worst_msi_utc"], k_at, axis=1)[:, 0], np.datetime64("NaT"))
@@ -692,18 +746,19 @@ def _ranks_of(f: Dict[str, NDArray]) -> NDArray[np.int64]:
     n_s, n_d = f["worst_msi_pct"].shape
     si, di = np.meshgrid(np.arange(n_s), np.arange(n_d), indexing="ij")
     complete = f["in_forecast"] & (f["n_missing"] == 0)
-    return _rank(complete.ravel(), f["criterion_value"].ravel(), f["hours_above"].ravel(),
+    return _rank(f["within_limits"].ravel(), complete.ravel(), f["criterion_value"].ravel(), f["hours_above"].ravel(),
                  f["worst_msi_pct"].ravel(), di.ravel(), si.ravel()).reshape(n_s, n_d)
 
 
 _ROW_FIELDS = ("worst_msi_pct", "worst_msi_dist_nm", "worst_msi_utc", "hours_missing", "hours_above",
                "msdv_arrival", "sick_pct_arrival", "flags", "n_missing", "in_forecast", "within_limits",
-               "criterion_value")
+               "criterion_value", "limit_driver")
 
 
 def _row(f: Dict[str, NDArray], at: Tuple[int, ...], **fixed: object) -> SweepRow:
     """One table row from (S, [K,] D) figures at index ``at``."""
-    kinds = {"flags": int, "n_missing": int, "in_forecast": bool, "within_limits": bool, "worst_msi_utc": None}
+    kinds = {"flags": int, "n_missing": int, "in_forecast": bool, "within_limits": bool, "worst_msi_utc": None,
+             "limit_driver": int}
     kw: Dict[str, object] = {}
     for name in _ROW_FIELDS + tuple(k for k in ("crit_spread", "msi_spread") if k in f):
         v = f[name][at]
