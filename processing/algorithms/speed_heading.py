@@ -10,17 +10,16 @@ engine: one sampling, one response call); a table and an HTML report with a pola
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 from typing import Any, Dict, List, Optional, Tuple
 
 from qgis.core import (
     QgsCoordinateReferenceSystem,
     QgsFeature,
-    QgsFeatureSink,
     QgsFields,
     QgsProcessing,
     QgsProcessingContext,
     QgsProcessingException,
-    QgsProcessingFeedback,
     QgsProcessingParameterDateTime,
     QgsProcessingParameterDefinition,
     QgsProcessingParameterFeatureSink,
@@ -33,7 +32,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QVariant
 
 from . import common
-from .base import SeawayAlgorithm
+from .base import Run, SeawayAlgorithm
 from ..core.flags import CAUTION
 from ..core.validation import SeawayInputError, show
 
@@ -83,6 +82,15 @@ def _attributes(res: Any, k: int) -> List[Any]:
         else:
             out.append(str(v) or QVariant())
     return out
+
+
+@dataclass(frozen=True)
+class PolarJob:
+    """Parsed parameters: the shared passage settings, the point and its options, the inputs."""
+
+    settings: common.PassageSettings
+    point: Dict[str, Any]
+    inputs: List[str]
 
 
 class SpeedHeadingAlgorithm(SeawayAlgorithm):
@@ -159,59 +167,54 @@ class SpeedHeadingAlgorithm(SeawayAlgorithm):
                     speeds=speeds, step=self.parameterAsDouble(parameters, HEADING_STEP_DEG, context),
                     course=cur_v[0], speed=cur_v[1])
 
-    def processAlgorithm(  # noqa: N802
-        self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback
-    ) -> Dict[str, Any]:
+    OUTPUT_FILES = (OUTPUT_TABLE, OUTPUT_REPORT)
+
+    def read_settings(self, run: Run) -> PolarJob:
+        settings = common.parse_passage_settings(self, run.parameters, run.context)
+        inputs = [*settings.sea_state_paths, settings.vessel_spec] + ([settings.depth_path] if settings.depth_path else [])
+        return PolarJob(settings, self._inputs(run.parameters, run.context), inputs)
+
+    def compute(self, run: Run, job: PolarJob) -> Any:
         from ..core.passage.polar import speed_heading
 
-        feedback = feedback or QgsProcessingFeedback()
-        settings = common.parse_passage_settings(self, parameters, context)
-        ins = self._inputs(parameters, context)
-        table_dest = self.parameterAsOutputLayer(parameters, OUTPUT_TABLE, context)
-        report_path = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
-        inputs = [*settings.sea_state_paths, settings.vessel_spec] + ([settings.depth_path] if settings.depth_path else [])
-        common.check_outputs([(OUTPUT_TABLE, table_dest), (OUTPUT_REPORT, report_path)], inputs)
-        sources, depth = common.open_sources(settings, feedback), common.open_depth(settings)
-        try:
-            res = speed_heading(
-                ins["lon"], ins["lat"], ins["time"], sources, settings.profile, speeds_kn=ins["speeds"],
-                heading_step_deg=ins["step"], station=settings.station, depth=depth, gamma=settings.gamma,
-                spread_s=settings.spread_s, long_crested=settings.long_crested, method=settings.method,
+        s, ins = job.settings, job.point
+        with common.opened_sea(s, run.feedback) as (sources, depth), common.input_error(""):
+            return speed_heading(
+                ins["lon"], ins["lat"], ins["time"], sources, s.profile, speeds_kn=ins["speeds"],
+                heading_step_deg=ins["step"], station=s.station, depth=depth, gamma=s.gamma,
+                spread_s=s.spread_s, long_crested=s.long_crested, method=s.method,
                 current_course_deg=ins["course"], current_speed_kn=ins["speed"])
-        except SeawayInputError as exc:
-            raise QgsProcessingException(str(exc)) from exc
-        finally:
-            for s in sources:
-                s.close()
-            if depth is not None:
-                depth.close()
-        return self._write(res, parameters, context, feedback, report_path)
 
-    def _write(self, res: Any, parameters: Dict[str, Any], context: QgsProcessingContext,
-               feedback: QgsProcessingFeedback, report_path: str) -> Dict[str, Any]:
-        """The table, the report and the log lines."""
+    def write_sinks(self, run: Run, job: PolarJob, res: Any) -> Dict[str, Any]:
+        from ..styling import OutputStyle, apply_metadata_only
+
+        fields = table_fields()
+        features = (self._feature(fields, res, k) for k in range(res.n))
+        style = OutputStyle("Seaway Comfort speed and course table", CAUTION, apply_metadata_only, table=True)
+        table_id = run.write_sink(OUTPUT_TABLE, fields, QgsWkbTypes.Type.NoGeometry,
+                                  QgsCoordinateReferenceSystem(), features, style)
+        return {OUTPUT_TABLE: table_id}
+
+    @staticmethod
+    def _feature(fields: QgsFields, res: Any, k: int) -> QgsFeature:
+        f = QgsFeature(fields)
+        f.setAttributes(_attributes(res, k))
+        return f
+
+    def write_report(self, run: Run, job: PolarJob, res: Any) -> Dict[str, Any]:
+        """The log lines and the HTML report."""
         from ..core.flags import flag_codes
         from ..core.reports.polar import render_speed_heading_html
 
-        fields = table_fields()
-        sink, table_id = self.parameterAsSink(parameters, OUTPUT_TABLE, context, fields, QgsWkbTypes.Type.NoGeometry,
-                                              QgsCoordinateReferenceSystem())
-        if sink is None:
-            raise QgsProcessingException("OUTPUT_TABLE could not be created: check the path")
-        for k in range(res.n):
-            f = QgsFeature(fields)
-            f.setAttributes(_attributes(res, k))
-            sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
-        del sink
         if res.sea.flags[0]:
-            feedback.pushWarning(f"sea state at the point: {flag_codes(int(res.sea.flags[0]))}")
-        feedback.pushInfo(f"{res.n} speed x course cells; {int((res.comfort_class >= 0).sum())} classed. {CAUTION}")
-        out: Dict[str, Any] = {OUTPUT_TABLE: table_id}
-        if report_path:
-            try:
-                with open(report_path, "w", encoding="utf-8") as fh:
-                    fh.write(render_speed_heading_html(res))
-            except OSError as exc:
-                raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
-            out[OUTPUT_REPORT] = report_path
-        return out
+            run.feedback.pushWarning(f"sea state at the point: {flag_codes(int(res.sea.flags[0]))}")
+        run.feedback.pushInfo(f"{res.n} speed x course cells; {int((res.comfort_class >= 0).sum())} classed. {CAUTION}")
+        report_path = run.file_output(OUTPUT_REPORT)
+        if not report_path:
+            return {}
+        try:
+            with open(report_path, "w", encoding="utf-8") as fh:
+                fh.write(render_speed_heading_html(res))
+        except OSError as exc:
+            raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
+        return {OUTPUT_REPORT: report_path}

@@ -145,3 +145,11 @@ def test_dialog_output_onto_an_input_is_refused(seaway_provider, route, sea, tmp
     params.update(OUTPUT_POINTS=str(tmp_path / "same"), OUTPUT_SEGMENTS=str(tmp_path / "same.gpkg"))
     with pytest.raises(QgsProcessingException, match="must be different files"):  # QGIS adds .gpkg to "same"
         _run_like_dialog("seawaycomfort:routecomfort", params)
+
+
+def test_speedheading_temporary_table_loads_cleanly(seaway_provider, sea):
+    """The speed x course table through the dialog's result handling (no extra memory layer)."""
+    params = {"SEA_STATE": [sea], "POINT": "0.5,0.5 [EPSG:4326]", "TIME": "2030-06-01T06:00:00Z",
+              "VESSEL": "coastal_survey_35m", "SPEEDS_KN": "0, 6, 12", "HEADING_STEP_DEG": 30.0,
+              "OUTPUT_TABLE": TEMP}
+    _check(*_run_like_dialog("seawaycomfort:speedheading", params), sinks=("OUTPUT_TABLE",))
