@@ -40,10 +40,14 @@ def layer_tree_view(qgis_app, qgis_iface):  # noqa: ARG001 (fixtures start QGIS)
 
     model = QgsLayerTreeModel(QgsProject.instance().layerTreeRoot())
     view = QgsLayerTreeView()
+    view.resize(300, 400)
     view.setModel(model)
     original = qgis_iface.layerTreeView
     qgis_iface.layerTreeView = lambda: view
     yield view
     qgis_iface.layerTreeView = original
+    QgsProject.instance().removeAllMapLayers()
     view.setModel(None)
-    del view, model
+    view.deleteLater()
+    model.deleteLater()
+    qgis_app.processEvents()
