@@ -27,9 +27,9 @@ about 94, 82, 68, 45, 19 (more than 10 units apart, so the order reads without h
 NOT_COMPUTED_COLOUR: str = "#9a9a9a"
 """Colour of samples without results (no sea data, outside the grid or the time range)."""
 
-SHARE_PALETTE: Tuple[str, ...] = ("#f1f5e4", "#c8e0a0", "#8cbd62", "#4a8a3a", "#1c4f24")
+SHARE_PALETTE: Tuple[str, ...] = ("#f2f2c4", "#c8e0a0", "#8cbd62", "#4a8a3a", "#1c4f24")
 """Fill colours for shares of acceptable time in [0, .2), [.2, .4), [.4, .6), [.6, .8), [.8, 1];
-CIE L* about 96, 86, 72, 52, 30 (light = low share, dark = high share)."""
+CIE L* about 94, 86, 71, 52, 29 (light = low share, dark = high share)."""
 
 SHARE_BOUNDS: Tuple[float, ...] = (0.2, 0.4, 0.6, 0.8)
 """Upper bounds of the first four share steps (share 0..1)."""

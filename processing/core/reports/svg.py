@@ -287,7 +287,7 @@ def vmarker(f: Frame, x: float, label: str, colour: str = "#1d4e6b") -> str:
     anchor = "end" if px > f.left + 0.7 * f.width else "start"
     dx = -4 if anchor == "end" else 4
     return (f'<path d="M{fmt_px(px)} {fmt_px(f.top - 12)}V{fmt_px(f.bottom)}" stroke="{colour}" stroke-width="2.2" '
-            f'stroke-dasharray="6 3" fill="none"/>' + text(px + dx, f.top - 4, label, anchor=anchor, colour=colour,
+            f'stroke-dasharray="9 3" fill="none"/>' + text(px + dx, f.top - 4, label, anchor=anchor, colour=colour,
                                                           bold=True))
 
 
