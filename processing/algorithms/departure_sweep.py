@@ -414,7 +414,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
                 + ("long-crested" if settings.long_crested else f"cos-2s spreading s = {settings.spread_s:g}"),
                 method=result.method,
             )
-            report = build_sweep_report(result, rinputs, warnings=warnings)
+            report = build_sweep_report(result, rinputs, warnings=warnings, route_lonlat=(leg.lon_deg, leg.lat_deg))
             try:
                 write_sweep_html(report_path, report)
             except OSError as exc:
