@@ -320,6 +320,11 @@ def test_report_of_2000_short_legs_is_bounded():
     for f in c.figs:
         paths = [e for e in f["elements"] if e[0] == "path"]
         assert len(paths) < 40, f["label"]  # one path per colour, not per leg
+    # thinned lines still draw segments (legs are separated by gaps narrower than a pixel)
+    for start in ("Significant wave height", "Motion sickness incidence", "Vertical (solid)"):
+        f = _fig(c, start)
+        drawn = [a for t, a in f["elements"] if t == "path" and a.get("stroke-width") == "1.6"]
+        assert drawn and all(a["d"].count("L") >= 100 for a in drawn), start
     # the note shared by all legs is listed once, with its count
     assert text.count("no bathymetry given") == 1 and "(2000 legs)" in text
     # hour by hour: 2000 legs one hour apart = 2000 h: 12 h bins, at most 240 rows

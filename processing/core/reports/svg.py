@@ -178,23 +178,24 @@ def axes(f: Frame, xticks: Sequence[float], xlabels: Sequence[str], yticks: Sequ
 
 
 def thin(x: np.ndarray, y: np.ndarray, max_points: int = MAX_POINTS) -> Tuple[np.ndarray, np.ndarray]:
-    """At most about ``max_points`` points: per bucket the first, lowest, highest and last one
-    (NaN gaps kept as gaps when they fall on a kept point)."""
+    """At most about ``max_points`` points: per bucket the first, lowest, highest and last
+    finite point; a bucket without any finite value keeps one NaN (a visible gap). Gaps
+    narrower than a bucket (under a pixel or two) are bridged."""
     n = x.size
     if n <= max_points:
         return x, y
     edges = np.linspace(0, n, max_points // 4 + 1).astype(int)
-    keep = set(edges[:-1].tolist()) | set((edges[1:] - 1).tolist())
-    yy = np.where(np.isfinite(y), y, np.nan)
+    fin = np.isfinite(y) & np.isfinite(x)
+    keep: List[int] = []
     for a, b in zip(edges[:-1], edges[1:]):
-        seg = yy[a:b]
-        if np.isfinite(seg).any():
-            keep.add(a + int(np.nanargmin(seg)))
-            keep.add(a + int(np.nanargmax(seg)))
-        if np.isnan(seg).any():
-            keep.add(a + int(np.flatnonzero(np.isnan(seg))[0]))
-    idx = np.array(sorted(keep))
-    return x[idx], y[idx]
+        idx = np.flatnonzero(fin[a:b]) + a
+        if idx.size == 0:
+            keep.append(a)
+            continue
+        seg = y[idx]
+        keep += [int(idx[0]), int(idx[np.argmin(seg)]), int(idx[np.argmax(seg)]), int(idx[-1])]
+    pick = np.unique(np.array(keep))
+    return x[pick], y[pick]
 
 
 def _path_d(px: np.ndarray, py: np.ndarray) -> str:
