@@ -311,7 +311,8 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
                                RECOMMENDED_UTC: str(np.datetime64(result.recommendation.depart_utc, "s")) + "Z"}
         report_path = run.file_output(OUTPUT_REPORT)
         if report_path:
-            report = build_sweep_report(result, report_inputs(job, result), warnings=warnings)
+            report = build_sweep_report(result, report_inputs(job, result), warnings=warnings,
+                                        route_lonlat=(job.leg.lon_deg, job.leg.lat_deg))
             try:
                 write_sweep_html(report_path, report)
             except OSError as exc:

@@ -8,7 +8,6 @@ html.escape semantics (Python standard library) for the escaping; the PNG signat
 """
 from __future__ import annotations
 
-import base64
 import csv
 import io
 import html
@@ -60,8 +59,7 @@ def test_cli_writes_same_numbers_as_library(files, tmp_path):
         assert float(r["window_probability"]) == pytest.approx(lib.window_probability[k], abs=5e-5)
     page = rep.read_text()
     assert page.count(html.escape(CAUTION)) == 2  # head and foot, escaped (html.escape)
-    imgs = re.findall(r"data:image/png;base64,([A-Za-z0-9+/=]+)", page)
-    assert len(imgs) == 2 and all(base64.b64decode(i)[:8] == b"\x89PNG\r\n\x1a\n" for i in imgs)
+    assert "data:image" not in page and page.count("<svg ") == 3  # map, window bars, heat map
     assert "<script" not in page
 
 
@@ -106,5 +104,56 @@ def test_report_escapes_and_tables_without_plots(files):
                           backend=C.SerialBackend())
     page = render_climate_html(r, title="<b>T&C</b>", plots=False, sources=["<x>.nc"])
     assert "&lt;b&gt;T&amp;C&lt;/b&gt;" in page and "&lt;x&gt;.nc" in page  # html.escape
-    assert "data:image/png" not in page and "NM</th>" in page  # the heat map as a table instead
+    assert "<svg" not in page and "Per month" in page
     assert [share_bin(v) for v in (0.0, 0.19, 0.2, 0.79, 0.8, 1.0, float("nan"))] == [0, 0, 1, 3, 4, 4, -1]
+
+
+def _lab(hex_colour):
+    """CIE 1976 L*a*b* (D65) of an sRGB colour: sRGB decoding per IEC 61966-2-1:1999, XYZ with
+    the sRGB matrix of IEC 61966-2-1, Lab per CIE 15:2004 (ISO/CIE 11664-4)."""
+    h = hex_colour.lstrip("#")
+    c = [int(h[i:i + 2], 16) / 255.0 for i in (0, 2, 4)]
+    r, g, b = [x / 12.92 if x <= 0.04045 else ((x + 0.055) / 1.055) ** 2.4 for x in c]
+    xyz = (0.4124 * r + 0.3576 * g + 0.1805 * b, 0.2126 * r + 0.7152 * g + 0.0722 * b,
+           0.0193 * r + 0.1192 * g + 0.9505 * b)
+    white = (0.95047, 1.0, 1.08883)
+    f = [(v / w) ** (1 / 3) if v / w > 216 / 24389 else (24389 / 27 * v / w + 16) / 116 for v, w in zip(xyz, white)]
+    return 116 * f[1] - 16, 500 * (f[0] - f[1]), 200 * (f[1] - f[2])
+
+
+def test_share_palette_is_its_own_sequence():
+    """Percentages never borrow a comfort colour: every share colour is at least 15 CIE76 units
+    from every class colour, and the five steps grow darker by at least 8 L* each (thresholds:
+    common practice, no source)."""
+    from seaway_comfort.processing.core.reports.palette import COMFORT_PALETTE, SHARE_PALETTE
+
+    for s_col in SHARE_PALETTE:
+        for c_col in COMFORT_PALETTE:
+            d = sum((a - b) ** 2 for a, b in zip(_lab(s_col), _lab(c_col))) ** 0.5
+            assert d >= 15.0, (s_col, c_col, d)
+    light = [_lab(c)[0] for c in SHARE_PALETTE]
+    assert all(a - b >= 8.0 for a, b in zip(light, light[1:])), light
+    assert _lab("#ffffff")[0] == pytest.approx(100.0, abs=1e-6)  # CIE 15:2004: white L* = 100
+
+
+def test_report_month_bars_days_and_plain_words(files):
+    from seaway_comfort.processing.core.reports.climate import _bars_svg
+
+    r = C.compute_climate([-9, -7], [41, 43], files, "coastal_survey_35m", speed_kn=10, months="1,7",
+                          backend=C.SerialBackend())
+    page = render_climate_html(r)
+    # mean wait in days (hours / 24), never hours
+    for h in r.mean_wait_h:
+        if np.isfinite(h):
+            assert f">{h / 24:.1f} d<" in page
+    assert not re.search(r">\d+ h<", page)
+    for term in ("wait_censored", "departures_past_end", "departures_known"):
+        assert term not in page
+    # one bar per month with a value, even at 0 % (a thin bar and its '0 %' label)
+    svg = _bars_svg(r)
+    n_val = int(np.isfinite(r.window_probability).sum())
+    assert svg.count("<rect ") - 1 == n_val  # minus the plot frame
+    n_zero = int((np.asarray(r.window_probability) == 0).sum())
+    assert svg.count(">0 %<") == n_zero
+    verdict = page[page.index('id="verdict"'):page.index("</section>")]
+    assert "Best month:" in verdict and "Worst month:" in verdict and "Ruling measure:" in verdict

@@ -124,7 +124,7 @@ def test_not_computed_samples_show_na_not_zero():
     # sample 5 (no sea data) appears as a row starting with its seq number, values n/a
     body = "".join(p.text)
     assert "n/a" in body
-    assert "not computed" in body
+    assert "no result" in body
     assert "OFFTIME" in body and "OUTRUN" in body
 
 
@@ -135,24 +135,201 @@ def test_hours_per_class_add_up():
     assert h["not computed"] == pytest.approx((1800 + 900) / 3600.0)
 
 
-def test_plots_are_embedded_png_when_matplotlib_is_present():
-    pytest.importorskip("matplotlib")
-    p = _parse(rp.render_html(_report(), plots=True))
-    assert len(p.imgs) == 1
-    src = p.imgs[0]["src"]
-    assert src.startswith("data:image/png;base64,")
-    png = base64.b64decode(src.split(",", 1)[1])
-    assert png[:8] == b"\x89PNG\r\n\x1a\n"  # PNG signature, ISO/IEC 15948 s.5.2
+class SvgCollector(HTMLParser):
+    """The <svg> figures of a page: per figure its aria-label and every element's attributes."""
+
+    def __init__(self) -> None:
+        super().__init__(convert_charrefs=True)
+        self.figs: list = []
+        self.verdict: list = []
+        self._in_verdict = 0
+        self._text: list = []
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        if tag == "svg":
+            self.figs.append({"label": a.get("aria-label", ""), "attrs": a, "elements": [], "text": []})
+        elif self.figs and not self.figs[-1].get("closed"):
+            self.figs[-1]["elements"].append((tag, a))
+        if tag == "section" and a.get("id") == "verdict":
+            self._in_verdict = 1
+
+    def handle_endtag(self, tag):
+        if tag == "svg":
+            self.figs[-1]["closed"] = True
+        if tag == "section":
+            self._in_verdict = 0
+
+    def handle_data(self, data):
+        if self.figs and not self.figs[-1].get("closed"):
+            self.figs[-1]["text"].append(data)
+        if self._in_verdict:
+            self.verdict.append(data)
 
 
-def test_report_works_without_matplotlib(monkeypatch):
-    monkeypatch.setitem(sys.modules, "matplotlib", None)
-    monkeypatch.setitem(sys.modules, "matplotlib.figure", None)
-    monkeypatch.setitem(sys.modules, "matplotlib.backends.backend_agg", None)
-    text = rp.render_html(_report(), plots=True)
-    p = _parse(text)
-    assert p.errors == [] and p.imgs == []
-    assert CAUTION in "".join(p.text)
+def _svgs(text: str) -> SvgCollector:
+    c = SvgCollector()
+    c.feed(text)
+    c.close()
+    return c
+
+
+def _fig(c: SvgCollector, start: str) -> dict:
+    hits = [f for f in c.figs if f["label"].startswith(start)]
+    assert len(hits) == 1, [f["label"] for f in c.figs]
+    return hits[0]
+
+
+def test_verdict_comes_first_and_names_worst_class_place_and_measure():
+    text = rp.render_html(_report())
+    c = _svgs(text)
+    verdict = " ".join(c.verdict)
+    assert text.index('id="verdict"') < text.index("<h2>")  # the verdict opens the page
+    # sample 3 of the hand-made leg: class 4 (punishing) at 07:30 UTC, 13.5 NM; its MSI (4 %) alone
+    # would give class 1 (steady, 2 <= MSI < 5 %), so the station's criteria set the class
+    assert "Within the station's seakeeping criteria. Worst class: punishing." in verdict
+    assert "2031-03-11 07:30 UTC, 13.5 NM along the leg" in verdict
+    assert "Ruling measure: the station's seakeeping criteria" in verdict and "would rate it steady" in verdict
+    assert "2 of 6 samples have no result" in verdict
+
+
+def test_verdict_when_a_criterion_is_exceeded():
+    r = _result()
+    flags = r.flags.copy()
+    flags[3] |= int(SampleFlag.CRITERIA_EXCEEDED)
+    r = PassageResult(**{**r.__dict__, "flags": flags})
+    rep = rp.build_report([("leg one", r)], rp.ReportInputs(created_utc="x"))
+    c = _svgs(rp.render_html(rep))
+    # sample 3 stands for 1800 s (dwell_s) = 0.5 h
+    assert " ".join(c.verdict).startswith("Not within the station's seakeeping criteria: exceeded for 0.5 h.")
+
+
+def _fills(fig: dict, attr: str) -> set:
+    return {a[attr] for tag, a in fig["elements"] if tag == "path" and a.get(attr, "none") not in ("none",)}
+
+
+def test_map_and_timeline_are_svg_coloured_by_class():
+    from seaway_comfort.processing.core.reports.palette import COMFORT_PALETTE as P, NOT_COMPUTED_COLOUR as G
+
+    text = rp.render_html(_report())
+    c = _svgs(text)
+    assert "<img" not in text and "data:image" not in text  # no raster images, nothing to fetch
+    m = _fig(c, "Map of the route")
+    assert m["attrs"]["viewbox"].startswith("0 0 ")
+    # classes per sample 0,1,2,4,-,-: segments take the worse end: steady, lively, punishing,
+    # punishing, none -> one path per colour, plus the dark casing and the grid
+    route_strokes = {a["stroke"] for tag, a in m["elements"] if tag == "path" and a.get("stroke-width") == "4"}
+    assert route_strokes == {P[1], P[2], P[4], G}
+    assert "start" in m["text"] and "end" in m["text"] and any(t.endswith(" NM (at -24.8° latitude)") for t in m["text"])
+    strip = _fig(c, "Comfort class over time")
+    assert _fills(strip, "fill") == {P[0], P[1], P[2], P[4], G}
+    assert "11 Mar 06:00" in strip["text"] and "07:00" in strip["text"] and "time (UTC)" in strip["text"]
+
+
+def test_time_axes_are_clock_time_with_units_and_complete_legends():
+    text = rp.render_html(_report())
+    body = "".join(_parse(text).text)
+    assert "hours since" not in body and "hours after" not in body
+    for unit in ("significant wave height Hs [m]", "MSI (2 h) [%]", "RMS acceleration [m/s²]"):
+        assert unit in body
+    for label in ("smooth", "steady", "lively", "taxing", "punishing", "no result (no sea data)"):
+        assert f"</span>{label}</span>" in text  # class legend: a swatch then the label
+    assert "vertical acceleration" in body and "lateral acceleration" in body
+
+
+def test_local_offset_is_stated_when_known():
+    inputs = rp.ReportInputs(created_utc="x", local_utc_offset_h=2.0)
+    text = rp.render_html(rp.build_report([("a", _result())], inputs))
+    assert "time (UTC; local time = UTC+02:00)" in text
+    assert "2031-03-11 07:30 UTC (09:30 local)" in text
+
+
+def test_no_internal_terms_reach_the_page():
+    r = _result()
+    r = PassageResult(**{**r.__dict__, "method": "exact",
+                         "notes": ("the cumulative dose (msdv_cum) leaves out 2 sample intervals",)})
+    inputs = rp.ReportInputs(created_utc="x", method="exact", extra=(("Mode with several sources", "first_valid"),))
+    text = rp.render_html(rp.build_report([("a", r)], inputs))
+    body = "".join(_parse(text).text)
+    for term in ("first_valid", "msdv_cum", "wait_censored", "departures_past_end", ">exact<"):
+        assert term not in body and term not in text, term
+    assert "first source with data at each sample" in body
+    assert "spectral integration at every sample" in body
+    assert "the cumulative dose leaves out 2 sample intervals" in body
+
+
+def test_report_never_imports_matplotlib(tmp_path):
+    """Building and writing a report leaves matplotlib unimported (fresh interpreter)."""
+    import subprocess
+    from pathlib import Path
+
+    import seaway_comfort
+
+    code = (
+        "import sys\n"
+        "sys.path.insert(0, %r)\n"
+        "import numpy as np\n"
+        "from seaway_comfort.processing.core.reports import passage as rp\n"
+        "from seaway_comfort.processing.core.reports import sweep, climate\n"
+        "import test_report as t\n"
+        "rp.write_html(%r, t._report())\n"
+        "print('matplotlib' in sys.modules)\n"
+    ) % (str(Path(__file__).parent), str(tmp_path / "r.html"))
+    env = {"PYTHONPATH": str(Path(seaway_comfort.__file__).resolve().parent.parent
+                             if False else Path(seaway_comfort.__path__[0]).parent), "PATH": "/usr/bin:/bin"}
+    out = subprocess.run([sys.executable, "-P", "-c", code], capture_output=True, text=True, env=env, timeout=120)
+    assert out.returncode == 0, out.stderr[-2000:]
+    assert out.stdout.strip() == "False"
+    assert (tmp_path / "r.html").stat().st_size > 1000
+
+
+def _many_legs(n_legs: int = 2000) -> list:
+    """A route layer of many short features, built cheaply: each leg three samples 20 min apart,
+    consecutive in time and space, classes cycling so that a few legs are much worse."""
+    base = _result(3)
+    t0 = np.datetime64("2031-03-11T06:00", "ms")
+    legs = []
+    for k in range(n_legs):
+        cls = np.array([k % 3, (k * 7) % 4, 4 if k % 97 == 0 else 1], dtype=np.int64)
+        eta = t0 + np.timedelta64(k * 60, "m") + (np.arange(3) * 20 * 60 * 1000).astype("timedelta64[ms]")
+        labels = ("smooth", "steady", "lively", "taxing", "punishing")
+        legs.append((f"feature {k}", PassageResult(**{
+            **base.__dict__, "leg": np.full(3, k), "eta_utc": eta, "comfort_class": cls,
+            "comfort_label": tuple(labels[c] for c in cls), "computed": np.ones(3, bool),
+            "msi_pct": np.array([1.0, 3.0, 10.0 + k % 97]), "flags": np.zeros(3, dtype=np.int64),
+            "hs_m": np.full(3, 1.0 + (k % 50) / 25), "vacc_rms_m_s2": np.full(3, 0.3),
+            "lon_deg": -21 + k * 0.002 + np.arange(3) * 0.0007, "lat_deg": np.full(3, -24.5) + k * 0.001,
+            "source": ("m",) * 3, "notes": ("no bathymetry given: deep water assumed everywhere",)})))
+    return legs
+
+
+def test_report_of_2000_short_legs_is_bounded():
+    """Issue: 2,000 short features wrote a 121 MB report. Bounded: < 10 MB, the worst legs in
+    full, the others aggregated, every figure present once (time is measured in tests/bench)."""
+    legs = _many_legs(2000)
+    rep = rp.build_report(legs, rp.ReportInputs(created_utc="x"))
+    text = rp.render_html(rep)
+    assert len(text.encode("utf-8")) < 10_000_000
+    assert text.count("<h3>Leg ") == rp.LEGS_IN_FULL
+    assert f"The {rp.LEGS_IN_FULL} worst of 2000 legs in full" in text
+    assert f"the {rp.OVERVIEW_MAX_ROWS} worst (by worst class, then highest MSI) are listed" in text
+    # the worst leg (punishing, MSI 106 % is impossible: legs k % 97 == 0 give MSI 10 %, class 4)
+    c = _svgs(text)
+    assert "Worst class: punishing." in " ".join(c.verdict)
+    assert len(c.figs) == 5  # map, class timeline, Hs, MSI, accelerations
+    for f in c.figs:
+        paths = [e for e in f["elements"] if e[0] == "path"]
+        assert len(paths) < 40, f["label"]  # one path per colour, not per leg
+    # thinned lines still draw segments (legs are separated by gaps narrower than a pixel)
+    for start in ("Significant wave height", "Motion sickness incidence", "Vertical (solid)"):
+        f = _fig(c, start)
+        drawn = [a for t, a in f["elements"] if t == "path" and a.get("stroke-width") == "1.6"]
+        assert drawn and all(a["d"].count("L") >= 500 and a["d"].count("M") < 20 for a in drawn), start
+    # the note shared by all legs is listed once, with its count
+    assert text.count("no bathymetry given") == 1 and "(2000 legs)" in text
+    # hour by hour: 2000 legs one hour apart = 2000 h: 12 h bins, at most 240 rows
+    i = text.index("<h2>Every 12 hours</h2>")
+    assert text[i:text.index("</table>", i)].count("<tr>") - 1 <= 240
 
 
 def test_write_html_and_text_summary(tmp_path):

@@ -3,14 +3,11 @@
 
 References: Python's ``html.parser`` (standard library) as the HTML tokenizer; the void elements
 of the WHATWG HTML Living Standard s.13.1.2 (area, base, br, col, embed, hr, img, input, link,
-meta, source, track, wbr); the PNG signature 89 50 4E 47 0D 0A 1A 0A (PNG specification,
-ISO/IEC 15948:2004 s.5.2). The sweep is run on invented uniform seas; no physics is checked here.
+meta, source, track, wbr). The sweep is run on invented uniform seas; no physics is checked here.
 """
 from __future__ import annotations
 
-import base64
 import re
-import sys
 from html.parser import HTMLParser
 
 import numpy as np
@@ -28,7 +25,6 @@ from seaway_comfort.processing.core.vessel.profile import resolve_vessel
 VOID = {"area", "base", "br", "col", "embed", "hr", "img", "input", "link", "meta", "source", "track", "wbr"}
 EVIL = '<script>alert("x")</script>&<b>'
 T0 = np.datetime64("2030-06-01T00:00", "ms")
-PNG_SIGNATURE = bytes([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A])
 
 
 class StrictParser(HTMLParser):
@@ -79,6 +75,7 @@ def result(tmp_path_factory):
 
 def _report(result, **kw):
     inputs = ReportInputs(route=EVIL, sea_state_files=("a.nc", EVIL), vessel="coastal_survey_35m")
+    kw.setdefault("route_lonlat", ([0.0, 0.5], [0.0, 0.0]))
     return sr.build_sweep_report(result, inputs, warnings=[EVIL], **kw)
 
 
@@ -100,8 +97,7 @@ def test_html_is_well_formed_and_escaped(result):
     # self-contained: images only as data: URIs, no external links
     for tag, attrs in p.starts:
         assert "href" not in attrs
-        if tag == "img":
-            assert attrs["src"].startswith("data:image/png;base64,")
+        assert "src" not in attrs
 
 
 def test_caution_heads_and_closes_the_page(result):
@@ -115,7 +111,7 @@ def test_caution_heads_and_closes_the_page(result):
 def test_recommendation_and_tables(result):
     text = sr.render_sweep_html(_report(result))
     rec = result.recommendation
-    assert "Recommended departure" in text
+    assert text.index("id=\"verdict\"") < text.index("<h2>")
     assert str(np.datetime64(rec.depart_utc, "m")).replace("T", " ") + " UTC" in text
     # one data row per table row of the result (up to MAX_TABLE_ROWS) in "All rows"; the best
     # robust rows in the top table
@@ -134,39 +130,88 @@ def _data_rows(text, heading):
     return text[i:j].count("<tr>") - 1
 
 
-def test_plots_are_embedded_png(result):
-    pytest.importorskip("matplotlib")
+def _svg_elements(text, label_start):
+    """(attrs of the <svg>, [(tag, attrs)] inside it, [text]) of the figure whose aria-label starts so."""
+    class P(HTMLParser):
+        def __init__(self):
+            super().__init__(convert_charrefs=True)
+            self.found, self.depth, self.elems, self.texts, self.attrs = 0, 0, [], [], None
+
+        def handle_starttag(self, tag, attrs):
+            a = dict(attrs)
+            if tag == "svg" and a.get("aria-label", "").startswith(label_start):
+                self.found += 1
+                self.depth, self.attrs = 1, a
+            elif self.depth:
+                self.elems.append((tag, a))
+
+        def handle_endtag(self, tag):
+            if tag == "svg":
+                self.depth = 0
+
+        def handle_data(self, data):
+            if self.depth:
+                self.texts.append(data)
+
+    p = P()
+    p.feed(text)
+    assert p.found == 1, label_start
+    return p.attrs, p.elems, p.texts
+
+
+def test_figures_are_inline_svg_without_raster_images(result):
     text = sr.render_sweep_html(_report(result))
-    srcs = re.findall(r'src="data:image/png;base64,([^"]+)"', text)
-    assert len(srcs) == 2  # heat map and criterion plot
-    for s in srcs:
-        assert base64.b64decode(s)[:8] == PNG_SIGNATURE
+    assert "<img" not in text and "data:image" not in text
+    assert text.count("<svg ") == 1 + 2 + 1  # route map, a heat map per speed, the criterion chart
+    assert "hours after" not in text
 
 
-def test_heat_map_uses_the_class_palette(result):
-    """The heat map's pixels hold the palette colour of a class that occurs in the sweep."""
-    mpl_image = pytest.importorskip("matplotlib.image")
-    import io
+def test_heat_map_uses_the_class_palette_and_marks_the_pick(result):
+    """Every class that occurs in the sweep's worst case fills cells of its heat map, no other
+    class colour does, and the recommended departure row is outlined and labelled."""
+    rec = result.recommendation
+    s = result.speeds_kn.index(rec.speed_kn)
+    attrs, elems, texts = _svg_elements(sr.render_sweep_html(_report(result)),
+                                        f"Worst comfort class over the sources by departure and distance at {rec.speed_kn:g} kn")
+    fills = {a["fill"] for t, a in elems if t == "path" and a.get("fill", "none") != "none"}
+    present = set(np.unique(result.robust_class[s]).tolist())
+    want = {COMFORT_PALETTE[c] if c >= 0 else sr.NOT_COMPUTED_COLOUR for c in present}
+    assert fills == want
+    outlined = [a for t, a in elems if t == "rect" and a.get("fill") == "none" and a.get("stroke-width") == "2.5"]
+    assert len(outlined) == 1 and "◀ recommended" in texts
+    # departures on the vertical axis as clock times (1 Jun 2030 from 00:00 every 2 h)
+    assert "1 Jun 00:00" in texts and "departure (UTC)" in texts
 
-    png = sr.heat_map_png(result)
-    img = mpl_image.imread(io.BytesIO(png), format="png")
-    rgb = np.round(img[..., :3] * 255).astype(int).reshape(-1, 3)
-    present = set(np.unique(result.robust_class[result.robust_class >= 0]).tolist())
-    assert present
-    for c in present:
-        hexc = COMFORT_PALETTE[c].lstrip("#")
-        want = np.array([int(hexc[i:i + 2], 16) for i in (0, 2, 4)])
-        # the class fills a whole block of the map: many pixels, not just the legend swatch
-        assert np.count_nonzero(np.all(rgb == want, axis=1)) > 2000, c
+
+def test_criterion_chart_marks_the_recommendation_inside_the_plot(result):
+    _, elems, texts = _svg_elements(sr.render_sweep_html(_report(result)), "Criterion per departure")
+    marker = [a for t, a in elems if t == "path" and a.get("stroke-dasharray") == "9 3"]
+    assert len(marker) == 1 and "recommended" in texts
+    frame = [a for t, a in elems if t == "rect" and a.get("fill") == "none"][0]
+    x_marker = float(marker[0]["d"][1:].split(" ")[0])
+    # the marker sits inside the frame, not on its left edge (the pick may be the first departure)
+    assert float(frame["x"]) < x_marker < float(frame["x"]) + float(frame["width"])
+    lines = [a for t, a in elems if t == "path" and a.get("fill") == "none" and a.get("stroke-width") == "1.6"]
+    assert len(lines) == len(result.source_names) * len(result.speeds_kn)
 
 
-def test_report_works_without_matplotlib(result, monkeypatch):
-    monkeypatch.setitem(sys.modules, "matplotlib", None)
-    monkeypatch.setitem(sys.modules, "matplotlib.figure", None)
-    monkeypatch.setitem(sys.modules, "matplotlib.backends.backend_agg", None)
+def test_verdict_first_with_place_time_and_measure(result):
     text = sr.render_sweep_html(_report(result))
-    assert "<img" not in text
-    assert "All rows" in text and _parse(text).errors == []
+    i = text.index('id="verdict"')
+    assert i < text.index("<h2>")
+    verdict = text[i:text.index("</section>", i)]
+    rec = result.recommendation
+    assert str(np.datetime64(rec.depart_utc, "m")).replace("T", " ") + " UTC" in verdict
+    assert ("within limits" in verdict) if rec.within_limits else ("No departure stays within limits" in verdict)
+    assert "Ruling measure: earliest departure that stays within limits" in verdict
+    assert "Worst class on this passage:" in verdict
+
+
+def test_route_map_needs_the_route(result):
+    text = sr.render_sweep_html(sr.build_sweep_report(result, ReportInputs(), route_lonlat=([0.0, 0.5], [0.0, 0.0])))
+    attrs, elems, texts = _svg_elements(text, "Map of the route")
+    assert "start" in texts and "end" in texts
+    assert "Map of the route" not in sr.render_sweep_html(sr.build_sweep_report(result, ReportInputs()))
 
 
 def test_write_html(result, tmp_path):

@@ -2,25 +2,34 @@
 """The seasonal-climate report: one self-contained HTML page and a short text summary.
 
 Built from the shared page parts of :mod:`.html` (escaping, no script, no external link, the
-planning-aid caution heading and closing the page). With matplotlib it holds a month x distance
-heat map of the share of time within the worst acceptable class and a month bar chart of the
-weather-window probability, embedded as base64 PNG; without matplotlib the same numbers are
-given as tables. The share palette lives in :mod:`.palette`.
+planning-aid caution heading and closing the page), in the order of the passage and sweep
+reports: the verdict (best and worst month, the least acceptable stretch, the measure), a map of
+the route coloured by its share of acceptable time, a month bar chart of the weather-window
+probability (0 % months keep a thin bar, empty months say "no data"), a month x distance heat
+map of the share of time within the worst acceptable class (at most :data:`MAX_MAP_COLUMNS`
+distance bins, mean share per bin), then the tables; mean waits in days. Percentages use the
+sequential share palette of :mod:`.palette`, never the comfort-class colours.
 """
 from __future__ import annotations
 
 import math
-from typing import List, Optional, Sequence, Tuple
+from typing import List, Sequence, Tuple
 
 import numpy as np
 
 from ..flags import CAUTION
 from ..climate.monthly import ClimateResult
-from .html import bullets, esc, figure_png, new_figure, page, png_img, table, write_page
+from .charts import month_bars, month_heat_map
+from .html import bullets, esc, figure, legend, page, swatch, table, verdict_box, write_page
 from .palette import NO_DATA_COLOUR, SHARE_BOUNDS, SHARE_PALETTE, share_bin
+from .route_map import Track, route_map
+from .wording import plain_text
 
 __all__ = ["SHARE_PALETTE", "SHARE_BOUNDS", "NO_DATA_COLOUR", "share_bin", "render_climate_html",
-           "write_climate_html", "climate_text_summary"]
+           "write_climate_html", "climate_text_summary", "share_legend", "MAX_MAP_COLUMNS"]
+
+MAX_MAP_COLUMNS: int = 240
+"""Distance bins of the heat map at most (mean share of the samples in each bin)."""
 
 MONTH_NAMES: Tuple[str, ...] = ("Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec")
 
@@ -28,7 +37,7 @@ READING_NOTES: Tuple[str, ...] = (
     "Time shares count every hindcast step of the month (all years pooled) at every route sample.",
     "A departure counts for the window probability when the whole passage, with the vessel moving "
     "along the route, stays within the acceptable class.",
-    "Mean wait: from a start at any hindcast step of the month to the next such departure.",
+    "Mean wait: from a start at any hindcast step of the month to the next such departure, in days.",
 )
 
 
@@ -36,54 +45,95 @@ def _pct(v: float) -> str:
     return "–" if not math.isfinite(float(v)) else f"{100.0 * float(v):.0f} %"
 
 
-def _h(v: float) -> str:
-    return "–" if not math.isfinite(float(v)) else f"{float(v):.0f} h"
+def _days(hours: float) -> str:
+    """A waiting time in days ('3.2 d'); '–' without a value."""
+    return "–" if not math.isfinite(float(hours)) else f"{float(hours) / 24.0:.1f} d"
 
 
-def _heat_map_png(r: ClimateResult) -> Optional[bytes]:
+def _label(r: ClimateResult) -> str:
+    from ..comfort.indices import COMFORT_CLASS_LABELS
+
+    return COMFORT_CLASS_LABELS[r.max_class]
+
+
+def _share_colour(v: float) -> str:
+    b = share_bin(v)
+    return SHARE_PALETTE[b] if b >= 0 else NO_DATA_COLOUR
+
+
+def share_legend() -> str:
+    """The complete legend of the share colours (five steps and no data)."""
+    bounds = (0.0, *SHARE_BOUNDS, 1.0)
+    items = [(swatch(c), f"{100 * lo:.0f}–{100 * hi:.0f} %") for c, lo, hi in zip(SHARE_PALETTE, bounds[:-1], bounds[1:])]
+    return legend(items + [(swatch(NO_DATA_COLOUR), "no data")])
+
+
+def _bin_mean(a: np.ndarray, max_n: int) -> Tuple[np.ndarray, np.ndarray]:
+    """Columns of ``a`` (m, n) averaged (NaN ignored) into at most ``max_n`` bins; the bins'
+    first column indices."""
+    n = a.shape[1]
+    starts = np.unique(np.linspace(0, n, min(n, max_n) + 1).astype(int)[:-1])
+    fin = np.isfinite(a)
+    total = np.add.reduceat(np.where(fin, a, 0.0), starts, axis=1)
+    count = np.add.reduceat(fin.astype(float), starts, axis=1)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        return np.where(count > 0, total / np.maximum(count, 1.0), np.nan), starts
+
+
+def _heat_map_svg(r: ClimateResult) -> str:
     """Month x distance heat map of the share of time within the acceptable class."""
-    fig = new_figure(8.0, 0.35 * len(r.months) + 1.6, dpi=96)
-    if fig is None:
-        return None
-    from matplotlib.colors import BoundaryNorm, ListedColormap
-
-    ax = fig.add_subplot(1, 1, 1)
-    cmap = ListedColormap(list(SHARE_PALETTE))
-    cmap.set_bad(NO_DATA_COLOUR)
-    norm = BoundaryNorm([0.0, *SHARE_BOUNDS, 1.0000001], cmap.N)
-    d = r.dist_nm
-    edges = np.concatenate([[d[0]], 0.5 * (d[:-1] + d[1:]), [d[-1]]]) if d.size > 1 else np.array([0.0, 1.0])
-    data = np.ma.masked_invalid(r.ok_share)
-    mesh = ax.pcolormesh(edges, np.arange(len(r.months) + 1), data, cmap=cmap, norm=norm, shading="flat")
-    ax.set_yticks(np.arange(len(r.months)) + 0.5)
-    ax.set_yticklabels([MONTH_NAMES[m - 1] for m in r.months])
-    ax.invert_yaxis()
-    ax.set_xlabel("distance along the route [NM]")
-    ax.set_title(f"Share of time with comfort class <= {r.max_class}")
-    cb = fig.colorbar(mesh, ax=ax, ticks=[0.0, *SHARE_BOUNDS, 1.0])
-    cb.ax.set_yticklabels(["0", "20 %", "40 %", "60 %", "80 %", "100 %"])
-    return figure_png(fig)
+    d = np.asarray(r.dist_nm, dtype=float)
+    share, starts = _bin_mean(np.asarray(r.ok_share, dtype=float), MAX_MAP_COLUMNS)
+    full = (np.concatenate([[d[0]], 0.5 * (d[:-1] + d[1:]), [d[-1]]]) if d.size > 1 else np.array([0.0, 1.0]))
+    edges = np.append(full[starts], full[-1])
+    colours = [[_share_colour(v) for v in row] for row in share]
+    return month_heat_map(edges, [MONTH_NAMES[m - 1] for m in r.months], colours,
+                          label=f"Share of time with comfort class {_label(r)} or better by month and distance")
 
 
-def _window_bars_png(r: ClimateResult) -> Optional[bytes]:
-    """Month bar chart of the weather-window probability."""
-    fig = new_figure(8.0, 3.0, dpi=96)
-    if fig is None:
-        return None
-    ax = fig.add_subplot(1, 1, 1)
-    p = np.nan_to_num(np.asarray(r.window_probability, dtype=float), nan=0.0)
-    cols = [SHARE_PALETTE[max(share_bin(v), 0)] if math.isfinite(v) else NO_DATA_COLOUR for v in r.window_probability]
-    ax.bar([MONTH_NAMES[m - 1] for m in r.months], 100.0 * p, color=cols, edgecolor="#333333", linewidth=0.6)
-    ax.set_ylim(0, 100)
-    ax.set_ylabel("window probability [%]")
-    ax.set_title(f"Departures with the whole {r.passage_h:.0f} h passage within class <= {r.max_class}")
-    return figure_png(fig)
+def _bars_svg(r: ClimateResult) -> str:
+    """Month bar chart of the weather-window probability (0 % shown, empty months marked)."""
+    p = [100.0 * float(v) if math.isfinite(float(v)) else float("nan") for v in r.window_probability]
+    return month_bars([MONTH_NAMES[m - 1] for m in r.months], p, [_share_colour(v) for v in r.window_probability],
+                      label="Window probability per month", ytitle="departures within limits [%]")
 
 
-def _thin(n: int, k: int = 12) -> List[int]:
-    if n <= k:
-        return list(range(n))
-    return sorted(set(int(round(x)) for x in np.linspace(0, n - 1, k)))
+def _map_svg(r: ClimateResult) -> str:
+    """The route, each stretch coloured by its share of acceptable time over the months shown."""
+    if r.n < 2:
+        return ""
+    seg = np.asarray(r.segment_ok_share(), dtype=float)
+    fin = np.isfinite(seg)
+    mean = np.where(fin.any(axis=0), np.where(fin, seg, 0.0).sum(axis=0) / np.maximum(fin.sum(axis=0), 1), np.nan)
+    return route_map([Track(np.asarray(r.lon_deg, dtype=float), np.asarray(r.lat_deg, dtype=float),
+                            tuple(_share_colour(v) for v in mean))],
+                     label="Map of the route coloured by the share of acceptable time",
+                     order=(NO_DATA_COLOUR, *SHARE_PALETTE))
+
+
+def _verdict_html(r: ClimateResult) -> str:
+    """Best and worst month for a departure, the least acceptable stretch, the measure."""
+    from ..comfort.indices import COMFORT_CLASS_LABELS
+
+    p = np.asarray(r.window_probability, dtype=float)
+    limit = f"class {COMFORT_CLASS_LABELS[r.max_class]} or better"
+    if not np.isfinite(p).any():
+        return verdict_box(f"No month has a departure with the whole {r.passage_h:.0f} h passage inside the data.",
+                           ["See the notes below."], within=False)
+    best, worst = int(np.nanargmax(p)), int(np.nanargmin(p))
+    head = (f"Best month: {MONTH_NAMES[r.months[best] - 1]}, {_pct(p[best])} of departures keep the whole "
+            f"{r.passage_h:.0f} h passage within {limit}.")
+    lines = [f"Worst month: {MONTH_NAMES[r.months[worst] - 1]}, {_pct(p[worst])} of departures"
+             f" (mean wait for a window {_days(r.mean_wait_h[worst])}).",
+             f"Mean wait for a window in {MONTH_NAMES[r.months[best] - 1]}: {_days(r.mean_wait_h[best])}."]
+    ok = np.asarray(r.ok_share, dtype=float)
+    if np.isfinite(ok).any():
+        k, i = np.unravel_index(int(np.nanargmin(np.where(np.isfinite(ok), ok, np.inf))), ok.shape)
+        lines.append(f"Least acceptable stretch: {r.dist_nm[i]:.0f} NM along the route in "
+                     f"{MONTH_NAMES[r.months[k] - 1]}, within {limit} {_pct(ok[k, i])} of the time.")
+    lines.append(f"Ruling measure: share of departures whose whole passage stays within {limit} "
+                 "(window probability); shares of time per place below.")
+    return verdict_box(head, lines, within=bool(p[best] >= 0.5))
 
 
 def _run_table(r: ClimateResult) -> str:
@@ -101,23 +151,13 @@ def _run_table(r: ClimateResult) -> str:
 
 def _month_table(r: ClimateResult) -> str:
     rows = [[MONTH_NAMES[m - 1], _pct(r.route_ok_share[k]), _pct(r.route_exceed_share[k]),
-             _pct(r.window_probability[k]), _h(r.mean_wait_h[k]), str(int(r.departures_known[k])),
-             str(int(r.wait_censored[k])), str(int(r.missing_steps[k].sum()))] for k, m in enumerate(r.months)]
-    return table(["month", f"time within class <= {r.max_class}", "criteria exceeded", "window probability",
-                  "mean wait", "departures counted", "starts without window", "missing (step x sample)"], rows)
-
-
-def _share_figures(r: ClimateResult, plots: bool) -> List[str]:
-    """The two figures, or without matplotlib the share along the route as a table."""
-    if plots:
-        imgs = (_heat_map_png(r), _window_bars_png(r))
-        if all(i is not None for i in imgs):
-            return [png_img(i, alt) for i, alt in zip(imgs, ("month x distance heat map of acceptable time",
-                                                             "window probability per month"))]
-    idx = _thin(r.n)
-    hdr = ["month"] + [f"{r.dist_nm[i]:.0f} NM" for i in idx]
-    return ["<h2>Share of time within the acceptable class along the route</h2>",
-            table(hdr, [[MONTH_NAMES[m - 1]] + [_pct(r.ok_share[k, i]) for i in idx] for k, m in enumerate(r.months)])]
+             _pct(r.window_probability[k]), _days(r.mean_wait_h[k]), str(int(r.departures_known[k])),
+             str(int(r.wait_censored[k])), str(int(r.departures_past_end[k])), str(int(r.missing_steps[k].sum()))]
+            for k, m in enumerate(r.months)]
+    return table(["month", f"time within class {_label(r)} or better", "seakeeping criteria exceeded",
+                  "window probability", "mean wait for a window", "departures counted",
+                  "starts without a window before the data end", "departures past the data end",
+                  "missing (step x sample)"], rows)
 
 
 def render_climate_html(r: ClimateResult, *, title: str = "Seasonal comfort climate", plots: bool = True,
@@ -125,16 +165,25 @@ def render_climate_html(r: ClimateResult, *, title: str = "Seasonal comfort clim
     """The report page as text (module docstring)."""
     from ..comfort.indices import COMFORT_CLASS_LABELS
 
-    parts: List[str] = ["<h2>Run</h2>", _run_table(r)]
+    parts: List[str] = [_verdict_html(r)]
+    if plots:
+        parts += ["<h2>Route</h2>", figure(_map_svg(r), "The route, each stretch coloured by its share of time "
+                                           f"within class {_label(r)} or better over the months shown.", share_legend()),
+                  "<h2>Window probability per month</h2>",
+                  figure(_bars_svg(r), f"Departures with the whole {r.passage_h:.0f} h passage within class "
+                         f"{r.max_class} or better; a thin bar marks 0 %.", share_legend()),
+                  "<h2>Share of acceptable time by month and place</h2>",
+                  figure(_heat_map_svg(r), "Share of time within the acceptable class at each distance along "
+                         "the route.", share_legend())]
+    parts += ["<h2>Per month</h2>", _month_table(r), "<h2>Class shares on the whole route</h2>",
+              table(["month"] + list(COMFORT_CLASS_LABELS),
+                    [[MONTH_NAMES[m - 1]] + [_pct(v) for v in r.route_class_share[k]] for k, m in enumerate(r.months)]),
+              "<h2>Run</h2>", _run_table(r)]
     if sources:
         parts.append("<p>Hindcast files: " + ", ".join(esc(s) for s in sources) + "</p>")
-    parts += ["<h2>Per month</h2>", _month_table(r), *_share_figures(r, plots)]
-    parts.append("<h2>Class shares on the whole route</h2>")
-    parts.append(table(["month"] + list(COMFORT_CLASS_LABELS),
-                       [[MONTH_NAMES[m - 1]] + [_pct(v) for v in r.route_class_share[k]] for k, m in enumerate(r.months)]))
     parts.append("<h2>How to read this</h2>" + bullets(READING_NOTES))
     if r.notes:
-        parts.append("<h2>Notes</h2>" + bullets(r.notes))
+        parts.append("<h2>Notes</h2>" + bullets(plain_text(n) for n in r.notes))
     return page(title, parts, CAUTION)
 
 
@@ -150,6 +199,6 @@ def climate_text_summary(r: ClimateResult) -> str:
     lines.append("month  ok-time  window  mean-wait")
     for k, m in enumerate(r.months):
         lines.append(f"{MONTH_NAMES[m - 1]:<5}  {_pct(r.route_ok_share[k]):>7}  {_pct(r.window_probability[k]):>6}  "
-                     f"{_h(r.mean_wait_h[k]):>9}")
+                     f"{_days(r.mean_wait_h[k]):>9}")
     lines.append(CAUTION)
     return "\n".join(lines)

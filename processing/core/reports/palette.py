@@ -5,9 +5,10 @@ Comfort classes: five colours of our own, ordered from light to dark so that the
 apart by lightness alone (readable under the common colour-vision deficiencies and in grey-scale
 print), with a neutral grey for samples without results.
 
-Climate shares: five steps of "share of time within the acceptable class", dark plum for rarely
-acceptable to pale mint for nearly always acceptable, also ordered by lightness; the same grey
-for no data.
+Climate shares (percentages): five steps of "share of time within the acceptable class" in a
+sequential green of their own, pale for rarely acceptable to deep green for nearly always
+acceptable, ordered by lightness and kept apart from every comfort colour so that a percentage
+is never read as a comfort class; the same grey for no data.
 """
 from __future__ import annotations
 
@@ -26,8 +27,9 @@ about 94, 82, 68, 45, 19 (more than 10 units apart, so the order reads without h
 NOT_COMPUTED_COLOUR: str = "#9a9a9a"
 """Colour of samples without results (no sea data, outside the grid or the time range)."""
 
-SHARE_PALETTE: Tuple[str, ...] = ("#4a1f3d", "#9c4a3c", "#d49a3f", "#86bfae", "#e4f3ef")
-"""Fill colours for shares of acceptable time in [0, .2), [.2, .4), [.4, .6), [.6, .8), [.8, 1]."""
+SHARE_PALETTE: Tuple[str, ...] = ("#f2f2c4", "#c8e0a0", "#8cbd62", "#4a8a3a", "#1c4f24")
+"""Fill colours for shares of acceptable time in [0, .2), [.2, .4), [.4, .6), [.6, .8), [.8, 1];
+CIE L* about 94, 86, 71, 52, 29 (light = low share, dark = high share)."""
 
 SHARE_BOUNDS: Tuple[float, ...] = (0.2, 0.4, 0.6, 0.8)
 """Upper bounds of the first four share steps (share 0..1)."""

@@ -2,10 +2,20 @@
 """The passage report: report data from passage results, and one self-contained HTML page.
 
 Everything that comes from outside (file names, source names, vessel and leg names, notes) is
-escaped with :func:`html.escape`; the page holds no script and no external link. Plots are
-drawn with matplotlib (Agg backend, embedded as base64 PNG) when it can be imported; without it
-the report still has every table. The planning-aid caution (:data:`.flags.CAUTION`) heads and
-closes the page. The page parts come from :mod:`.html`, the colours from :mod:`.palette`.
+escaped with :func:`html.escape`; the page holds no script and no external link. The
+planning-aid caution (:data:`.flags.CAUTION`) heads and closes the page.
+
+Order of the page (one family with the sweep and climate reports): the verdict (within the
+station's criteria or not, the worst class with where and when, the measure that sets it), a
+map of the route coloured by class, the timeline in clock time (UTC, local offset stated when
+known), sections added by other parts of the program (:attr:`ReportData.sections`), time per
+class, hour by hour, the legs, flags, notes, inputs and methods.
+
+Bounded size (a route layer of thousands of short features): figures are bounded by :mod:`.svg`;
+the :data:`LEGS_IN_FULL` worst legs (worst class, then highest MSI) are shown in full, every leg
+has a row in the overview up to :data:`OVERVIEW_MAX_ROWS` legs, beyond which the worst are listed
+and the others summed up by worst class; the hour-by-hour table has at most
+:data:`.passage_figures.HOURLY_MAX_ROWS` rows. Work is linear in the number of samples.
 """
 from __future__ import annotations
 
@@ -15,13 +25,15 @@ from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 
-from ..flags import CAUTION
+from ..flags import CAUTION, SampleFlag, flag_counts
 from ..passage.fields import MOTION_OUTPUTS
 from ..passage.pipeline import NOT_COMPUTED_CLASS, PassageResult, PassageSummary
-from .html import bullets, figure_png, flag_table, new_figure, page, png_img, write_page
-from .html import esc as _esc, fmt_num as _fmt, fmt_time_utc as _fmt_time, swatch as _swatch, table as _table
+from .html import bullets, figure, flag_table, page, verdict_box, write_page
+from .html import esc as _esc, fmt_num as _fmt, swatch as _swatch, table as _table
 from .palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 from .verdict import verdict_rows, worst_sample_line
+from .passage_figures import Concat, class_legend, concat_legs, hourly_rows, passage_map, timeline_figures
+from .wording import clock_utc, offset_text, plain_text, plain_value
 
 __all__ = [
     "COMFORT_PALETTE",
@@ -33,10 +45,22 @@ __all__ = [
     "render_html",
     "write_html",
     "text_summary",
+    "worst_legs",
+    "LEGS_IN_FULL",
+    "OVERVIEW_MAX_ROWS",
 ]
 
-MAX_TABLE_ROWS: int = 400
+MAX_TABLE_ROWS: int = 200
 """Sample rows in the per-leg table; longer legs are thinned evenly (vertices always kept)."""
+
+LEGS_IN_FULL: int = 20
+"""Legs shown in full (facts, class hours, flags, samples): the worst ones."""
+
+OVERVIEW_MAX_ROWS: int = 100
+"""Legs listed one per row in the overview at most; the others are summed up by worst class."""
+
+NOTES_MAX: int = 50
+"""Distinct notes listed at most."""
 
 
 @dataclass(frozen=True)
@@ -56,6 +80,7 @@ class ReportInputs:
     method: str = ""
     created_utc: str = ""
     extra: Tuple[Tuple[str, str], ...] = ()
+    local_utc_offset_h: Optional[float] = None
 
     def rows(self) -> List[Tuple[str, str]]:
         rows = [
@@ -73,7 +98,9 @@ class ReportInputs:
             ("Report created", self.created_utc),
         ]
         rows.extend(self.extra)
-        return [(k, v) for k, v in rows if v]
+        if self.local_utc_offset_h is not None:
+            rows.append(("Times", offset_text(self.local_utc_offset_h)))
+        return [(k, plain_value(v)) for k, v in rows if v]
 
 
 @dataclass(frozen=True)
@@ -95,6 +122,10 @@ class ReportData:
     warnings: Tuple[str, ...] = ()
     caution: str = CAUTION
     class_labels: Tuple[str, ...] = field(default_factory=tuple)
+    verdict_lines: Tuple[str, ...] = ()
+    """Extra lines for the verdict box (plain text, escaped), e.g. class reasons."""
+    sections: Tuple[Tuple[str, str], ...] = ()
+    """Extra sections after the timeline: (heading text, body markup built from escaped parts)."""
 
 
 def build_report(
@@ -118,48 +149,6 @@ def build_report(
         warnings=tuple(str(w) for w in warnings),
         class_labels=tuple(COMFORT_CLASS_LABELS),
     )
-
-
-# ---------------------------------------------------------------------------------------------
-# plots
-# ---------------------------------------------------------------------------------------------
-
-
-def _leg_plot_png(leg: LegReport, labels: Sequence[str]) -> Optional[bytes]:
-    """A three-panel time plot of one leg as PNG bytes, or None without matplotlib."""
-    r = leg.result
-    fig = new_figure(8.0, 6.0) if r.n >= 2 else None
-    if fig is None:
-        return None
-    hours = (r.eta_utc - r.eta_utc[0]).astype("timedelta64[s]").astype(float) / 3600.0
-    ax1, ax2, ax3 = fig.subplots(3, 1, sharex=True)
-    ax1.plot(hours, r.hs_m, color="#2b5d7c", label="Hs [m]")
-    ax1.set_ylabel("Hs [m]")
-    ax1b = ax1.twinx()
-    ax1b.plot(hours, r.tp_s, color="#b07a2a", linestyle="--", label="Tp [s]")
-    ax1b.set_ylabel("Tp [s]")
-    ax1.set_title("Sea state met along the passage")
-    ax2.plot(hours, r.vacc_rms_m_s2, color="#4d1a47", label="vertical acc. RMS [m/s2]")
-    ax2.plot(hours, r.lacc_rms_m_s2, color="#7fa38a", label="lateral acc. RMS [m/s2]")
-    ax2.set_ylabel("acc. RMS [m/s2]")
-    ax2.legend(loc="upper left", fontsize=7)
-    ax2b = ax2.twinx()
-    ax2b.plot(hours, r.msi_pct, color="#c4572a", linestyle=":", label="MSI [%]")
-    ax2b.set_ylabel("MSI 2 h [%]")
-    cls = r.comfort_class
-    # one bar per run of equal class (a leg of 500 samples has a few dozen runs at most)
-    edges = np.append(hours, hours[-1] + (hours[-1] - hours[-2]))
-    starts = np.flatnonzero(np.concatenate(([True], cls[1:] != cls[:-1])))
-    ends = np.append(starts[1:], cls.size)
-    run_cls = cls[starts]
-    ax3.bar(edges[starts], np.where(run_cls >= 0, run_cls + 1, 0.4), width=edges[ends] - edges[starts],
-            align="edge", edgecolor="none",
-            color=[COMFORT_PALETTE[c] if c >= 0 else NOT_COMPUTED_COLOUR for c in run_cls])
-    ax3.set_yticks(range(1, len(labels) + 1))
-    ax3.set_yticklabels(labels, fontsize=7)
-    ax3.set_ylabel("comfort")
-    ax3.set_xlabel("hours since departure")
-    return figure_png(fig)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -196,13 +185,80 @@ def _thin_rows(r: PassageResult, max_rows: int) -> np.ndarray:
     return pick
 
 
-def _leg_facts_html(leg: LegReport) -> str:
+def _severity(leg: LegReport) -> Tuple[int, float]:
+    """How bad a leg is: its worst class, then its highest MSI (legs without results last)."""
+    s = leg.summary
+    if s.worst_index is None:
+        return (-2, 0.0)
+    msi = s.max_msi_pct if np.isfinite(s.max_msi_pct) else 0.0
+    return (int(leg.result.comfort_class[s.worst_index]), float(msi))
+
+
+def worst_legs(legs: Sequence[LegReport], k: int) -> List[int]:
+    """Positions of the ``k`` worst legs (:func:`_severity`), in passage order."""
+    ranked = sorted(range(len(legs)), key=lambda i: _severity(legs[i]), reverse=True)
+    return sorted(ranked[:max(k, 0)])
+
+
+def _ruling_measure(r: PassageResult, i: int) -> str:
+    """Which measure sets the class of sample ``i``: the MSI scale or the station's criteria."""
+    from ..comfort.indices import COMFORT_CLASS_LABELS, MSI_CLASS_BOUNDS_PCT
+
+    c, msi = int(r.comfort_class[i]), float(r.msi_pct[i])
+    by_msi = int(np.searchsorted(np.asarray(MSI_CLASS_BOUNDS_PCT), msi, side="right")) if np.isfinite(msi) else -1
+    if by_msi >= c:
+        bound = f" ({COMFORT_CLASS_LABELS[c]} from {MSI_CLASS_BOUNDS_PCT[c - 1]:g} %)" if c >= 1 else ""
+        return f"Ruling measure: motion sickness incidence {_fmt(msi, 1)} % in 2 h{bound}."
+    return (f"Ruling measure: the station's seakeeping criteria (vertical acceleration {_fmt(r.vacc_rms_m_s2[i])} "
+            f"m/s² RMS, lateral {_fmt(r.lacc_rms_m_s2[i])} m/s² RMS, roll {_fmt(r.roll_rms_deg[i], 1)}° RMS) "
+            f"close to or over their limits; the MSI alone ({_fmt(msi, 1)} %) would rate it "
+            f"{COMFORT_CLASS_LABELS[max(by_msi, 0)]}.")
+
+
+def _verdict_html(report: ReportData, c: Concat, offset_h: Optional[float]) -> str:
+    """The headline: within the criteria or not, the worst class with where and when, the
+    ruling measure, time per class; then the caller's extra lines (``verdict_lines``)."""
+    if not report.legs or not (c.cls >= 0).any():
+        return verdict_box("No result: no sample of the passage could be computed.",
+                           ["See the flags and notes below for the reason."] + list(report.verdict_lines),
+                           within=False)
+    over = (c.flags & int(SampleFlag.CRITERIA_EXCEEDED)) != 0
+    k = max(range(len(report.legs)), key=lambda j: _severity(report.legs[j]))
+    leg = report.legs[k]
+    i = leg.summary.worst_index
+    r = leg.result
+    label = r.comfort_label[i]
+    if over.any():
+        head = (f"Not within the station's seakeeping criteria: exceeded for {_fmt(c.dwell_s[over].sum() / 3600, 1)} h. "
+                f"Worst class: {label}.")
+    else:
+        head = f"Within the station's seakeeping criteria. Worst class: {label}."
+    lines = [f"Worst on leg {leg.summary.leg + 1} ({leg.name}) at {clock_utc(r.eta_utc[i], offset_h)}, "
+             f"{_fmt(r.dist_nm[i], 1)} NM along the leg ({_fmt(r.lat_deg[i], 2)}° lat, {_fmt(r.lon_deg[i], 2)}° lon), "
+             f"Hs {_fmt(r.hs_m[i])} m.", _ruling_measure(r, i),
+             "Time per class: " + (class_hours_text(_total_hours(report.legs)).replace("not computed", "no result")
+                                   or "none") + "."]
+    missing = int((c.cls < 0).sum())
+    if missing:
+        lines.append(f"{missing} of {c.cls.size} samples have no result (see the flags below).")
+    return verdict_box(head, lines + list(report.verdict_lines), within=not over.any())
+
+
+def _total_hours(legs: Sequence[LegReport]) -> Dict[str, float]:
+    out: Dict[str, float] = {}
+    for leg in legs:
+        for k, v in leg.summary.hours_per_class.items():
+            out[k] = out.get(k, 0.0) + v
+    return out
+
+
+def _leg_facts_html(leg: LegReport, offset_h: Optional[float]) -> str:
     """The leg's key figures as an item/value table."""
     r, s = leg.result, leg.summary
     worst = s.worst_index
     rows = [
-        ("Departure", _fmt_time(s.departure_utc)),
-        ("Arrival", _fmt_time(s.arrival_utc)),
+        ("Departure", clock_utc(s.departure_utc, offset_h)),
+        ("Arrival", clock_utc(s.arrival_utc, offset_h)),
         ("Distance", f"{_fmt(s.distance_nm, 1)} NM"),
         ("Duration", f"{_fmt(s.duration_h, 1)} h"),
         ("Samples with results", f"{s.n_computed} of {s.n_samples}"),
@@ -216,17 +272,16 @@ def _leg_facts_html(leg: LegReport) -> str:
     return _table(("Item", "Value"), rows)
 
 
-def _class_hours_html(leg: LegReport, labels: Sequence[str]) -> str:
+def _class_hours_html(hours: Dict[str, float], labels: Sequence[str]) -> str:
     """Hours in each comfort class (with its colour) and without results."""
-    hours = leg.summary.hours_per_class
     class_rows = [(_swatch(COMFORT_PALETTE[c]), label, _fmt(hours.get(label, 0.0), 1)) for c, label in enumerate(labels)]
-    class_rows.append((_swatch(NOT_COMPUTED_COLOUR), "not computed", _fmt(hours.get("not computed", 0.0), 1)))
-    return "<h3>Time in each comfort class</h3>\n" + _table(("", "Class", "Hours"), class_rows, raw_cols=(0,))
+    class_rows.append((_swatch(NOT_COMPUTED_COLOUR), "no result", _fmt(hours.get("not computed", 0.0), 1)))
+    return _table(("", "Class", "Hours"), class_rows, raw_cols=(0,))
 
 
-def _samples_html(r: PassageResult) -> str:
+def _samples_html(r: PassageResult, offset_h: Optional[float]) -> str:
     """The (evenly thinned) per-sample table of one leg."""
-    parts = ["<h3>Samples</h3>"]
+    parts = ["<h4>Samples</h4>"]
     pick = _thin_rows(r, MAX_TABLE_ROWS)
     if pick.size < r.n:
         parts.append(f'<p class="small">{pick.size} of {r.n} samples shown (evenly thinned, route '
@@ -238,66 +293,143 @@ def _samples_html(r: PassageResult) -> str:
         c = int(r.comfort_class[i])
         colour = COMFORT_PALETTE[c] if c != NOT_COMPUTED_CLASS else NOT_COMPUTED_COLOUR
         srows.append((
-            str(int(r.seq[i])), _fmt_time(r.eta_utc[i]), _fmt(r.dist_nm[i], 1), _fmt(r.course_deg[i], 0),
+            str(int(r.seq[i])), clock_utc(r.eta_utc[i], offset_h), _fmt(r.dist_nm[i], 1), _fmt(r.course_deg[i], 0),
             _fmt(r.hs_m[i]), _fmt(r.tp_s[i], 1), _fmt(r.wave_from_deg[i], 0), _fmt(r.rel_heading_deg[i], 0),
             _fmt(r.enc_period_s[i], 1),
             *(_fmt(getattr(r, o.name)[i], o.report_digits) for o in motion_cols),
-            _fmt(r.msdv_cum[i], 1), _swatch(colour) + " " + _esc(r.comfort_label[i] or "not computed"),
+            _fmt(r.msdv_cum[i], 1), _swatch(colour) + _esc(r.comfort_label[i] or "no result"),
             flag_text[i], r.source[i],
         ))
     parts.append(_table(
-        ("seq", "ETA", "NM", "course", "Hs m", "Tp s", "from deg", "rel. hdg", "Te s",
-         *(o.label for o in motion_cols), "MSDV", "comfort", "flags", "source"),
+        ("seq", "time", "NM", "course °", "Hs m", "Tp s", "waves from °", "rel. heading °", "Te s",
+         *(o.label for o in motion_cols), "dose m/s^1.5", "comfort", "flags", "source"),
         srows, raw_cols=(10 + len(motion_cols),),
     ))
     return "\n".join(parts)
 
 
-def _leg_html(leg: LegReport, labels: Sequence[str], plots: bool) -> str:
+def _leg_html(leg: LegReport, labels: Sequence[str], offset_h: Optional[float]) -> str:
     r, s = leg.result, leg.summary
-    parts = [f"<h2>Leg {s.leg + 1}: {_esc(leg.name)}</h2>", _leg_facts_html(leg), _class_hours_html(leg, labels)]
-    if plots:
-        parts.append(png_img(_leg_plot_png(leg, labels), f"Time plot of leg {s.leg + 1}"))
+    parts = [f"<h3>Leg {s.leg + 1}: {_esc(leg.name)}</h3>", _leg_facts_html(leg, offset_h),
+             "<h4>Time in each comfort class</h4>", _class_hours_html(s.hours_per_class, labels)]
     if s.flag_counts:
-        parts.append("<h3>Flagged samples</h3>")
+        parts.append("<h4>Flagged samples</h4>")
         parts.append(flag_table(s.flag_counts, "Samples"))
-    if r.notes:
-        parts.append("<h3>Notes</h3>" + bullets(r.notes))
-    parts.append(_samples_html(r))
+    parts.append(_samples_html(r, offset_h))
     return "\n".join(p for p in parts if p)
 
 
-def _overview_html(legs: Sequence[LegReport]) -> str:
-    """One row per leg: times, distance, worst class, highest MSI, dose, samples without results."""
+def _overview_row(leg: LegReport, offset_h: Optional[float]) -> Tuple[str, ...]:
+    s = leg.summary
+    worst = (f"{leg.result.comfort_label[s.worst_index]} ({s.worst_reason})" if s.worst_index is not None
+             else "no result")
+    return (str(s.leg + 1), leg.name, clock_utc(s.departure_utc, offset_h), clock_utc(s.arrival_utc, offset_h),
+            _fmt(s.distance_nm, 1), _fmt(s.duration_h, 1), worst, _fmt(s.max_msi_pct, 1), _fmt(s.final_msdv, 1),
+            str(s.n_samples - s.n_computed))
+
+
+def _aggregate_rows(legs: Sequence[LegReport], labels: Sequence[str]) -> List[Tuple[str, ...]]:
+    """Legs not listed, grouped by their worst class: count, NM, hours, highest MSI."""
+    groups: Dict[int, List[LegReport]] = {}
+    for leg in legs:
+        groups.setdefault(_severity(leg)[0], []).append(leg)
+    rows = []
+    for c in sorted(groups, reverse=True):
+        g = groups[c]
+        msi = [x.summary.max_msi_pct for x in g if np.isfinite(x.summary.max_msi_pct)]
+        rows.append((labels[c] if c >= 0 else "no result", str(len(g)),
+                     _fmt(sum(x.summary.distance_nm for x in g), 1), _fmt(sum(x.summary.duration_h for x in g), 1),
+                     _fmt(max(msi), 1) if msi else "n/a"))
+    return rows
+
+
+def _overview_html(legs: Sequence[LegReport], labels: Sequence[str], offset_h: Optional[float]) -> str:
+    """One row per leg (up to :data:`OVERVIEW_MAX_ROWS`; beyond, the worst legs and the others
+    aggregated by worst class)."""
     if not legs:
         return "<p>No leg was computed.</p>"
-    over = []
-    for leg in legs:
-        s = leg.summary
-        worst = "n/a"
-        if s.worst_index is not None:
-            worst = f"{leg.result.comfort_label[s.worst_index]} ({s.worst_reason})"
-        over.append((
-            str(s.leg + 1), leg.name, _fmt_time(s.departure_utc), _fmt_time(s.arrival_utc),
-            _fmt(s.distance_nm, 1), _fmt(s.duration_h, 1), worst, _fmt(s.max_msi_pct, 1),
-            _fmt(s.final_msdv, 1), str(s.n_samples - s.n_computed),
-        ))
-    return "<h2>Overview</h2>\n" + _table(
-        ("Leg", "Name", "Departure", "Arrival", "NM", "Hours", "Worst class (set by)", "Max MSI % (2 h)",
-         "MSDV at arrival", "Samples without results"),
-        over,
-    )
+    heads = ("Leg", "Name", "Departure", "Arrival", "NM", "Hours", "Worst class (set by)", "Max MSI % (2 h)",
+             "Dose at arrival m/s^1.5", "Samples without results")
+    if len(legs) <= OVERVIEW_MAX_ROWS:
+        return _table(heads, [_overview_row(leg, offset_h) for leg in legs])
+    shown = worst_legs(legs, OVERVIEW_MAX_ROWS)
+    rest = sorted(set(range(len(legs))) - set(shown))
+    return "\n".join((
+        f'<p class="small">{len(legs)} legs: the {len(shown)} worst (by worst class, then highest MSI) are listed '
+        f"one per row; the other {len(rest)} are summed up by their worst class below. Every leg is in the "
+        "output layers.</p>",
+        _table(heads, [_overview_row(legs[i], offset_h) for i in shown]),
+        "<h3>Other legs, by worst class</h3>",
+        _table(("Worst class", "Legs", "NM", "Hours", "Highest MSI %"), _aggregate_rows([legs[i] for i in rest], labels)),
+    ))
 
 
-def render_html(report: ReportData, *, plots: bool = True) -> str:
-    """The report as one self-contained HTML5 page (no scripts, no external resources)."""
+def _notes_html(report: ReportData) -> str:
+    """The legs' notes without repeats (with how many legs give each)."""
+    count: Dict[str, int] = {}
+    for leg in report.legs:
+        for n in leg.result.notes:
+            count[n] = count.get(n, 0) + 1
+    if not count:
+        return ""
+    many = len(report.legs) > 1
+    items = [plain_text(n) + (f" ({k} legs)" if many and k > 1 else "") for n, k in count.items()]
+    return "<h2>Notes</h2>" + bullets(items[:NOTES_MAX] + ([f"... and {len(items) - NOTES_MAX} more notes"]
+                                                            if len(items) > NOTES_MAX else []))
+
+
+def _figures_html(report: ReportData, c: Concat, offset_h: Optional[float]) -> List[str]:
+    """The route map and the clock-time timeline (all legs)."""
+    results = [leg.result for leg in report.legs]
+    names = [leg.name for leg in report.legs]
+    t_ref = c.eta[~np.isnat(c.eta)].min() if (~np.isnat(c.eta)).any() else None
+    parts = ["<h2>Route</h2>", figure(passage_map(results), "The route, each stretch coloured by the worse "
+                                      "comfort class of its two ends.", class_legend())]
+    if t_ref is not None:
+        parts.append("<h2>Timeline</h2>")
+        parts += [figure(svg, cap, leg) for svg, leg, cap in timeline_figures(results, names, t_ref, offset_h)]
+    return parts
+
+
+def _hourly_html(c: Concat, names: Sequence[str], offset_h: Optional[float]) -> str:
+    width, rows = hourly_rows(c, names, offset_h)
+    if not rows:
+        return ""
+    what = "Hour by hour" if width == 1 else f"Every {width} hours"
+    return (f"<h2>{what}</h2>" + f'<p class="small">Times {_esc(offset_text(offset_h))}; worst over all legs '
+            "and sources sailed in each period.</p>" + _table(
+                (f"from ({offset_text(offset_h).split(';')[0]})", "legs", "NM on the leg", "worst class",
+                 "highest Hs m", "highest MSI %", "highest vert. acc. m/s²", "samples without result"),
+                rows, raw_cols=(3,)))
+
+
+def render_html(report: ReportData, *, plots: bool = True, legs_in_full: int = LEGS_IN_FULL) -> str:
+    """The report as one self-contained HTML5 page (no scripts, no external resources): the
+    verdict, the map and the timeline (``plots``), the caller's extra sections, time per class,
+    hour by hour, the legs (the ``legs_in_full`` worst in full), inputs, flags, notes, methods."""
     labels = report.class_labels or tuple(f"class {i}" for i in range(len(COMFORT_PALETTE)))
-    parts = ["<h2>Inputs</h2>", _table(("Input", "Value"), report.inputs.rows())]
+    offset_h = report.inputs.local_utc_offset_h
+    c = concat_legs([leg.result for leg in report.legs])
+    parts = [_verdict_html(report, c, offset_h)]
     if report.warnings:
-        parts.append("<h2>Warnings</h2>" + bullets(report.warnings))
-    parts.append(_overview_html(report.legs))
-    parts.extend(_leg_html(leg, labels, plots) for leg in report.legs)
-    parts.append("<h2>Methods and sources</h2>" + bullets(METHOD_NOTES))
+        parts.append("<h2>Warnings</h2>" + bullets(plain_text(w) for w in report.warnings))
+    if plots:
+        parts += _figures_html(report, c, offset_h)
+    parts += [f"<h2>{_esc(head)}</h2>{body}" for head, body in report.sections]
+    parts += ["<h2>Time in each comfort class</h2>", _class_hours_html(_total_hours(report.legs), labels),
+              _hourly_html(c, [leg.name for leg in report.legs], offset_h), "<h2>Legs</h2>",
+              _overview_html(report.legs, labels, offset_h)]
+    full = worst_legs(report.legs, legs_in_full)
+    if full:
+        rule = ("" if len(full) == len(report.legs) else
+                f'<p class="small">The {len(full)} worst of {len(report.legs)} legs in full (by worst class, '
+                "then highest MSI).</p>")
+        parts += ["<h2>Legs in detail</h2>", rule] + [_leg_html(report.legs[i], labels, offset_h) for i in full]
+    counts = flag_counts(c.flags)
+    if counts:
+        parts += ["<h2>Flagged samples (all legs)</h2>", flag_table(counts, "Samples")]
+    parts += [_notes_html(report), "<h2>Inputs</h2>", _table(("Input", "Value"), report.inputs.rows()),
+              "<h2>Methods and sources</h2>" + bullets(METHOD_NOTES)]
     return page(report.title, parts, report.caution)
 
 
