@@ -24,7 +24,7 @@ import numpy as np
 from .html import esc
 
 __all__ = ["Frame", "MAX_POINTS", "fmt_px", "nice_ticks", "time_ticks", "svg_doc", "text", "axes", "line", "band",
-           "rect_runs", "heat_grid", "vmarker", "hmarker", "bars", "route_map", "Track", "NM_PER_DEG"]
+           "rect_runs", "heat_grid", "vmarker", "hmarker", "bars", "Track", "NM_PER_DEG"]
 
 MAX_POINTS: int = 1200
 """Points per drawn line at most (thinned by buckets above that)."""
