@@ -171,13 +171,23 @@ def median_member_index(values: FloatArray, ok: NDArray[np.bool_]) -> NDArray[np
 
 
 def _percentiles(msi: FloatArray, ok: NDArray[np.bool_]) -> Tuple[FloatArray, FloatArray, FloatArray]:
-    """10th, 50th, 90th percentile over members (numpy's linear definition), NaN where k = 0."""
-    any_ok = ok.any(axis=0)
-    out = [np.full(msi.shape[1], np.nan) for _ in range(3)]
-    if any_ok.any():
-        vals = np.where(ok, msi, np.nan)[:, any_ok]
-        for arr, q in zip(out, (10.0, 50.0, 90.0)):
-            arr[any_ok] = np.nanpercentile(vals, q, axis=0)
+    """10th, 50th, 90th percentile over the k members with a value, per point, NaN where k = 0.
+
+    Definition 7 of Hyndman & Fan (1996): h = (k - 1) q / 100, Q = x_(floor h) + (h - floor h)
+    (x_(floor h + 1) - x_(floor h)) on the sorted values x_(0..k-1) (numpy's "linear").
+    """
+    x = np.sort(np.where(ok, msi, np.inf), axis=0)
+    k = ok.sum(axis=0)
+    cols = np.arange(msi.shape[1])
+    out = []
+    for q in (10.0, 50.0, 90.0):
+        h = np.maximum(k - 1, 0) * (q / 100.0)
+        lo = np.floor(h).astype(np.int64)
+        hi = np.minimum(lo + 1, np.maximum(k - 1, 0))
+        a, b = x[lo, cols], x[hi, cols]
+        with np.errstate(invalid="ignore"):
+            v = a + (h - lo) * np.where(hi > lo, b - a, 0.0)
+        out.append(np.where(k > 0, v, np.nan))
     return out[0], out[1], out[2]
 
 
