@@ -111,3 +111,23 @@ def test_median_member_even_count_takes_lower_middle_and_skips_missing():
     assert v[idx[0], 0] == 2.0  # 1,2,3,4 -> lower middle 2
     assert v[idx[1], 1] == 5.0  # 1,5,7 -> 5
     assert median_member_index(v, np.zeros_like(ok)).tolist() == [-1, -1]
+
+
+def test_sweep_lowest_prob_taxing_against_single_member_sweeps(ens, profile):
+    from seaway_comfort.processing.core.sweep.engine import sweep_departures
+
+    kw = dict(depart_from_utc=T0, depart_to_utc=T0 + np.timedelta64(6, "h"), step_h=3.0, profile=profile,
+              speeds_kn=[10.0], spacing_nm=4.0, criterion="lowest_prob_taxing")
+    e = sweep_departures(*ROUTE, sea_states=[ens], **kw)
+    singles = [sweep_departures(*ROUTE, sea_states=[ens.member_source(m)], **kw) for m in ens.members]
+    # hand count: members whose passage reaches class >= 3 anywhere
+    hit = np.array([[np.any(s.comfort_class[0, 0, d] >= 3) for d in range(3)] for s in singles])
+    assert 0 < hit.sum() < hit.size  # the data gives probabilities strictly between 0 and 100
+    np.testing.assert_allclose(e.prob_taxing_pct[0, 0], 100.0 * hit.mean(axis=0))
+    np.testing.assert_allclose(e.criterion_value[0, 0], e.prob_taxing_pct[0, 0])
+    worst = np.stack([s.worst_msi_pct[0, 0] for s in singles])
+    np.testing.assert_array_equal(e.worst_msi_pct[0, 0], np.median(worst, axis=0))  # 9 members: the median member
+    rows = e.rows_of(e.source_names[0])
+    first = min(rows, key=lambda r: r.rank)
+    best = min(rows, key=lambda r: (not (r.in_forecast and r.n_missing == 0), r.criterion_value, r.worst_msi_pct))
+    assert first.depart_utc == best.depart_utc
