@@ -131,3 +131,15 @@ def test_sweep_lowest_prob_taxing_against_single_member_sweeps(ens, profile):
     first = min(rows, key=lambda r: r.rank)
     best = min(rows, key=lambda r: (not (r.in_forecast and r.n_missing == 0), r.criterion_value, r.worst_msi_pct))
     assert first.depart_utc == best.depart_utc
+
+
+def test_report_section_shows_band_and_class_probabilities(runs):
+    from seaway_comfort.processing.core.reports.ensemble import ensemble_section
+
+    e, _ = runs
+    html = ensemble_section([e], ["<leg A>"])
+    assert f"Ensemble: {M} members" in html and "&lt;leg A&gt;" in html
+    probs = e.class_probability_pct()
+    row = html.split("&lt;leg A&gt;</td>")[1].split("</tr>")[0]
+    cells = [c.replace("<td>", "").strip() for c in row.split("</td>") if c.strip()]
+    assert [float(c) for c in cells[:6]] == pytest.approx(np.round(probs), abs=0.5)
