@@ -53,3 +53,37 @@ def ensemble_section(legs: Sequence[object], leg_names: Sequence[str]) -> str:
     headers = ["leg"] + [f"{c} %" for c in COMFORT_CLASS_LABELS] + ["no result %", "max P(taxing+) at a sample %"]
     return "\n".join(head + [png_img(ensemble_band_png(legs, leg_names), "MSI spread along the route"),
                              table(headers, rows)])
+
+
+def probability_heat_map_png(result: object) -> Optional[bytes]:
+    """Speed (vertical) x departure (horizontal) coloured by the highest probability over the
+    sources that the passage reaches taxing or worse [%] (a sweep's ``prob_taxing_pct``)."""
+    fig = new_figure(8.0, 1.6 + 0.5 * len(result.speeds_kn))  # type: ignore[attr-defined]
+    if fig is None:
+        return None
+    prob = np.asarray(result.prob_taxing_pct, dtype=float)  # type: ignore[attr-defined]  # (S, K, D)
+    worst = np.where(np.isfinite(prob), prob, -1.0).max(axis=1)
+    deps = result.departures_utc  # type: ignore[attr-defined]
+    hours = (deps - deps[0]).astype("timedelta64[ms]").astype(float) / 3.6e6
+    ax = fig.add_subplot(1, 1, 1)
+    im = ax.imshow(np.where(worst >= 0, worst, np.nan), cmap="Reds", vmin=0.0, vmax=100.0, aspect="auto",
+                   origin="lower", interpolation="nearest")
+    step = max(1, hours.size // 10)
+    ax.set_xticks(np.arange(0, hours.size, step))
+    ax.set_xticklabels([f"{h:g}" for h in hours[::step]], fontsize=7)
+    ax.set_yticks(np.arange(len(result.speeds_kn)))  # type: ignore[attr-defined]
+    ax.set_yticklabels([f"{v:g} kn" for v in result.speeds_kn], fontsize=7)  # type: ignore[attr-defined]
+    ax.set_xlabel(f"departure, hours after {str(deps[0])[:16]} UTC")
+    fig.colorbar(im, ax=ax, label="P(taxing or worse) %")
+    return figure_png(fig)
+
+
+def sweep_probability_section(result: object) -> str:
+    """Markup: the probability heat map and a note on how it is counted."""
+    return "\n".join([
+        "<h2>Probability of a taxing passage</h2>",
+        "<p>Share of ensemble members whose passage reaches comfort class taxing or worse at any sample "
+        "(a deterministic source counts as one member: 0 or 100 %); the highest over the sources. "
+        "Blank where no member had results.</p>",
+        png_img(probability_heat_map_png(result), "Probability of a taxing passage by speed and departure"),
+    ])

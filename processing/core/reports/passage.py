@@ -295,21 +295,23 @@ def _overview_html(legs: Sequence[LegReport]) -> str:
     )
 
 
-def render_html(report: ReportData, *, plots: bool = True) -> str:
-    """The report as one self-contained HTML5 page (no scripts, no external resources)."""
+def render_html(report: ReportData, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
+    """The report as one self-contained HTML5 page (no scripts, no external resources);
+    ``extra_sections``: markup placed before the methods (e.g. :mod:`.ensemble`)."""
     labels = report.class_labels or tuple(f"class {i}" for i in range(len(COMFORT_PALETTE)))
     parts = ["<h2>Inputs</h2>", _table(("Input", "Value"), report.inputs.rows())]
     if report.warnings:
         parts.append("<h2>Warnings</h2>" + bullets(report.warnings))
     parts.append(_overview_html(report.legs))
     parts.extend(_leg_html(leg, labels, plots) for leg in report.legs)
+    parts.extend(extra_sections)
     parts.append("<h2>Methods and sources</h2>" + bullets(METHOD_NOTES))
     return page(report.title, parts, report.caution)
 
 
-def write_html(path: str, report: ReportData, *, plots: bool = True) -> str:
+def write_html(path: str, report: ReportData, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
     """Write :func:`render_html` to ``path`` (UTF-8) and return the path."""
-    return write_page(path, render_html(report, plots=plots))
+    return write_page(path, render_html(report, plots=plots, extra_sections=extra_sections))
 
 
 def text_summary(report: ReportData) -> str:

@@ -127,7 +127,7 @@ def criterion_plot_png(result: SweepResult) -> Optional[bytes]:
     else:
         values = result.criterion_value
         ylabel = {"worst_msi": "worst MSI on the passage", "hours_above": "hours above the acceptable class",
-                  "dose": "MSDV at arrival"}[crit] + f" [{unit}]"
+                  "dose": "MSDV at arrival", "lowest_prob_taxing": "P(taxing or worse)"}[crit] + f" [{unit}]"
     styles = ["-", "--", ":", "-."]
     for s, v in enumerate(result.speeds_kn):
         lo = np.where(np.isfinite(values[s]), values[s], np.nan)
@@ -215,8 +215,9 @@ def _ranked_html(res: SweepResult) -> List[str]:
     return parts
 
 
-def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
-    """The report as one self-contained HTML5 page (no scripts, no external resources)."""
+def render_sweep_html(report: SweepReport, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
+    """The report as one self-contained HTML5 page (no scripts, no external resources);
+    ``extra_sections``: markup placed after the plots (e.g. :mod:`.ensemble`)."""
     res = report.result
     rec = res.recommendation
     parts = [
@@ -229,6 +230,7 @@ def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
         parts.append("<h2>Warnings</h2>" + bullets(report.warnings))
     if plots:
         parts.extend(_plots_html(res))
+    parts.extend(extra_sections)
     parts.extend(_ranked_html(res))
     counts = flag_counts(res.flags)
     if counts:
@@ -240,9 +242,9 @@ def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
     return page(report.title, parts, report.caution)
 
 
-def write_sweep_html(path: str, report: SweepReport, *, plots: bool = True) -> str:
+def write_sweep_html(path: str, report: SweepReport, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
     """Write :func:`render_sweep_html` to ``path`` (UTF-8) and return the path."""
-    return write_page(path, render_sweep_html(report, plots=plots))
+    return write_page(path, render_sweep_html(report, plots=plots, extra_sections=extra_sections))
 
 
 def sweep_text_summary(result: SweepResult, *, top: int = 5) -> str:
