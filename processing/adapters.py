@@ -24,7 +24,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime, QVariant
 
 from .core.flags import flag_codes_array
-from .core.passage.fields import MOTION_OUTPUTS
+from .core.passage.fields import ENSEMBLE_OUTPUTS, MOTION_OUTPUTS
 from .core.passage.pipeline import NOT_COMPUTED_CLASS, PassageResult
 from .core.validation import show
 
@@ -302,6 +302,31 @@ def passage_fields() -> QgsFields:
 
 def _null() -> Any:
     return QVariant()
+
+
+ENSEMBLE_POINT_FIELDS = tuple((o.name, "int" if o.name == "members" else "double") for o in ENSEMBLE_OUTPUTS)
+"""The ensemble fields appended to the point and segment fields (core.passage.fields)."""
+
+
+def ensemble_passage_fields() -> QgsFields:
+    """:func:`passage_fields` plus :data:`ENSEMBLE_POINT_FIELDS` (members, prob_taxing_pct, ...)."""
+    fields = passage_fields()
+    for name, kind in ENSEMBLE_POINT_FIELDS:
+        fields.append(make_field(name, kind))
+    return fields
+
+
+def with_ensemble(features: Iterator[QgsFeature], ens: Any) -> Iterator[QgsFeature]:
+    """The features of one leg (feature i = sample i) with the ensemble attributes appended;
+    NULL for a deterministic leg (``ens`` None) or where no member had a result."""
+    for i, f in enumerate(features):
+        extra: List[Any] = []
+        for name, kind in ENSEMBLE_POINT_FIELDS:
+            v = None if ens is None else float(getattr(ens, name)[i])
+            ok = v is not None and math.isfinite(v) and not (kind == "int" and v <= 0)
+            extra.append((int(v) if kind == "int" else v) if ok else _null())
+        f.setAttributes(list(f.attributes())[:len(POINT_FIELDS)] + extra)
+        yield f
 
 
 def _attributes(r: PassageResult, i: int, leg_name: str, flag_text: Sequence[str]) -> List[Any]:

@@ -116,7 +116,7 @@ def _sea_parameters() -> List[QgsProcessingParameterDefinition]:
             QgsProcessing.SourceType.TypeFile,
         ),
         QgsProcessingParameterString(
-            SOURCE_NAMES, tr("Source names (comma-separated, one per forecast file)"),
+            SOURCE_NAMES, tr("Source names (comma-separated, one per forecast file; files sharing a name form one source)"),
             optional=True,
         ),
         advanced(QgsProcessingParameterEnum(
@@ -189,6 +189,7 @@ class PassageSettings:
     spread_s: float
     long_crested: bool
     method: Optional[str]
+    names_given: bool = False  # SOURCE_NAMES was filled (else files are grouped automatically)
 
 
 def user_vessel_dir() -> Path:
@@ -375,6 +376,7 @@ def parse_passage_settings(
         spread_s=spread,
         long_crested=alg.parameterAsBoolean(parameters, LONG_CRESTED, context),
         method=METHOD_CHOICES[alg.parameterAsEnum(parameters, METHOD, context)],
+        names_given=bool((alg.parameterAsString(parameters, SOURCE_NAMES, context) or "").strip()),
     )
 
 
@@ -438,22 +440,32 @@ def read_route(
 
 
 def open_sources(settings: PassageSettings, feedback: Optional[Any]) -> List[Any]:
-    """Open every forecast file as one sea-state source (named from SOURCE_NAMES or the file)."""
-    from ..core.seastate import open_sea_state
+    """Open the forecast files as sea-state sources: files sharing a name in SOURCE_NAMES form one
+    source; without names, files that cannot stand alone (or hold other steps or members of the
+    same forecast) are joined (:mod:`..core.seastate.grouping`); every join is logged."""
+    from ..core.seastate.grouping import open_grouped_sources
 
-    sources = []
-    for i, path in enumerate(settings.sea_state_paths):
-        name = settings.source_names[i] if settings.source_names else None
-        try:
-            src = open_sea_state(path, source_name=name)
-        except SeawayInputError as exc:
-            raise QgsProcessingException(f"SEA_STATE {show(path)}: {exc}") from exc
-        except RuntimeError as exc:  # GDAL errors
-            raise QgsProcessingException(f"SEA_STATE {show(path)} could not be read: {exc}") from exc
+    paths = list(settings.sea_state_paths)
+    names = list(settings.source_names) if settings.names_given else []
+    try:
+        sources, log = open_grouped_sources(paths, names)
+    except SeawayInputError as exc:
+        raise QgsProcessingException(f"SEA_STATE: {exc}") from exc
+    except RuntimeError as exc:  # GDAL errors
+        raise QgsProcessingException(f"SEA_STATE could not be read: {exc}") from exc
+    if not names:  # distinct display names from the files (stems may coincide)
+        default = dict(zip(paths, settings.source_names))
+        for src in sources:
+            src.name = default.get(src.inventory().files[0], src.name)
+    for line in log:
+        if feedback is not None:
+            feedback.pushInfo(line)
+    for src in sources:
         for w in getattr(src, "warnings", ()) or ():
             if feedback is not None:
                 feedback.pushWarning(f"{src.name}: {w}")
-        sources.append(src)
+        if getattr(src, "members", ()) and feedback is not None:
+            feedback.pushInfo(f"{src.name}: {src.inventory().members_text}")
     return sources
 
 

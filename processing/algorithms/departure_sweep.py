@@ -178,6 +178,8 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             "(UTC) every DEPART_STEP_H hours, at each speed of SPEEDS_KN (empty: SPEED_KN), through "
             "each sea-state file separately, and ranks the departures.</p>"
             "<p><b>What best means</b> (CRITERION): lowest worst-case motion sickness incidence (MSI); "
+            "lowest_prob_taxing (last choice): lowest share of ensemble members reaching taxing or worse "
+            "anywhere, ties broken by the median MSI; "
             "least time above the acceptable comfort class MAX_CLASS (0 smooth, 1 steady, 2 lively, "
             "3 taxing, 4 punishing); lowest motion sickness dose (ISO 2631-1) at arrival; or the "
             "earliest departure that stays within limits (no sample above MAX_CLASS, inside the "
@@ -313,8 +315,14 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         if report_path:
             report = build_sweep_report(result, report_inputs(job, result), warnings=warnings,
                                         route_lonlat=(job.leg.lon_deg, job.leg.lat_deg))
+            extra = []
+            prob = result.prob_taxing_pct
+            if result.criterion == "lowest_prob_taxing" or np.any((prob > 0.0) & (prob < 100.0)):  # ensemble
+                from ..core.reports.ensemble import sweep_probability_section
+
+                extra.append(sweep_probability_section(result))
             try:
-                write_sweep_html(report_path, report)
+                write_sweep_html(report_path, report, extra_sections=extra)
             except OSError as exc:
                 raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = report_path

@@ -43,7 +43,8 @@ def summary_lines(inv: Any) -> str:
     parts = [p for p in PARTITIONS if any(n.startswith(p + "_") for n in names)]
     return (
         f"Combined sea: {', '.join(combined) if combined else 'none (built from the partitions)'}\n"
-        f"Partitions: {', '.join(parts) if parts else 'none'}\n\n"
+        f"Partitions: {', '.join(parts) if parts else 'none'}\n"
+        f"Ensemble: {getattr(inv, 'members_text', '') or 'none (one deterministic forecast)'}\n\n"
     )
 
 

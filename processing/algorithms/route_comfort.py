@@ -63,6 +63,7 @@ class Passages:
 
     results: Tuple[Tuple[str, Any], ...]
     source_names: Tuple[str, ...]
+    ensembles: Tuple[Any, ...] = ()  # per result: its EnsemblePassage, or None (deterministic)
 
     @property
     def n_samples(self) -> int:
@@ -101,7 +102,15 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
             "<code>speed_kn</code> (knots); they override DEPARTURE and SPEED_KN.</p>"
             "<p><b>Sea state</b>: one or more GRIB2 / NetCDF-CF / GeoTIFF files; with several files the "
             "first one with data at a sample is used (or, in compare mode, each file gives its own "
-            "result). Bathymetry is optional; without it deep water is assumed.</p>"
+            "result). Files sharing a name in SOURCE_NAMES form one source; without names, a file that "
+            "cannot stand alone (no height, period or direction) is joined with the others, and so are "
+            "files holding other steps of the same forecast (the log lists every join). "
+            "Bathymetry is optional; without it deep water is assumed.</p>"
+            "<p><b>Ensembles</b> (NetCDF member/realization dimension, GRIB2 templates 4.1/4.11): every "
+            "member is computed; the usual fields hold the median member per quantity, and the fields "
+            "members, prob_taxing_pct (share of members taxing or worse), prob_criteria_pct (share with "
+            "a seakeeping criterion exceeded), msi_p10_pct, msi_p50_pct and msi_p90_pct give the spread. "
+            "The report adds the MSI band and the class probability per leg.</p>"
             "<p><b>Method</b>: linear wave theory at the local depth (Airy), encounter period from "
             "the relative heading (0 following, 90 beam, 180 head), JONSWAP spectra with cos-2s "
             "spreading (DNV-RP-C205), closed-form heave and pitch (Jensen, Mansour &amp; Olsen 2004) "
@@ -139,6 +148,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
 
     def compute(self, run: Run, job: RouteJob) -> Passages:
         results: List[Tuple[str, Any]] = []
+        ensembles: List[Any] = []
         with common.opened_sea(job.settings, run.feedback) as (sources, depth):
             groups = source_groups(job.settings, sources)
             n_jobs = len(job.legs) * len(groups)
@@ -149,14 +159,17 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
                     label = leg.name if not gname else f"{leg.name} [{gname}]"
                     run.feedback.pushInfo(f"Leg {k + 1}: {label}, departing {str(departure)[:16]} UTC at {speed:g} kn")
                     progress = run.progress(90.0 * k / n_jobs, 90.0 * (k + 1) / n_jobs)
-                    results.append((label, _passage(job, leg, (departure, speed), group, depth, progress, k)))
-        return Passages(tuple(results), tuple(s.name for s in sources))
+                    ens = _passage(job, leg, (departure, speed), group, depth, progress, k)
+                    ensembles.append(ens if hasattr(ens, "member_ids") else None)
+                    results.append((label, ens.result if hasattr(ens, "member_ids") else ens))
+        return Passages(tuple(results), tuple(s.name for s in sources), tuple(ensembles))
 
     def write_sinks(self, run: Run, job: RouteJob, passages: Passages) -> Dict[str, Any]:
         from .. import adapters
         from ..styling import OutputStyle
 
-        fields = adapters.passage_fields()
+        ens = passages.ensembles if any(e is not None for e in passages.ensembles) else ()
+        fields = adapters.ensemble_passage_fields() if ens else adapters.passage_fields()
         crs = QgsCoordinateReferenceSystem(adapters.WGS84)
         abstract = provenance_text(job.settings, job.route_source)
         out: Dict[str, Any] = {}
@@ -164,7 +177,9 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
             (OUTPUT_POINTS, QgsWkbTypes.Type.Point, adapters.point_features, "Seaway Comfort passage samples"),
             (OUTPUT_SEGMENTS, QgsWkbTypes.Type.LineString, adapters.segment_features, "Seaway Comfort passage segments"),
         ):
-            feats = (f for label, res in passages.results for f in features(res, fields, label))
+            feats = (f for k, (label, res) in enumerate(passages.results)
+                     for f in (adapters.with_ensemble(features(res, fields, label), ens[k]) if ens
+                               else features(res, fields, label)))
             out[name] = run.write_sink(name, fields, wkb, crs, feats, OutputStyle(title, abstract))
         run.feedback.setProgress(92)
         return out
@@ -184,11 +199,19 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         report_path = run.file_output(OUTPUT_REPORT)
         if report_path:
             try:
-                write_html(report_path, report)
+                write_html(report_path, report, extra_sections=ensemble_sections(passages))
             except OSError as exc:
                 raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = report_path
         return out
+
+
+def ensemble_sections(passages: Passages) -> List[str]:
+    """The report's ensemble section over the legs computed from an ensemble ([] without)."""
+    from ..core.reports.ensemble import ensemble_section
+
+    pairs = [(label, e) for (label, _), e in zip(passages.results, passages.ensembles) if e is not None]
+    return [ensemble_section([e for _, e in pairs], [label for label, _ in pairs])] if pairs else []
 
 
 def source_groups(settings: common.PassageSettings, sources: List[Any]) -> List[Tuple[str, List[Any]]]:
@@ -210,11 +233,14 @@ def leg_plan(settings: common.PassageSettings, leg: Any) -> Tuple[Any, float]:
 
 def _passage(job: RouteJob, leg: Any, plan: Tuple[Any, float], group: List[Any], depth: Any, progress: Any,
              index: int) -> Any:
-    """Result ``index``: one leg with its (departure, speed) through one group of sources."""
+    """Result ``index``: one leg with its (departure, speed) through one group of sources; an
+    :class:`..core.passage.ensemble.EnsemblePassage` when a source of the group has members."""
+    from ..core.passage.ensemble import compute_ensemble_passage, ensemble_members
     from ..core.passage.pipeline import compute_passage
 
     with common.input_error(f"leg {show(leg.name)}: "):
-        return compute_passage(
+        run = compute_ensemble_passage if ensemble_members(group) else compute_passage
+        return run(
             leg.lon_deg, leg.lat_deg, departure_utc=plan[0], speed_kn=plan[1], sea_states=group,
             progress=progress, leg=index, **common.passage_options(job.settings, depth, job.settings.method),
         )

@@ -92,8 +92,13 @@ def _cf_coordinate(rg: Any, name: str, dim: Any, values: np.ndarray,
 
 
 def _write_cf_coordinates(rg: Any, lon: np.ndarray, lat: np.ndarray, tvals: np.ndarray,
-                          time_units: str, calendar: str) -> list:
-    """The time/lat/lon dimensions and coordinate variables plus the ``crs`` grid mapping."""
+                          time_units: str, calendar: str, members: Optional[np.ndarray] = None) -> list:
+    """The [member/]time/lat/lon dimensions and coordinate variables plus the ``crs`` grid mapping."""
+    head = []
+    if members is not None:
+        dm = rg.CreateDimension("member", None, None, members.size)
+        _cf_coordinate(rg, "member", dm, members, {"standard_name": "realization", "long_name": "ensemble member"})
+        head = [dm]
     dt = rg.CreateDimension("time", gdal.DIM_TYPE_TEMPORAL, None, tvals.size)
     dy = rg.CreateDimension("lat", gdal.DIM_TYPE_HORIZONTAL_Y, None, lat.size)
     dx = rg.CreateDimension("lon", gdal.DIM_TYPE_HORIZONTAL_X, None, lon.size)
@@ -104,7 +109,7 @@ def _write_cf_coordinates(rg: Any, lon: np.ndarray, lat: np.ndarray, tvals: np.n
     crs = rg.CreateMDArray("crs", [], gdal.ExtendedDataType.Create(gdal.GDT_Int32))
     _attr(crs, "grid_mapping_name", "latitude_longitude")
     _attr(crs, "crs_wkt", _wgs84_wkt())
-    return [dt, dy, dx]
+    return head + [dt, dy, dx]
 
 
 def _create_cf_variable(rg: Any, path: str, dims: list, std: str, name: str, *,
@@ -132,8 +137,9 @@ def _create_cf_variable(rg: Any, path: str, dims: list, std: str, name: str, *,
 
 
 def _write_cf_steps(v: Any, path: str, std: str, name: str, data: ArrayOrStep, shape: tuple,
-                    order: np.ndarray, sf: Optional[float], ao: float, fill: float) -> None:
-    """Write ``data`` one time step at a time (NaN -> ``fill``; packed to Int16 when ``sf``)."""
+                    order: np.ndarray, sf: Optional[float], ao: float, fill: float, lead: tuple = ()) -> None:
+    """Write ``data`` one time step at a time (NaN -> ``fill``; packed to Int16 when ``sf``);
+    ``lead`` are the indices before time (the member)."""
     nt, ny, nx = shape
     for i in range(nt):
         step = data(i) if callable(data) else np.asarray(data, dtype=float)[i]
@@ -150,7 +156,8 @@ def _write_cf_steps(v: Any, path: str, std: str, name: str, data: ArrayOrStep, s
         else:
             out = np.where(np.isfinite(step), step, fill).astype(np.float32)
         gdal_call(f"{path}: cannot write {show(name)} step {i}", v.WriteArray,
-                  np.ascontiguousarray(out[None, :, :]), array_start_idx=[i, 0, 0])
+                  np.ascontiguousarray(out.reshape((1,) * (len(lead) + 1) + out.shape)),
+                  array_start_idx=list(lead) + [i, 0, 0])
 
 
 def write_cf_netcdf(
@@ -169,8 +176,13 @@ def write_cf_netcdf(
     time_units: str = "hours since 1970-01-01 00:00:00",
     calendar: str = "standard",
     extra_attributes: Optional[Mapping[str, Mapping[str, str]]] = None,
+    members: Optional[Sequence[int]] = None,
 ) -> str:
     """Write a CF NetCDF file of (time, lat, lon) variables keyed by CF standard name.
+
+    With ``members`` (ensemble member labels) every variable is (member, time, lat, lon): a
+    dimension ``member`` whose coordinate has ``standard_name = "realization"``, and
+    ``variables[std_name]`` an array (nm, nt, ny, nx).
 
     ``variables[std_name]`` is an array (nt, ny, nx) in the order of ``lat_deg``/``lon_deg`` or a
     function of the time index returning (ny, nx) (to write large files step by step). NaN is
@@ -187,7 +199,8 @@ def write_cf_netcdf(
     drv = gdal.GetDriverByName("netCDF")
     ds = gdal_call(f"cannot create NetCDF file {show(path)}", drv.CreateMultiDimensional, path)
     rg = ds.GetRootGroup()
-    dims = _write_cf_coordinates(rg, lon, lat, tvals, time_units, calendar)
+    mem = None if members is None else np.asarray(members, dtype=float).ravel()
+    dims = _write_cf_coordinates(rg, lon, lat, tvals, time_units, calendar, mem)
     for std, data in variables.items():
         name = (var_names or {}).get(std) or (
             CF_STANDARD_NAMES[std].canonical if std in CF_STANDARD_NAMES else std)
@@ -198,7 +211,15 @@ def write_cf_netcdf(
                                 units=(units or {}).get(std),
                                 extra=(extra_attributes or {}).get(std) or {})
         shape = (t_s.size, lat.size, lon.size)
-        _write_cf_steps(v, path, std, name, data, shape, order, sf, ao, fill)
+        if mem is None:
+            _write_cf_steps(v, path, std, name, data, shape, order, sf, ao, fill)
+        else:
+            full = np.asarray(data, dtype=float)
+            if full.shape != (mem.size,) + shape:
+                raise SeawayInputError(f"variables[{show(std)}] has shape {full.shape}, expected "
+                                       f"{(mem.size,) + shape} (member, time, lat, lon)")
+            for k in range(mem.size):
+                _write_cf_steps(v, path, std, name, full[k], shape, order, sf, ao, fill, lead=(k,))
         del v
     del rg, ds
     return path
@@ -253,8 +274,14 @@ def write_grib2(
     ref_time_utc: Optional[object] = None,
     decimal_scale_factor: int = 2,
     use_perpw_for_tp: bool = False,
+    members: Optional[Sequence[int]] = None,
 ) -> str:
     """Write GRIB2 (discipline 10) with one message per canonical variable and time.
+
+    With ``members`` (perturbation numbers) every variable is (nm, nt, ny, nx) and each message
+    uses product definition template 4.1 (individual ensemble forecast): type of ensemble
+    forecast 0 (unperturbed control) for perturbation number 0, else 3 (positively perturbed;
+    WMO Code table 4.6), the perturbation number and the ensemble size.
 
     ``variables[canonical]`` is (nt, ny, nx) in the order of ``lat_deg``/``lon_deg``. Forecast
     hours are counted from ``ref_time_utc`` (default: the first time). ``use_perpw_for_tp``
@@ -271,19 +298,23 @@ def write_grib2(
     flip = lat[0] < lat[-1]
     lat_w = lat[::-1] if flip else lat
     names = list(variables)
-    nb = len(names) * t_s.size
-    mem = _mem_dataset(lon, lat_w, nb, _wgs84_wkt())
+    ens = [None] if members is None else [int(m) for m in members]
+    mem = _mem_dataset(lon, lat_w, len(names) * t_s.size * len(ens), _wgs84_wkt())
     opts = _grib_options(ref_s, decimal_scale_factor)
+    if members is not None:
+        opts[opts.index("PDS_PDTN=0")] = "PDS_PDTN=1"
     b = 0
     for name in names:
         shape = (t_s.size, lat.size, lon.size)
-        (cat, num, ltype, lval), data = _grib_field(name, variables[name], shape, use_perpw_for_tp)
-        for i in range(t_s.size):
-            b += 1
-            arr = data[i][::-1] if flip else data[i]
-            mem.GetRasterBand(b).WriteArray(arr)
-            opts.append(f"BAND_{b}_PDS_TEMPLATE_ASSEMBLED_VALUES={cat} {num} 2 0 0 0 0 1 "
-                        f"{int(round(hours[i]))} {ltype} 0 {lval} 255 0 0")
+        full = np.asarray(variables[name], dtype=float)
+        for k, m in enumerate(ens):
+            (cat, num, ltype, lval), data = _grib_field(name, full if m is None else full[k], shape, use_perpw_for_tp)
+            tail = "" if m is None else f" {0 if m == 0 else 3} {m} {len(ens)}"
+            for i in range(t_s.size):
+                b += 1
+                mem.GetRasterBand(b).WriteArray(data[i][::-1] if flip else data[i])
+                opts.append(f"BAND_{b}_PDS_TEMPLATE_ASSEMBLED_VALUES={cat} {num} {4 if m is not None else 2} 0 0 0 0 1 "
+                            f"{int(round(hours[i]))} {ltype} 0 {lval} 255 0 0{tail}")
     gdal_call(f"cannot write GRIB2 file {show(path)}", gdal.GetDriverByName("GRIB").CreateCopy, path, mem,
               options=opts)
     return path

@@ -14,7 +14,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any, Dict, Optional, Tuple
 
-__all__ = ["MotionOutput", "MOTION_OUTPUTS", "MOTION_OUTPUT_NAMES", "with_motion_outputs"]
+__all__ = ["MotionOutput", "MOTION_OUTPUTS", "MOTION_OUTPUT_NAMES", "ENSEMBLE_OUTPUTS", "ENSEMBLE_OUTPUT_NAMES",
+           "with_motion_outputs"]
 
 
 @dataclass(frozen=True)
@@ -46,6 +47,20 @@ specific force and ISO 2631-1 Wf-weighted vertical acceleration at the station, 
 motion sickness incidence (2 h); see :class:`.api.MotionAssessment`."""
 
 MOTION_OUTPUT_NAMES: Tuple[str, ...] = tuple(o.name for o in MOTION_OUTPUTS)
+
+ENSEMBLE_OUTPUTS: Tuple[MotionOutput, ...] = (
+    MotionOutput("members", "", "members"),
+    MotionOutput("prob_taxing_pct", "%", "P(taxing+) %", 0),
+    MotionOutput("prob_criteria_pct", "%", "P(criteria) %", 0),
+    MotionOutput("msi_p10_pct", "%", "MSI p10 %", 1),
+    MotionOutput("msi_p50_pct", "%", "MSI p50 %", 1),
+    MotionOutput("msi_p90_pct", "%", "MSI p90 %", 1),
+)
+"""Per-point figures of an ensemble passage (:mod:`.ensemble`): members with results, share of
+members in comfort class taxing or worse, share with a seakeeping criterion exceeded, and the
+10th/50th/90th percentiles of the members' MSI. Field names are public interface."""
+
+ENSEMBLE_OUTPUT_NAMES: Tuple[str, ...] = tuple(o.name for o in ENSEMBLE_OUTPUTS)
 
 
 def with_motion_outputs(cls: Any) -> Any:

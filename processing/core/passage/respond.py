@@ -33,7 +33,8 @@ from .progress import Progress, Span
 from .result import PassageResult
 from .sample import SeaAtSamples
 
-__all__ = ["RESPONSE_CHUNK", "SHALLOW_DEPTH_PER_WAVELENGTH", "SampleMotions", "respond_motions", "respond"]
+__all__ = ["RESPONSE_CHUNK", "SHALLOW_DEPTH_PER_WAVELENGTH", "SampleMotions", "respond_motions", "respond",
+           "passage_result"]
 
 SHALLOW_DEPTH_PER_WAVELENGTH: float = 1.0 / 20.0
 """Shallow-water limit h/L < 1/20 (USACE Shore Protection Manual 1984, ch. 2)."""
@@ -228,14 +229,21 @@ def respond(plan: PassagePlan, sea: SeaAtSamples, profile: object, *, station: O
             method: Optional[str] = None, progress: Optional[Progress] = None) -> PassageResult:
     """Motions and comfort at every sample with sea data (:func:`respond_motions`), and the
     cumulative dose along the passage; the whole :class:`.result.PassageResult`."""
-    from ..comfort.indices import COMFORT_CLASS_LABELS
-
     span = Span(progress)
     mot = respond_motions(plan, sea, profile, station=station, gamma=gamma, spread_s=spread_s,
                           long_crested=long_crested, method=method, progress=span)
+    out = passage_result(plan, sea, mot, profile)
+    span.check(1.0)
+    return out
+
+
+def passage_result(plan: PassagePlan, sea: SeaAtSamples, mot: SampleMotions, profile: object) -> PassageResult:
+    """The :class:`.result.PassageResult` of one passage from its sea and motions (adds the
+    cumulative dose along the passage)."""
+    from ..comfort.indices import COMFORT_CLASS_LABELS
+
     t_s, notes = plan.elapsed_s, list(sea.notes)
     msdv, vomit = _passage_dose(t_s, mot.outputs["vacc_wf_rms_m_s2"], mot.computed, notes)
-    span.check(1.0)
     n = plan.n
     return PassageResult(
         leg=np.full(n, plan.leg, dtype=np.int64), seq=np.arange(n, dtype=np.int64), eta_utc=plan.eta_utc.copy(),

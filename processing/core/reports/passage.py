@@ -403,10 +403,12 @@ def _hourly_html(c: Concat, names: Sequence[str], offset_h: Optional[float]) -> 
                 rows, raw_cols=(3,)))
 
 
-def render_html(report: ReportData, *, plots: bool = True, legs_in_full: int = LEGS_IN_FULL) -> str:
+def render_html(report: ReportData, *, plots: bool = True, legs_in_full: int = LEGS_IN_FULL,
+                extra_sections: Sequence[str] = ()) -> str:
     """The report as one self-contained HTML5 page (no scripts, no external resources): the
     verdict, the map and the timeline (``plots``), the caller's extra sections, time per class,
-    hour by hour, the legs (the ``legs_in_full`` worst in full), inputs, flags, notes, methods."""
+    hour by hour, the legs (the ``legs_in_full`` worst in full), ``extra_sections`` (e.g.
+    :mod:`.ensemble`), inputs, flags, notes, methods."""
     labels = report.class_labels or tuple(f"class {i}" for i in range(len(COMFORT_PALETTE)))
     offset_h = report.inputs.local_utc_offset_h
     c = concat_legs([leg.result for leg in report.legs])
@@ -416,6 +418,7 @@ def render_html(report: ReportData, *, plots: bool = True, legs_in_full: int = L
     if plots:
         parts += _figures_html(report, c, offset_h)
     parts += [f"<h2>{_esc(head)}</h2>{body}" for head, body in report.sections]
+    parts.extend(extra_sections)
     parts += ["<h2>Time in each comfort class</h2>", _class_hours_html(_total_hours(report.legs), labels),
               _hourly_html(c, [leg.name for leg in report.legs], offset_h), "<h2>Legs</h2>",
               _overview_html(report.legs, labels, offset_h)]
@@ -433,9 +436,9 @@ def render_html(report: ReportData, *, plots: bool = True, legs_in_full: int = L
     return page(report.title, parts, report.caution)
 
 
-def write_html(path: str, report: ReportData, *, plots: bool = True) -> str:
+def write_html(path: str, report: ReportData, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
     """Write :func:`render_html` to ``path`` (UTF-8) and return the path."""
-    return write_page(path, render_html(report, plots=plots))
+    return write_page(path, render_html(report, plots=plots, extra_sections=extra_sections))
 
 
 def text_summary(report: ReportData) -> str:

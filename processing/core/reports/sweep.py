@@ -148,7 +148,7 @@ def criterion_svg(result: SweepResult, offset_h: Optional[float] = None) -> Tupl
     else:
         values = result.criterion_value
         ytitle = {"worst_msi": "worst MSI on the passage", "hours_above": "hours above the acceptable class",
-                  "dose": "dose at arrival"}[crit] + f" [{CRITERION_UNITS[crit]}]"
+                  "dose": "dose at arrival", "lowest_prob_taxing": "P(taxing or worse)"}[crit] + f" [{CRITERION_UNITS[crit]}]"
     t0 = result.departures_utc[0]
     h = hours_after(result.departures_utc, t0)
     series, bands_, keys = [], [], []
@@ -329,10 +329,11 @@ def _ranked_html(res: SweepResult) -> List[str]:
     return parts
 
 
-def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
+def render_sweep_html(report: SweepReport, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
     """The report as one self-contained HTML5 page (no scripts, no external resources): the
     verdict, the map, heat maps and criterion chart (``plots``), extra sections, the tables,
-    flags, notes, inputs and methods."""
+    flags, notes, inputs and methods; ``extra_sections``: markup placed after the caller's sections
+    (e.g. :mod:`.ensemble`)."""
     res = report.result
     offset_h = report.inputs.local_utc_offset_h
     parts = [_verdict_html(report, offset_h)]
@@ -341,6 +342,7 @@ def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
     if plots:
         parts.extend(_figures_html(report, offset_h))
     parts += [f"<h2>{esc(head)}</h2>{body}" for head, body in report.sections]
+    parts.extend(extra_sections)
     parts += ["<h2>What was compared</h2>", _summary_html(res, offset_h)]
     parts.extend(_ranked_html(res))
     counts = flag_counts(res.flags)
@@ -354,9 +356,9 @@ def render_sweep_html(report: SweepReport, *, plots: bool = True) -> str:
     return page(report.title, parts, report.caution)
 
 
-def write_sweep_html(path: str, report: SweepReport, *, plots: bool = True) -> str:
+def write_sweep_html(path: str, report: SweepReport, *, plots: bool = True, extra_sections: Sequence[str] = ()) -> str:
     """Write :func:`render_sweep_html` to ``path`` (UTF-8) and return the path."""
-    return write_page(path, render_sweep_html(report, plots=plots))
+    return write_page(path, render_sweep_html(report, plots=plots, extra_sections=extra_sections))
 
 
 def sweep_text_summary(result: SweepResult, *, top: int = 5) -> str:

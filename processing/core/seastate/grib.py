@@ -21,6 +21,7 @@ from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .grid import GridGeometry
 from .layer import VariableLayer, grid_from_dataset, open_gdal
+from .members import grib_member
 from .timeaxis import parse_grib_time
 from .variables import (
     GRIB_BY_ELEMENT,
@@ -99,11 +100,12 @@ def _distinct_times(entries: List[Tuple[int, int]], where: str, warnings: List[s
     return kept
 
 
-def _grib_layer(path: str, canonical: str, grp: Dict[str, object], grid: GridGeometry, direction_convention: str,
-                disc: Discovery, strict: bool) -> None:
-    """Append the layer of one canonical variable (or an ignored entry for unknown units)."""
+def _grib_layer(path: str, key: Tuple[str, Optional[int]], grp: Dict[str, object], grid: GridGeometry,
+                direction_convention: str, disc: Discovery, strict: bool) -> None:
+    """Append the layer of one canonical variable and member (or an ignored entry for unknown units)."""
+    canonical, member = key
     element = str(grp["element"])
-    where = f"{path} variable {show(canonical)} (GRIB {element})"
+    where = f"{path} variable {show(canonical)} (GRIB {element}" + ("" if member is None else f", member {member}") + ")"
     kept = _distinct_times(grp["entries"], where, disc.warnings)  # type: ignore[arg-type]
     try:
         kind = canonical_kind(canonical)
@@ -120,16 +122,18 @@ def _grib_layer(path: str, canonical: str, grp: Dict[str, object], grid: GridGeo
         units=conv, going_to=going_to, grid=grid,
         times_s=np.array([t for t, _ in kept], dtype=np.int64),
         bands=tuple((path, b) for _, b in kept), notes=tuple(n for n in (str(grp["note"]), dir_note) if n),
+        member=member, member_kind=str(grp["member_kind"]),
     ))
 
 
 def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: str,
                   *, strict: bool) -> Discovery:
-    """Scan a GRIB2 file; one layer per canonical variable (bands sorted by valid time)."""
+    """Scan a GRIB2 file; one layer per canonical variable and ensemble member (bands sorted by
+    valid time; members from templates 4.1 / 4.11, :mod:`.members`)."""
     disc = Discovery(path, "grib2")
     ds = open_gdal(path, what="GRIB2 file")
     grid = grid_from_dataset(ds, where=f"{path}")
-    groups: Dict[str, Dict[str, object]] = {}
+    groups: Dict[Tuple[str, Optional[int]], Dict[str, object]] = {}
     for b in range(1, ds.RasterCount + 1):
         md = ds.GetRasterBand(b).GetMetadata() or {}
         ident = _band_identity(b, md, inverse_map, disc)
@@ -144,9 +148,12 @@ def discover_grib(path: str, inverse_map: Dict[str, str], direction_convention: 
                 raise
             disc.ignored.append((f"{element} (band {b})", str(exc)))
             continue
-        grp = groups.setdefault(canonical, {"entries": [], "element": element, "how": how,
-                                            "priority": priority, "unit": md.get("GRIB_UNIT", ""), "note": note})
+        mem = grib_member((_ints(md.get("GRIB_PDS_PDTN", "-1")) or [-1])[0],
+                          _ints(md.get("GRIB_PDS_TEMPLATE_ASSEMBLED_VALUES", "")))
+        grp = groups.setdefault((canonical, None if mem is None else mem[0]), {
+            "entries": [], "element": element, "how": how, "priority": priority,
+            "unit": md.get("GRIB_UNIT", ""), "note": note, "member_kind": "" if mem is None else mem[1]})
         grp["entries"].append((int(t.astype(np.int64)), b))  # type: ignore[union-attr]
-    for canonical, grp in groups.items():
-        _grib_layer(path, canonical, grp, grid, direction_convention, disc, strict)
+    for key, grp in groups.items():
+        _grib_layer(path, key, grp, grid, direction_convention, disc, strict)
     return disc

@@ -54,6 +54,8 @@ class Inventory:
     ignored: Tuple[IgnoredEntry, ...]
     warnings: Tuple[str, ...]
     caution: str = CAUTION
+    members: Tuple[int, ...] = ()  # ensemble member labels; () for a deterministic source
+    members_text: str = ""  # e.g. "51 ensemble members: 0..50; control 0; perturbed 1..50"
 
     def as_dict(self) -> Dict[str, Any]:
         return asdict(self)
@@ -61,6 +63,8 @@ class Inventory:
     def as_text(self) -> str:
         lines = [f"Sea-state source: {self.source_name}", "Files:"]
         lines += [f"  {f}" for f in self.files]
+        if self.members:
+            lines.append(f"Ensemble: {self.members_text} (variables listed for member {self.members[0]})")
         lines.append("Variables:")
         for v in self.variables:
             g = v.grid

@@ -116,6 +116,8 @@ class VariableLayer:
     extra_nodata: Tuple[float, ...] = ()
     files: Tuple[str, ...] = field(default=())
     valid_range_raw: Optional[Tuple[float, float]] = None  # CF valid_min/valid_max, packed units
+    member: Optional[int] = None  # ensemble member label (None: deterministic, see .members)
+    member_kind: str = ""  # "control", "perturbed" or "" (unknown / deterministic)
 
     @property
     def all_files(self) -> Tuple[str, ...]:

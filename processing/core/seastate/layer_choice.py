@@ -9,7 +9,7 @@ are taken from the file read first, with a warning naming that file.
 from __future__ import annotations
 
 from dataclasses import replace
-from typing import Dict, List
+from typing import Dict, List, Optional
 
 import numpy as np
 
@@ -70,3 +70,18 @@ def choose_layers(layers_in_order: List[VariableLayer], warnings: List[str]) -> 
         why = "for the same times" if overlap else "on a different grid"
         warnings.append(f"{show(c)} is in both {old.file} and {layer.file} {why}; {old.file} is used")
     return chosen
+
+
+def choose_by_member(layers_in_order: List[VariableLayer], warnings: List[str]
+                     ) -> Dict[Optional[int], Dict[str, VariableLayer]]:
+    """:func:`choose_layers` once per ensemble member (deterministic layers join every member);
+    ``{None: ...}`` when no layer has a member. Warnings are collected once each."""
+    members = sorted({l.member for l in layers_in_order if l.member is not None})
+    if not members:
+        return {None: choose_layers(layers_in_order, warnings)}
+    out: Dict[Optional[int], Dict[str, VariableLayer]] = {}
+    for m in members:
+        found: List[str] = []
+        out[m] = choose_layers([l for l in layers_in_order if l.member in (None, m)], found)
+        warnings.extend(w for w in found if w not in warnings)
+    return out

@@ -18,6 +18,7 @@ from ..validation import SeawayInputError, show
 from .discovery import Discovery, resolve_going_to
 from .grid import GridGeometry
 from .layer import VariableLayer, gdal, gdal_call, grid_from_dataset, open_gdal
+from .members import member_dimension
 from .timeaxis import decode_cf_time, require_increasing
 from .variables import CF_STANDARD_NAMES, canonical_kind, unit_conversion
 
@@ -79,19 +80,41 @@ def discover_netcdf(path: str, inverse_map: Dict[str, str], direction_convention
                                  if std else "no standard_name and not in variable_map"))
             continue
         try:
-            layer = _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority,
-                           units_text, direction_convention, where, disc.warnings)
+            layers = _layers(path, gdal_name, var, ds, md, canonical, how, declared, priority,
+                             units_text, direction_convention, where, disc.warnings)
         except SeawayInputError as exc:
             if strict:
                 raise
             disc.ignored.append((var, str(exc)))
             continue
-        disc.layers.append(layer)
+        disc.layers.extend(layers)
     return disc
 
 
-def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, units_text,  # type: ignore[no-untyped-def]
-           direction_convention, where, warnings) -> VariableLayer:
+def _band_axes(ds, tdim: str, mdim: Optional[str], where: str) -> Tuple[List[float], List[Optional[int]]]:  # type: ignore[no-untyped-def]
+    """Raw time coordinate and member label of every band (None without a member dimension)."""
+    raw: List[float] = []
+    members: List[Optional[int]] = []
+    for b in range(1, ds.RasterCount + 1):
+        band = ds.GetRasterBand(b)
+        item = band.GetMetadataItem(f"NETCDF_DIM_{tdim}")
+        if item is None:
+            raise SeawayInputError(f"{where}: band {b} has no {tdim} coordinate")
+        raw.append(float(item))
+        if mdim is None:
+            members.append(None)
+            continue
+        m = band.GetMetadataItem(f"NETCDF_DIM_{mdim}")
+        try:
+            members.append(int(round(float(m))))
+        except (TypeError, ValueError):
+            raise SeawayInputError(f"{where}: band {b} has no usable {mdim} (member) coordinate, got {show(m)}") from None
+    return raw, members
+
+
+def _layers(path, gdal_name, var, ds, md, canonical, how, declared, priority, units_text,  # type: ignore[no-untyped-def]
+            direction_convention, where, warnings) -> List[VariableLayer]:
+    """One layer per ensemble member (one layer when the variable has no member dimension)."""
     kind = canonical_kind(canonical)
     conv = unit_conversion(kind, units_text, where=where)
     going_to, dir_note = resolve_going_to(kind, declared, direction_convention, where=where,
@@ -99,23 +122,17 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
     tdim, others = _time_dimension(md, where)
     if tdim is None:
         raise SeawayInputError(f"{where}: no time information (no time dimension with CF units)")
+    mdim = member_dimension(others, md)
     for d in others:
         size = _braced(md.get(f"NETCDF_DIM_{d}_DEF", ""))
-        if size and int(size[0]) > 1:
+        if d != mdim and size and int(size[0]) > 1:
             raise SeawayInputError(
-                f"{where}: extra dimension {show(d)} of size {size[0]}; only (time, y, x) variables are read"
+                f"{where}: extra dimension {show(d)} of size {size[0]}; only (time, y, x) and "
+                "(member, time, y, x) variables are read"
             )
-    units = md.get(f"{tdim}#units")
-    calendar = md.get(f"{tdim}#calendar")
-    raw = []
-    for b in range(1, ds.RasterCount + 1):
-        item = ds.GetRasterBand(b).GetMetadataItem(f"NETCDF_DIM_{tdim}")
-        if item is None:
-            raise SeawayInputError(f"{where}: band {b} has no {tdim} coordinate")
-        raw.append(float(item))
-    times = decode_cf_time(raw, units, calendar, where=f"{where} time axis {show(tdim)}")
-    times_s = times.astype(np.int64)
-    require_increasing(times_s, where=where)
+    raw, members = _band_axes(ds, tdim, mdim, where)
+    times_s = decode_cf_time(raw, md.get(f"{tdim}#units"), md.get(f"{tdim}#calendar"),
+                             where=f"{where} time axis {show(tdim)}").astype(np.int64)
     if ds.GetMetadata("GEOLOCATION"):
         raise SeawayInputError(
             f"{where}: the grid is curvilinear (2-D latitude/longitude arrays); only regular "
@@ -123,22 +140,30 @@ def _layer(path, gdal_name, var, ds, md, canonical, how, declared, priority, uni
         )
     grid: GridGeometry = grid_from_dataset(ds, where=where)
     _check_regular_axes(path, var, grid, where)
-    extra_nd: Tuple[float, ...] = ()
     band_md = ds.GetRasterBand(1).GetMetadata() or {}
-    mv = band_md.get("missing_value")
-    if mv is not None:
-        try:
-            extra_nd = tuple(float(v) for v in _braced(mv))
-        except ValueError:
-            extra_nd = ()
-    valid_range = _valid_range(band_md, where)
-    notes = tuple(n for n in (dir_note,) if n)
-    return VariableLayer(
-        canonical=canonical, kind=kind, file=path, file_variable=var, recognised_by=how,
-        priority=priority, units=conv, going_to=going_to, grid=grid, times_s=times_s,
-        bands=tuple((gdal_name, b) for b in range(1, ds.RasterCount + 1)), notes=notes,
-        extra_nodata=extra_nd, valid_range_raw=valid_range,
-    )
+    common = dict(canonical=canonical, kind=kind, file=path, file_variable=var, recognised_by=how,
+                  priority=priority, units=conv, going_to=going_to, grid=grid,
+                  notes=tuple(n for n in (dir_note,) if n), extra_nodata=_missing_values(band_md),
+                  valid_range_raw=_valid_range(band_md, where))
+    out = []
+    for m in dict.fromkeys(members):
+        bands = [b for b, mb in enumerate(members, start=1) if mb == m]
+        t = times_s[[b - 1 for b in bands]]
+        mwhere = where if m is None else f"{where} member {m}"
+        require_increasing(t, where=mwhere)
+        out.append(VariableLayer(times_s=t, bands=tuple((gdal_name, b) for b in bands), member=m, **common))
+    return out
+
+
+def _missing_values(md: Dict[str, str]) -> Tuple[float, ...]:
+    """CF missing_value(s) besides _FillValue (CF 1.8 s.2.5.1); unreadable text is ignored."""
+    mv = md.get("missing_value")
+    if mv is None:
+        return ()
+    try:
+        return tuple(float(v) for v in _braced(mv))
+    except ValueError:
+        return ()
 
 
 def _valid_range(md: Dict[str, str], where: str) -> Optional[Tuple[float, float]]:

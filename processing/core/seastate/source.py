@@ -26,13 +26,15 @@ from .geotiff import discover_geotiff
 from .grib import discover_grib
 from .inventory import IgnoredEntry, Inventory, entry_for_layer
 from .layer import DatasetCache, VariableLayer, open_gdal
-from .layer_choice import choose_layers
+from .layer_choice import choose_by_member
+from .members import member_text
 from .netcdf import discover_netcdf
 from .sampler import LayerSample, sample_layer
 from .timeaxis import as_utc_seconds, to_datetime64
 from .variables import PARTITIONS
 
-__all__ = ["SampledSeaState", "SamplingCancelled", "SeaStateSource", "describe_file", "open_sea_state"]
+__all__ = ["SampledSeaState", "SamplingCancelled", "SeaStateSource", "describe_file", "lacking_variables",
+           "open_sea_state"]
 
 ProgressCallback = Callable[[float], Optional[bool]]
 
@@ -57,14 +59,36 @@ class SeaStateSource:
     """Sea-state variables from one or more files, ready to sample along a route."""
 
     def __init__(self, name: str, layers: Dict[str, VariableLayer], files: Tuple[str, ...],
-                 unused: List[VariableLayer], ignored: List[IgnoredEntry], warnings: List[str]):
+                 unused: List[VariableLayer], ignored: List[IgnoredEntry], warnings: List[str],
+                 members: Optional[Dict[int, Dict[str, VariableLayer]]] = None,
+                 cache: Optional[DatasetCache] = None):
         self.name = name
         self._layers = layers
         self._files = files
         self._unused = unused
         self._ignored = ignored
         self.warnings: List[str] = warnings
-        self._cache = DatasetCache()
+        self._members = dict(members or {})
+        self._cache = cache if cache is not None else DatasetCache()
+
+    # --------------------------------------------------------------- ensemble members
+    @property
+    def members(self) -> Tuple[int, ...]:
+        """Ensemble member labels (GRIB perturbation numbers / NetCDF member coordinate values);
+        () for a deterministic source. :meth:`sample` samples the first member."""
+        return tuple(self._members)
+
+    def member_source(self, member: int) -> "SeaStateSource":
+        """The source of one ensemble member (same name and files, shared open datasets)."""
+        if member not in self._members:
+            raise SeawayInputError(f"{self.name}: no ensemble member {show(member)}; members: "
+                                   f"{member_text(self.members, {}) or 'none (deterministic source)'}")
+        return SeaStateSource(self.name, self._members[member], self._files, [], self._ignored,
+                              self.warnings, cache=self._cache)
+
+    def _member_kinds(self) -> Dict[int, str]:
+        return {m: next((l.member_kind for l in ls.values() if l.member is not None), "")
+                for m, ls in self._members.items()}
 
     # --------------------------------------------------------------- description
     @property
@@ -88,7 +112,8 @@ class SeaStateSource:
     def inventory(self) -> Inventory:
         entries = [entry_for_layer(l, True) for l in self._layers.values()]
         entries += [entry_for_layer(l, False) for l in self._unused]
-        return Inventory(self.name, self._files, tuple(entries), tuple(self._ignored), tuple(self.warnings))
+        return Inventory(self.name, self._files, tuple(entries), tuple(self._ignored), tuple(self.warnings),
+                         members=self.members, members_text=member_text(self.members, self._member_kinds()))
 
     def close(self) -> None:
         self._cache.close()
@@ -202,37 +227,53 @@ def open_sea_state(
         warnings += d.warnings
         ignored += [IgnoredEntry(f, name, reason) for name, reason in d.ignored]
         layers += sorted(d.layers, key=lambda l: l.priority)
-    found_files = {inverse[k] for k in inverse}
-    chosen = choose_layers(layers, warnings)
-    unused = [l for l in layers if chosen.get(l.canonical) is not l and not any(
-        l.bands[0] in c.bands for c in chosen.values())]
-    missing_map = sorted(c for c in found_files if c not in chosen)
+    by_member = choose_by_member(layers, warnings)
+    chosen = next(iter(by_member.values()))
+    _check_map(variable_map, inverse, by_member, files)
+    for m, ch in by_member.items():
+        _require(ch, files, ignored, member=m)
+    unused = [l for l in layers if l.member in (None, next(iter(by_member))) and chosen.get(l.canonical) is not l
+              and not any(l.bands[0] in c.bands for c in chosen.values())]
+    name = source_name if source_name else os.path.splitext(os.path.basename(files[0]))[0]
+    members = {m: ch for m, ch in by_member.items() if m is not None}
+    return SeaStateSource(name, chosen, tuple(files), unused, ignored, warnings, members=members)
+
+
+def _check_map(variable_map: Optional[Dict[str, str]], inverse: Dict[str, str],
+               by_member: Dict[Optional[int], Dict[str, VariableLayer]], files: List[str]) -> None:
+    """Error when a variable_map entry matched nothing in the files."""
+    found = set().union(*(set(ch) for ch in by_member.values()))
+    missing_map = sorted({inverse[k] for k in inverse} - found)
     if missing_map:
         raise SeawayInputError(
             f"variable_map names {', '.join(repr(variable_map[c]) for c in missing_map)} "  # type: ignore[index]
             f"for {', '.join(missing_map)}, but no such variable was found in {', '.join(files)}"
         )
-    _require(chosen, files, ignored)
-    name = source_name if source_name else os.path.splitext(os.path.basename(files[0]))[0]
-    return SeaStateSource(name, chosen, tuple(files), unused, ignored, warnings)
 
 
-def _require(chosen: Dict[str, VariableLayer], files: List[str], ignored: List[IgnoredEntry]) -> None:
-    have = set(chosen)
-    parts = [p for p in PARTITIONS if f"{p}_hs" in have]
+def lacking_variables(have: Sequence[str]) -> List[str]:
+    """What a set of canonical variables lacks to describe a sea state (height, period, direction)."""
+    got = set(have)
+    parts = [p for p in PARTITIONS if f"{p}_hs" in got]
     needs = {
-        "a significant wave height (hs or a partition height)": "hs" in have or bool(parts),
+        "a significant wave height (hs or a partition height)": "hs" in got or bool(parts),
         "a wave period (tp, tm01, tm02, tm10 or a partition period)":
-            bool(have & {"tp", "tm01", "tm02", "tm10"}) or any(f"{p}_tp" in have for p in parts),
+            bool(got & {"tp", "tm01", "tm02", "tm10"}) or any(f"{p}_tp" in got for p in parts),
         "a wave direction (dir or a partition direction)":
-            "dir" in have or any(f"{p}_dir" in have for p in parts),
+            "dir" in got or any(f"{p}_dir" in got for p in parts),
     }
-    lacking = [k for k, ok in needs.items() if not ok]
+    return [k for k, ok in needs.items() if not ok]
+
+
+def _require(chosen: Dict[str, VariableLayer], files: List[str], ignored: List[IgnoredEntry],
+             member: Optional[int] = None) -> None:
+    lacking = lacking_variables(list(chosen))
     if lacking:
-        found = ", ".join(sorted(have)) or "none"
+        found = ", ".join(sorted(chosen)) or "none"
         skipped = "; ".join(f"{e.name}: {e.reason}" for e in ignored[:8])
+        who = "" if member is None else f" (ensemble member {member})"
         raise SeawayInputError(
-            f"{', '.join(files)}: missing {' and '.join(lacking)}. Sea-state variables found: {found}."
+            f"{', '.join(files)}{who}: missing {' and '.join(lacking)}. Sea-state variables found: {found}."
             + (f" Not used: {skipped}." if skipped else "")
             + " Use variable_map to name non-standard variables."
         )
@@ -245,7 +286,12 @@ def describe_file(path: str, *, variable_map: Optional[Dict[str, str]] = None) -
     d = _discover(f, inverse, "auto", None, strict=False)
     warnings = list(d.warnings)
     layers = sorted(d.layers, key=lambda l: l.priority)
-    chosen = choose_layers(layers, warnings)
-    entries = [entry_for_layer(l, chosen.get(l.canonical) is l) for l in layers]
+    by_member = choose_by_member(layers, warnings)
+    first = next(iter(by_member))
+    chosen = by_member[first]
+    entries = [entry_for_layer(l, chosen.get(l.canonical) is l) for l in layers if l.member in (None, first)]
+    members = tuple(m for m in by_member if m is not None)
+    kinds = {l.member: l.member_kind for l in layers if l.member is not None}
     return Inventory(os.path.splitext(os.path.basename(f))[0], (f,), tuple(entries),
-                     tuple(IgnoredEntry(f, n, r) for n, r in d.ignored), tuple(warnings))
+                     tuple(IgnoredEntry(f, n, r) for n, r in d.ignored), tuple(warnings),
+                     members=members, members_text=member_text(members, kinds))

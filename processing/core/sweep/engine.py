@@ -29,7 +29,10 @@ Ranking ("what best means", :data:`CRITERIA`; lower criterion value is better):
 * ``hours_above``: hours spent in a comfort class above ``max_class`` [h];
 * ``dose``: MSDV at arrival [m/s^1.5];
 * ``earliest_ok``: hours after the first departure, for departures that stay within limits
-  (else no value).
+  (else no value);
+* ``lowest_prob_taxing``: share of ensemble members [%] whose passage reaches comfort class
+  taxing or worse anywhere (a deterministic source: 0 or 100 %); ties broken by the median MSI
+  (ensemble sources are run member by member and reduced as :mod:`.members` describes).
 
 A passage is *within limits* when it lies inside the forecast, every sample has results (calm
 samples with Hs = 0 count as fine), no sample is above ``max_class``, no seakeeping criterion
@@ -74,6 +77,7 @@ from ..passage.sample import (
     source_time_range,
 )
 from ..units import SECONDS_PER_HOUR, FloatArray, nm_from_m
+from .members import combine_member_blocks, member_ids, prob_taxing_pct
 from ..validation import SeawayInputError, as_float_array, require_nonnegative, show
 
 __all__ = [
@@ -92,7 +96,7 @@ __all__ = [
     "limit_reason",
 ]
 
-CRITERIA: Tuple[str, ...] = ("worst_msi", "hours_above", "dose", "earliest_ok")
+CRITERIA: Tuple[str, ...] = ("worst_msi", "hours_above", "dose", "earliest_ok", "lowest_prob_taxing")
 """What "best" means (see the module docstring); the algorithm's CRITERION enum in this order."""
 
 CRITERION_LABELS: Dict[str, str] = {
@@ -100,8 +104,10 @@ CRITERION_LABELS: Dict[str, str] = {
     "hours_above": "least time above the acceptable comfort class",
     "dose": "lowest motion sickness dose at arrival",
     "earliest_ok": "earliest departure that stays within limits",
+    "lowest_prob_taxing": "lowest probability of reaching taxing or worse anywhere (ensemble)",
 }
-CRITERION_UNITS: Dict[str, str] = {"worst_msi": "%", "hours_above": "h", "dose": "m/s^1.5", "earliest_ok": "h"}
+CRITERION_UNITS: Dict[str, str] = {"worst_msi": "%", "hours_above": "h", "dose": "m/s^1.5", "earliest_ok": "h",
+                                   "lowest_prob_taxing": "%"}
 
 SAFETY_ADVISORY: int = int(SAFETY_FLAGS)
 """Guidance flags shown as advisories in the recommendation (any grade)."""
@@ -266,7 +272,9 @@ class SweepResult:
     (``departures_utc``), n route samples (``dist_nm``). Per source: ``(S, K, D)`` arrays
     ``worst_msi_pct``, ``worst_msi_dist_nm``, ``worst_msi_utc``, ``hours_missing``,
     ``hours_above``, ``msdv_arrival``, ``sick_pct_arrival``, ``flags``, ``n_missing``,
-    ``in_forecast``, ``within_limits``, ``criterion_value``; ``hours_class`` (S, K, D, 5);
+    ``in_forecast``, ``within_limits``, ``criterion_value``, ``prob_taxing_pct`` (share of
+    ensemble members reaching taxing or worse; 0/100 for a deterministic source, :mod:`.members`);
+    ``hours_class`` (S, K, D, 5);
     ``comfort_class`` (S, K, D, n) int8 per sample (-1 = not computed). Robust (worst case over
     sources): ``robust_class`` (S, D, n), and the robust :class:`SweepRow` in ``rows``.
     ``arrive_utc`` (S, D), ``duration_h`` (S,), ``elapsed_h`` (S, n) hours after departure at
@@ -296,6 +304,7 @@ class SweepResult:
     in_forecast: NDArray[np.bool_]
     within_limits: NDArray[np.bool_]
     criterion_value: FloatArray
+    prob_taxing_pct: FloatArray
     comfort_class: NDArray[np.int8]
     robust_class: NDArray[np.int8]
     rows: Tuple[SweepRow, ...]
@@ -345,6 +354,7 @@ class _Block:
     n_missing: NDArray[np.int64]
     comfort_class: NDArray[np.int8]
     limit_driver: NDArray[np.int8]
+    prob_taxing_pct: FloatArray
 
 
 def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDArray[np.int64],
@@ -362,6 +372,7 @@ def _reduce(cls: NDArray[np.int64], msi: FloatArray, aw: FloatArray, flags: NDAr
         flags=np.bitwise_or.reduce(flags, axis=1).astype(np.int64),
         n_missing=missing.sum(axis=1).astype(np.int64), comfort_class=cls.astype(np.int8),
         limit_driver=np.take_along_axis(driver, np.argmax(cls, axis=1)[:, None], axis=1)[:, 0].astype(np.int8),
+        prob_taxing_pct=prob_taxing_pct(cls),
     )
 
 
@@ -447,7 +458,9 @@ def _run_source(plan: PassagePlan, deps: NDArray[np.datetime64], src: object, se
 
 
 def _criterion_values(criterion: str, worst_msi: FloatArray, hours_above: FloatArray, msdv: FloatArray,
-                      within: NDArray[np.bool_], offset_h: FloatArray) -> FloatArray:
+                      within: NDArray[np.bool_], offset_h: FloatArray, prob: Optional[FloatArray] = None) -> FloatArray:
+    if criterion == "lowest_prob_taxing" and prob is not None:
+        return prob.copy()
     if criterion == "worst_msi":
         return worst_msi.copy()
     if criterion == "hours_above":
@@ -640,10 +653,16 @@ def _run_all(plans: Sequence[PassagePlan], deps: NDArray[np.datetime64], sea_sta
     blocks: List[_Block] = []
     station_name, method_used = setup.station or "", setup.method
     for j, (s, k) in enumerate(jobs):
-        b, station_name, method_used = _run_source(
-            plans[s], deps, sea_states[k], setup, span.part(0.98 * j / len(jobs), 0.98 * (j + 1) / len(jobs)),
-            notes, names[k])
-        blocks.append(b)
+        sub = span.part(0.98 * j / len(jobs), 0.98 * (j + 1) / len(jobs))
+        ids = member_ids(sea_states[k]) or [None]
+        parts = []
+        for i, m in enumerate(ids):
+            src = sea_states[k] if m is None else sea_states[k].member_source(m)  # type: ignore[attr-defined]
+            b, station_name, method_used = _run_source(plans[s], deps, src, setup,
+                                                       sub.part(i / len(ids), (i + 1) / len(ids)), notes, names[k])
+            parts.append(b)
+        blocks.append(parts[0] if len(parts) == 1 else _Block(**combine_member_blocks(
+            [{f: getattr(p, f) for f in _Block.__dataclass_fields__} for p in parts])))
     shape = (len(plans), len(sea_states))
     stacked = {f: np.stack([getattr(b, f) for b in blocks]).reshape(shape + getattr(blocks[0], f).shape)
                for f in _Block.__dataclass_fields__}
@@ -695,7 +714,7 @@ def _judge(fig: Dict[str, NDArray], criterion: str, max_class: int, in_forecast:
     # a sample above max_class with zero dwell (single-sample passage) still counts
     within &= ~np.any(fig["comfort_class"] > max_class, axis=-1)
     crit = _criterion_values(criterion, fig["worst_msi_pct"], above, msdv, within,
-                             np.broadcast_to(offset_h, msdv.shape))
+                             np.broadcast_to(offset_h, msdv.shape), fig["prob_taxing_pct"])
     return dict(sick_pct_arrival=sick, hours_above=above, within_limits=within, criterion_value=crit)
 
 
@@ -741,13 +760,17 @@ def _robust(fig: Dict[str, NDArray], plans: Sequence[PassagePlan], criterion: st
     return r
 
 
-def _ranks_of(f: Dict[str, NDArray]) -> NDArray[np.int64]:
-    """Ranks over every departure and speed of one set of (S, D) figures (module docstring)."""
+def _ranks_of(f: Dict[str, NDArray], criterion: str = "") -> NDArray[np.int64]:
+    """Ranks over every departure and speed of one set of (S, D) figures (module docstring);
+    ``lowest_prob_taxing`` breaks ties by the (median) worst MSI before the hours above."""
     n_s, n_d = f["worst_msi_pct"].shape
     si, di = np.meshgrid(np.arange(n_s), np.arange(n_d), indexing="ij")
     complete = f["in_forecast"] & (f["n_missing"] == 0)
-    return _rank(f["within_limits"].ravel(), complete.ravel(), f["criterion_value"].ravel(), f["hours_above"].ravel(),
-                 f["worst_msi_pct"].ravel(), di.ravel(), si.ravel()).reshape(n_s, n_d)
+    second, third = f["hours_above"].ravel(), f["worst_msi_pct"].ravel()
+    if criterion == "lowest_prob_taxing":
+        second, third = third, second
+    return _rank(f["within_limits"].ravel(), complete.ravel(), f["criterion_value"].ravel(), second, third,
+                 di.ravel(), si.ravel()).reshape(n_s, n_d)
 
 
 _ROW_FIELDS = ("worst_msi_pct", "worst_msi_dist_nm", "worst_msi_utc", "hours_missing", "hours_above",
@@ -770,10 +793,10 @@ def _row(f: Dict[str, NDArray], at: Tuple[int, ...], **fixed: object) -> SweepRo
 
 def _table_rows(fig: Dict[str, NDArray], rob: Dict[str, NDArray], deps: NDArray[np.datetime64],
                 speeds: Tuple[float, ...], names: Tuple[str, ...], arrive: NDArray[np.datetime64],
-                duration_h: FloatArray) -> List[SweepRow]:
+                duration_h: FloatArray, criterion: str = "") -> List[SweepRow]:
     """Every row ordered by speed, departure, source (robust last)."""
-    ranks = np.stack([_ranks_of({k: v[:, i] for k, v in fig.items()}) for i in range(len(names))], axis=1)
-    r_ranks = _ranks_of(rob)
+    ranks = np.stack([_ranks_of({k: v[:, i] for k, v in fig.items()}, criterion) for i in range(len(names))], axis=1)
+    r_ranks = _ranks_of(rob, criterion)
     rows: List[SweepRow] = []
     for s in range(len(speeds)):
         for d in range(deps.size):
@@ -843,7 +866,7 @@ def sweep_departures(
     fig["in_forecast"] = _in_forecast(fig, deps, tm["arrive_utc"], ranges, tol)
     fig.update(_judge(fig, criterion, max_class, fig["in_forecast"], tm["offset_h"]))
     rob = _robust(fig, plans, criterion, max_class, tm["offset_h"])
-    rows = _table_rows(fig, rob, deps, speeds, names, tm["arrive_utc"], tm["duration_h"])
+    rows = _table_rows(fig, rob, deps, speeds, names, tm["arrive_utc"], tm["duration_h"], criterion)
     notes.extend(_outside_note(rob["in_forecast"]))
     rec = _recommend(rows, deps, rob["within_limits"], list(speeds), criterion, max_class, len(names))
     span.check(1.0)
