@@ -142,7 +142,7 @@ def _member_motions(mot: SampleMotions, sl: slice) -> SampleMotions:
     return replace(mot, wavelength_m=mot.wavelength_m[sl], celerity_m_s=mot.celerity_m_s[sl],
                    rel_heading_deg=mot.rel_heading_deg[sl], enc_period_s=mot.enc_period_s[sl],
                    outputs={k: v[sl] for k, v in mot.outputs.items()}, comfort_class=mot.comfort_class[sl],
-                   flags=mot.flags[sl], computed=mot.computed[sl])
+                   flags=mot.flags[sl], computed=mot.computed[sl], class_driver=mot.class_driver[sl])
 
 
 def respond_members(plan: PassagePlan, seas: Sequence[SeaAtSamples], profile: object, *,
