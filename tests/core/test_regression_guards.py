@@ -38,7 +38,7 @@ from seaway_comfort.processing.core.climate.hindcast import point_weights, read_
 from seaway_comfort.processing.core.comfort.guidance import circ1228_flags
 from seaway_comfort.processing.core.comfort.indices import comfort_class
 from seaway_comfort.processing.core.demo.writers import write_bathymetry_geotiff, write_cf_netcdf
-from seaway_comfort.processing.core.flags import flag_codes
+from seaway_comfort.processing.core.flags import SampleFlag, flag_codes
 from seaway_comfort.processing.core.passage import pipeline as passage
 from seaway_comfort.processing.core.seastate import open_bathymetry, open_sea_state
 from seaway_comfort.processing.core.vessel.profile import resolve_vessel
@@ -92,13 +92,17 @@ def test_comfort_class_begins_at_its_msi_bound():
 
 
 def test_parametric_and_synchronous_roll_use_their_own_bits():
-    """At rest in head seas TE = T (Circ.1228 Fig. 1 with V = 0). TR 20 s: T 10 s gives
-    TE/TR = 0.5 (parametric only); T 20 s gives 1.0 (synchronous only). Hs 0.1 m, L 100 m:
-    no surf riding at rest, Hs < 0.04 L (no high-wave groups)."""
-    f = circ1228_flags(100.0, 20.0, np.zeros(2), np.zeros(2), np.full(2, 0.1), np.array([10.0, 20.0]),
+    """At rest in head seas TE = TW (Circ.1228 Fig. 1 with V = 0); TW is the mean period
+    T1 = Tp (0.7303 + 0.04936 g - 0.006556 g^2 + 0.0003610 g^3) = 0.8348 Tp at g = 3.3
+    (DNV-RP-C205 s.3.5.5). TR 20 s, L 100 m, Hs 3 m (>= 0.02 L, below 0.04 L):
+    Tp 12 s -> TW 10.0 s, TE/TR 0.50 (parametric: 4.2.3.2) and wavelength g TW^2 / 2 pi = 156 m,
+    within 0.8..2 L; Tp 24 s -> TW 20.0 s, TE/TR 1.00 (synchronous: 4.2.3.1), wavelength 625 m
+    (too long for parametric roll). No surf riding at rest, Hs < 0.04 L (no high-wave groups)."""
+    f = circ1228_flags(100.0, 20.0, np.zeros(2), np.zeros(2), np.full(2, 3.0), np.array([12.0, 24.0]),
                        np.zeros(2))
-    np.testing.assert_array_equal(f.mask, [BIT_PARAM, BIT_SYNC])
-    assert [flag_codes(int(m)) for m in f.mask] == ["ROLLPARAM", "ROLLSYNC"]
+    phenomena = f.mask & (BIT_PARAM | BIT_SYNC | int(SampleFlag.SURF_RIDING) | int(SampleFlag.HIGH_WAVE_GROUPS))
+    np.testing.assert_array_equal(phenomena, [BIT_PARAM, BIT_SYNC])
+    assert [flag_codes(int(m)) for m in phenomena] == ["ROLLPARAM", "ROLLSYNC"]
 
 
 @pytest.fixture(scope="module")
