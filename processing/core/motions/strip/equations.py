@@ -58,6 +58,7 @@ from numpy.typing import ArrayLike, NDArray
 from . import StripInputError
 from .lewis import LewisForms, SectionCoefficients, lewis_forms, section_coefficients
 from .sections import HullSections
+from ...validation import show
 
 OMEGA_E_FLOOR_FRACTION = 0.05
 HEADING_CHUNK = 6
@@ -94,7 +95,7 @@ def prepare_hull(sections: HullSections, rho_kg_m3: float = 1025.0,
     """
     for name, v in (("rho_kg_m3", rho_kg_m3), ("g_m_s2", g_m_s2)):
         if not (math.isfinite(v) and v > 0):
-            raise StripInputError(f"{name} = {v!r}: give a positive value")
+            raise StripInputError(f"{name} = {show(v)}: give a positive value")
     forms = lewis_forms(sections.beam_m, sections.draught_m, sections.area_m2)
     coeffs = _unique_section_coefficients(forms)
     w = sections.integration_weights_m()
@@ -160,14 +161,14 @@ def rigid_body(hull: HullModel, mass: MassProperties) -> RigidBody:
     0.35 B (roll), 0.25 L (pitch, yaw) (common practice, no source)."""
     gm = mass.gm_t_m
     if not (isinstance(gm, (int, float)) and math.isfinite(gm) and gm > 0):
-        raise StripInputError(f"gm_t_m = {gm!r}: give a positive metacentric height in metres")
+        raise StripInputError(f"gm_t_m = {show(gm)}: give a positive metacentric height in metres")
     radii = []
     for name, v, default in (("roll_gyradius_m", mass.roll_gyradius_m, 0.35 * hull.beam_m),
                              ("pitch_gyradius_m", mass.pitch_gyradius_m, 0.25 * hull.length_m),
                              ("yaw_gyradius_m", mass.yaw_gyradius_m, 0.25 * hull.length_m)):
         v = default if v is None else v
         if not (math.isfinite(v) and v > 0):
-            raise StripInputError(f"{name} = {v!r}: give a positive radius of gyration in metres")
+            raise StripInputError(f"{name} = {show(v)}: give a positive radius of gyration in metres")
         radii.append(float(v))
     bm = hull.waterplane_inertia_t_m4 / hull.volume_m3
     xg = hull.x_b_m if mass.x_g_m is None else float(mass.x_g_m)
@@ -197,7 +198,7 @@ def _as_1d(name: str, value: ArrayLike) -> NDArray[np.float64]:
         raise StripInputError(f"{name} must be a non-empty 1-D array, got shape {arr.shape}")
     bad = np.flatnonzero(~np.isfinite(arr))
     if bad.size:
-        raise StripInputError(f"{name}[{bad[0]}] = {arr[bad[0]]!r} is not finite")
+        raise StripInputError(f"{name}[{bad[0]}] = {show(arr[bad[0]])} is not finite")
     return arr
 
 
@@ -368,10 +369,10 @@ def strip_rao_set(hull: HullModel, body: RigidBody, omega_rad_s: ArrayLike, k_ra
                               "give one wavenumber per frequency")
     for name, arr in (("omega_rad_s", omega), ("k_rad_m", k)):
         if np.any(arr <= 0):
-            raise StripInputError(f"{name} = {arr[arr <= 0][0]!r}: must be > 0")
+            raise StripInputError(f"{name} = {show(arr[arr <= 0][0])}: must be > 0")
     bad = speeds[speeds < 0]
     if bad.size:
-        raise StripInputError(f"speed_m_s = {bad[0]!r}: give a speed >= 0 through the water")
+        raise StripInputError(f"speed_m_s = {show(bad[0])}: give a speed >= 0 through the water")
     shape = (omega.size, mu_deg.size)
     extras = [0.0] * speeds.size if roll_damping_extra_n_m_s is None \
         else list(roll_damping_extra_n_m_s)

@@ -56,6 +56,7 @@ from numpy.typing import ArrayLike, NDArray
 from scipy.special import exp1
 
 from . import StripInputError
+from ...validation import show
 
 NU_GRID = np.geomspace(1e-4, 30.0, 100)
 N_MULTIPOLES = 16
@@ -103,7 +104,7 @@ def lewis_forms(beam_m: ArrayLike, draught_m: ArrayLike, area_m2: ArrayLike) -> 
     for name, v in (("beam_m", b), ("draught_m", d), ("area_m2", a)):
         if not np.all(np.isfinite(v)) or np.any(v < 0):
             bad = v[~np.isfinite(v) | (v < 0)][0]
-            raise StripInputError(f"{name} = {bad!r}: section sizes must be finite and >= 0")
+            raise StripInputError(f"{name} = {show(bad)}: section sizes must be finite and >= 0")
     empty = (b <= 0) | (d <= 0) | (a <= 0)
     bs, ds = np.where(empty, 1.0, b), np.where(empty, 1.0, d)
     h0 = bs / (2 * ds)

@@ -41,6 +41,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from . import StripInputError
 from .equations import HullModel, RigidBody
+from ...validation import show
 
 KINEMATIC_VISCOSITY_M2_S = 1.19e-6   # sea water about 15 C (ITTC 2011 fresh/sea water tables, from memory)
 
@@ -103,7 +104,7 @@ def extra_damping_for_ratio(hull: HullModel, body: RigidBody, total_ratio: float
     """Viscous B44 [N m s/rad] so that wave + viscous damping is ``total_ratio`` of critical
     at the roll natural frequency (never negative: if the wave damping alone exceeds it, 0)."""
     if not (math.isfinite(total_ratio) and 0 <= total_ratio < 1):
-        raise StripInputError(f"roll_damping_ratio = {total_ratio!r}: give a fraction of "
+        raise StripInputError(f"roll_damping_ratio = {show(total_ratio)}: give a fraction of "
                               "critical damping in [0, 1)")
     nat = roll_natural(hull, body)
     return max(total_ratio * nat.critical_damping_n_m_s - nat.wave_damping_n_m_s, 0.0)
@@ -118,10 +119,10 @@ def ikeda_friction_lift(hull: HullModel, body: RigidBody, omega_rad_s: ArrayLike
     if np.any(~np.isfinite(w)) or np.any(w <= 0):
         raise StripInputError("omega_rad_s must be finite and > 0")
     if not (math.isfinite(roll_amplitude_rad) and 0 < roll_amplitude_rad < 1.0):
-        raise StripInputError(f"roll_amplitude_rad = {roll_amplitude_rad!r}: give an "
+        raise StripInputError(f"roll_amplitude_rad = {show(roll_amplitude_rad)}: give an "
                               "amplitude in (0, 1) rad")
     if not (math.isfinite(speed_m_s) and speed_m_s >= 0):
-        raise StripInputError(f"speed_m_s = {speed_m_s!r}: give a speed >= 0")
+        raise StripInputError(f"speed_m_s = {show(speed_m_s)}: give a speed >= 0")
     rho, L, B, T = hull.rho_kg_m3, hull.length_m, hull.beam_m, hull.draught_m
     cb = hull.volume_m3 / (L * B * T)
     og = -body.z_g_m
