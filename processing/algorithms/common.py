@@ -210,11 +210,23 @@ def default_source_names(paths: Sequence[str]) -> Tuple[str, ...]:
     )
 
 
+def use_settings_cache_dir() -> None:
+    """Response tables cached in the QGIS settings folder (unless SEAWAY_CACHE_DIR is set)."""
+    from qgis.core import QgsApplication
+
+    from ..core.motions.table_cache import set_default_cache_dir
+
+    base = QgsApplication.qgisSettingsDirPath()
+    set_default_cache_dir(os.path.join(base, "cache", "seaway_comfort") if base else None)
+
+
 def parse_passage_settings(
     alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
 ) -> PassageSettings:
     """Read and check every shared passage parameter; QgsProcessingException on bad input."""
     from .. import adapters
+
+    use_settings_cache_dir()
 
     paths = [str(p) for p in (alg.parameterAsFileList(parameters, SEA_STATE, context) or []) if str(p)]
     if not paths:

@@ -261,6 +261,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         from ..core.climate import ClimateCancelled, compute_climate
         from ..core.reports.climate import climate_text_summary, write_climate_html
 
+        common.use_settings_cache_dir()
         feedback = feedback or QgsProcessingFeedback()
         s = self._settings(parameters, context)
         context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
