@@ -31,13 +31,14 @@ import sys
 import tempfile
 import time
 from pathlib import Path
-from typing import Callable, List
+from typing import List
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))  # -P drops the script folder
 import _pkg  # noqa: E402,F401  (exposes the checkout as `seaway_comfort`)
 
 import numpy as np  # noqa: E402
 
+from _timing import median_time as _median  # noqa: E402
 from bench_route import T0, make_forecast, route_vertices  # noqa: E402
 
 QGIS_PROCESS = "/usr/bin/qgis_process.bin" if os.path.exists("/usr/bin/qgis_process.bin") else "qgis_process"
@@ -53,15 +54,6 @@ def _timed(cmd: List[str], env: dict) -> float:
     if p.returncode != 0:
         raise RuntimeError(f"{' '.join(cmd[:4])} failed:\n{p.stderr[-2000:]}{p.stdout[-2000:]}")
     return dt
-
-
-def _median(fn: Callable[[], object], repeat: int) -> float:
-    ts = []
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        ts.append(time.perf_counter() - t)
-    return statistics.median(ts)
 
 
 def _env(tmp: str) -> dict:
@@ -119,7 +111,6 @@ def _spacing_for(lon, lat, departure) -> tuple:
 def _core_parts(nc: str, plan, repeat: int, tmp: str) -> dict:
     """Reading, tables (cold, warm), response, report timed alone in this process."""
     from seaway_comfort.processing.core import api
-    from seaway_comfort.processing.core.motions import table_cache
     from seaway_comfort.processing.core.passage.pipeline import respond, sample_sea
     from seaway_comfort.processing.core.reports.passage import ReportInputs, build_report, render_html
     from seaway_comfort.processing.core.seastate import open_sea_state

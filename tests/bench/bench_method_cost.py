@@ -19,7 +19,6 @@ import os
 for _v in ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS"):
     os.environ.setdefault(_v, "1")
 
-import statistics  # noqa: E402
 import sys  # noqa: E402
 import tempfile  # noqa: E402
 import time  # noqa: E402
@@ -27,6 +26,7 @@ from pathlib import Path  # noqa: E402
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))  # -P drops the script folder
 import _pkg  # noqa: E402,F401
+from _timing import median_time  # noqa: E402
 
 import numpy as np  # noqa: E402
 
@@ -39,12 +39,7 @@ from seaway_comfort.processing.core.vessel.profile import builtin_profile  # noq
 
 
 def _median(fn, repeat=5):
-    ts = []
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        ts.append(time.perf_counter() - t)
-    return statistics.median(ts)
+    return median_time(fn, repeat)
 
 
 def main() -> None:
