@@ -31,6 +31,10 @@ _QGIS_PLUGINS = "/usr/share/qgis/python/plugins"
 if os.path.isdir(_QGIS_PLUGINS) and _QGIS_PLUGINS not in sys.path:
     sys.path.append(_QGIS_PLUGINS)
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+# response tables cached on disk go to a folder of this test session only (never the user's)
+_CACHE_DIR = tempfile.mkdtemp(prefix="seaway_cache_")
+atexit.register(shutil.rmtree, _CACHE_DIR, True)
+os.environ["SEAWAY_CACHE_DIR"] = _CACHE_DIR
 
 
 def require_qgis_enabled() -> bool:

@@ -349,10 +349,21 @@ def parse_max_class(alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], con
     return value
 
 
+def use_settings_cache_dir() -> None:
+    """Response tables cached in the QGIS settings folder (unless SEAWAY_CACHE_DIR is set)."""
+    from qgis.core import QgsApplication
+
+    from ..core.motions.table_cache import set_default_cache_dir
+
+    base = QgsApplication.qgisSettingsDirPath()
+    set_default_cache_dir(os.path.join(base, "cache", "seaway_comfort") if base else None)
+
+
 def parse_passage_settings(
     alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
 ) -> PassageSettings:
     """Read and check every shared passage parameter; QgsProcessingException on bad input."""
+    use_settings_cache_dir()
     paths = existing_files(alg, parameters, SEA_STATE, context, "forecast file (GRIB2, NetCDF-CF or GeoTIFF)")
     names = _source_names(alg, parameters, context, paths)
     depth_path = _depth_path(alg, parameters, context)

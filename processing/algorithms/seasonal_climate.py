@@ -214,6 +214,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
     def read_settings(self, run: Run) -> ClimateJob:
         from ..core.climate import make_backend, parse_months
 
+        common.use_settings_cache_dir()
         p, ctx = run.parameters, run.context
         paths = common.existing_files(self, p, HINDCAST, ctx, "hindcast file (NetCDF-CF or GRIB2)")
         speed = common.positive(self, p, common.SPEED_KN, ctx, "kn", ": give the planned speed through the water")

@@ -46,7 +46,8 @@ from .motions.response import (
     validity_flags,
 )
 from .comfort.guidance import circ1228_flags
-from .motions.tables import ResponseTableSet, build_response_table_set
+from .motions.table_cache import cached_table_set, is_cached
+from .motions.tables import ResponseTableSet
 from .motions.closed_form import ClosedFormTransfer
 from .units import G_STANDARD_M_S2, FloatArray
 from .validation import (
@@ -58,10 +59,22 @@ from .validation import (
 )
 from .vessel.profile import Station, VesselProfile
 
-__all__ = ["SeaPartitions", "MotionAssessment", "assess_motions", "transfer_model", "AUTO_TABLE_MIN_SAMPLES"]
+__all__ = ["SeaPartitions", "MotionAssessment", "assess_motions", "transfer_model", "choose_method",
+           "METHOD_COST_S"]
 
-AUTO_TABLE_MIN_SAMPLES = 2000
-"""method=None uses the exact path below this many samples and the tables from it on."""
+METHOD_COST_S: Dict[str, float] = {
+    "exact_per_sample_partition": 9.0e-5,
+    "table_build": 0.065,
+    "table_load": 0.0015,
+    "lookup_per_sample_partition": 2.5e-7,
+}
+"""Cost model of the automatic method choice [s] on ONE core, 48 x 24 spectral grid, one
+station, measured with tests/bench/bench_method_cost.py on the project's 2-core test machine
+(example vessel coastal_survey_35m, median of 5): exact path 89-94 us per sample and
+partition; one default response table (100 Tp x 73 headings) 0.063 s to build, 1.1 ms to load
+from the disk cache; look-up 0.23 us per sample and partition. Only the ratios matter. The
+exact path and the build scale with n_freq x n_dir (factor n_freq n_dir / 1152). See
+:func:`choose_method`."""
 _TABLE_CACHE: "OrderedDict[Any, ResponseTableSet]" = OrderedDict()
 _TABLE_CACHE_SIZE = 8
 
@@ -150,29 +163,82 @@ def _vec(name: str, v: ArrayLike, n: int, *, nonneg: bool = False) -> FloatArray
     return np.ascontiguousarray(np.broadcast_to(a, (n,)), dtype=float)
 
 
-def _table_set(profile: VesselProfile, station: Station, transfer: Any, speeds: FloatArray,
-               depths: Optional[FloatArray], gamma: float, spread: float, long_crested: bool, n_freq: int,
-               n_dir: int) -> ResponseTableSet:
-    """Cached table set for ONE station (the one assessed)."""
+def _table_set_key(profile: VesselProfile, station: Station, speeds: FloatArray, depths: Optional[FloatArray],
+                   gamma: float, spread: float, long_crested: bool, n_freq: int, n_dir: int) -> Any:
+    """Key of a table set in the in-memory cache (an edited RAO table file is re-read)."""
     rao = profile.rao_table_path()
     rao_key = None
     if rao is not None:
         try:
-            rao_key = (str(rao), rao.stat().st_mtime_ns)  # an edited table is re-read
+            rao_key = (str(rao), rao.stat().st_mtime_ns)
         except OSError:
             rao_key = (str(rao), None)
-    key = (profile, rao_key, station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
-           gamma, spread, long_crested, n_freq, n_dir)
+    return (profile, rao_key, station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
+            gamma, spread, long_crested, n_freq, n_dir)
+
+
+def _table_set(profile: VesselProfile, station: Station, transfer: Any, speeds: FloatArray,
+               depths: Optional[FloatArray], gamma: float, spread: float, long_crested: bool, n_freq: int,
+               n_dir: int) -> ResponseTableSet:
+    """Table set for ONE station (the one assessed): from memory, else from the disk cache
+    (:mod:`.motions.table_cache`), else built."""
+    key = _table_set_key(profile, station, speeds, depths, gamma, spread, long_crested, n_freq, n_dir)
     hit = _TABLE_CACHE.get(key)
     if hit is not None:
         _TABLE_CACHE.move_to_end(key)
         return hit
-    ts = build_response_table_set(transfer, (station,), speeds, depths, gamma=gamma, spread_s=spread,
-                                  long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
+    ts = cached_table_set(transfer, (station,), speeds, depths, gamma=gamma, spread_s=spread,
+                          long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
     _TABLE_CACHE[key] = ts
     while len(_TABLE_CACHE) > _TABLE_CACHE_SIZE:
         _TABLE_CACHE.popitem(last=False)
     return ts
+
+
+def _table_path_cost_s(profile: VesselProfile, st: Station, speeds: FloatArray, shapes: Any,
+                       long_crested: bool, n_freq: int, n_dir: int) -> float:
+    """Cost [s] of getting the tables (memory: 0, disk: load, else build) by METHOD_COST_S."""
+    c, scale, transfer = METHOD_COST_S, n_freq * n_dir / 1152.0, None
+    cost = 0.0
+    for g, s in shapes:
+        if _table_set_key(profile, st, speeds, None, g, s, long_crested, n_freq, n_dir) in _TABLE_CACHE:
+            continue
+        transfer = transfer_model(profile) if transfer is None else transfer
+        for u in speeds:
+            warm = is_cached(transfer, (st,), float(u), gamma=g, spread_s=s, long_crested=long_crested,
+                             n_freq=n_freq, n_dir=n_dir)
+            cost += c["table_load"] if warm else c["table_build"] * scale
+    return cost
+
+
+def choose_method(profile: VesselProfile, n_samples: int, *, speed_m_s: ArrayLike, station: Optional[str] = None,
+                  gamma: ArrayLike = 3.3, spread_s: ArrayLike = 4.0, long_crested: bool = False,
+                  n_freq: int = 48, n_dir: int = 24) -> str:
+    """The cheaper response method, "exact" or "table", for ``n_samples`` samples by the cost
+    model :data:`METHOD_COST_S`: exact = n p c_exact; table = look-ups n p c_lookup plus, per
+    speed node (:func:`_speed_nodes`) and spectrum shape (distinct gamma, spread; one per
+    partition given), nothing when the table set is in memory, c_load when it is in the disk
+    cache, else c_build. With one speed and one shape a cold cache chooses the table path from
+    about 720 sample-partitions (c_build / c_exact), a warm cache from about 17; with 8 speed
+    nodes from about 5 800 (cold). Both paths agree within the tolerances stated in
+    :mod:`.motions.tables` (1 % short-crested; tests/core/test_api.py checks the chosen cases).
+    """
+    n = int(n_samples)
+    if n <= 0:
+        return "exact"
+    st = profile.station(station)
+    gam = np.atleast_1d(np.asarray(gamma, dtype=float)).reshape(-1)
+    spr = np.atleast_1d(np.asarray(spread_s, dtype=float)).reshape(-1)
+    p = max(gam.size, spr.size)
+    shapes = sorted(set(zip(np.broadcast_to(gam, (p,)).tolist(), np.broadcast_to(spr, (p,)).tolist())))
+    speeds = _speed_nodes(np.atleast_1d(np.asarray(speed_m_s, dtype=float)).reshape(-1))
+    c, scale = METHOD_COST_S, n_freq * n_dir / 1152.0
+    exact = n * p * c["exact_per_sample_partition"] * scale
+    table = n * p * c["lookup_per_sample_partition"]
+    if table >= exact:
+        return "exact"
+    table += _table_path_cost_s(profile, st, speeds, shapes, bool(long_crested), n_freq, n_dir)
+    return "table" if table < exact else "exact"
 
 
 SPEED_NODES = 8
@@ -248,9 +314,10 @@ def assess_motions(
     partitions : :class:`SeaPartitions` replacing the combined sea.
     method : "exact" (spectral integration per sample), "table" (tabulated per unit Hs,
         interpolated; deep-water tables at the call's speeds, samples where the depth matters
-        (DEEP_KH) go through the exact path), or None: exact below AUTO_TABLE_MIN_SAMPLES
-        samples, else table. Tables are cached per vessel/speeds/spectrum shape (first call
-        per configuration costs about 1 s per speed and shape on one core).
+        (DEEP_KH) go through the exact path), or None / "auto": the cheaper of the two by the
+        measured cost model of :func:`choose_method` (tables already in memory or in the disk
+        cache count as nearly free). Tables are cached in memory and on disk per vessel, speed
+        and spectrum shape (:mod:`.motions.table_cache`; one costs about 0.1 s to build).
     n_freq, n_dir : spectral grid (defaults 48 x 24).
     exposure_h : MSI exposure [h] (2 h: O'Hanlon & McCauley 1974; else McCauley et al. 1976,
         coefficients from memory).
@@ -268,7 +335,10 @@ def assess_motions(
     depth = None
     if depth_m is not None:
         depth = _vec("depth_m", require_positive("depth_m", depth_m, allow_inf=True), n)
-    method = _checked_method(method, n, gam)
+    if method is None or method == "auto":
+        method = choose_method(profile, n, speed_m_s=speed, station=st.name, gamma=gam, spread_s=spr,
+                               long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
+    method = _checked_method(method, gam)
     transfer = transfer_model(profile)
     sea = _Sea(hs, tp, wf, course, speed, depth, gam, spr)
     grid = (bool(long_crested), n_freq, n_dir)
@@ -276,10 +346,8 @@ def assess_motions(
     return _assessment(profile, st, sea, r, method, exposure_h)
 
 
-def _checked_method(method: Optional[str], n: int, gam: FloatArray) -> str:
-    """The response method for n samples (None/"auto": by AUTO_TABLE_MIN_SAMPLES); checks gamma."""
-    if method is None or method == "auto":
-        method = "exact" if n < AUTO_TABLE_MIN_SAMPLES else "table"
+def _checked_method(method: Optional[str], gam: FloatArray) -> str:
+    """The response method checked; checks gamma."""
     if method not in ("exact", "table"):
         raise SeawayInputError(f"method must be 'exact', 'table' or None, got {show(method)}")
     if np.any(gam < 1.0):

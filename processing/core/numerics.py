@@ -10,8 +10,14 @@ with weights w[0] = (x[1]-x[0])/2, w[i] = (x[i+1]-x[i-1])/2, w[-1] = (x[-1]-x[-2
 (any numerical-analysis text, e.g. Press et al., Numerical Recipes, 3rd ed. 2007, s.4.1).
 Expressing the rule as a weight vector lets a frequency grid be built once and reused for every
 spectral moment (``sum(w * omega**n * S)``).
+
+Two special functions from the standard library, applied element-wise (so the default path
+needs no scipy): the standard normal CDF Phi(x) = erfc(-x / sqrt 2) / 2 and log Gamma(x)
+(Abramowitz & Stegun 1964, eqs. 26.2.29 and 6.1.1; ``math.erfc``, ``math.lgamma``).
 """
 from __future__ import annotations
+
+import math
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -19,7 +25,33 @@ from numpy.typing import ArrayLike
 from .units import FloatArray
 from .validation import SeawayInputError, as_float_array, show
 
-__all__ = ["trapezoid_weights", "trapezoid"]
+__all__ = ["trapezoid_weights", "trapezoid", "normal_cdf", "log_gamma"]
+
+_ERFC = np.frompyfunc(math.erfc, 1, 1)
+_LGAMMA = np.frompyfunc(math.lgamma, 1, 1)
+_MINUS_INV_SQRT2 = -1.0 / math.sqrt(2.0)
+
+
+def normal_cdf(x: ArrayLike) -> FloatArray:
+    """Standard normal CDF Phi(x) = erfc(-x / sqrt(2)) / 2 (A&S 26.2.29), element-wise.
+
+    Through ``math.erfc`` so the lower tail keeps its relative accuracy (1 + erf would round it
+    to 0); +-inf give 1 and 0. Agrees with ``scipy.special.ndtr`` to a relative 2e-14 for
+    x >= -8 and 5e-13 down to -37, where the rounding of x is amplified by 2 x**2 (tests).
+    ``x`` any shape, unit 1; returns a float array of the same shape.
+    """
+    a = np.asarray(x, dtype=float)
+    return np.asarray(0.5 * _ERFC(a * _MINUS_INV_SQRT2), dtype=float).reshape(a.shape)
+
+
+def log_gamma(x: ArrayLike) -> FloatArray:
+    """log |Gamma(x)| (A&S 6.1.1) element-wise through ``math.lgamma``, for x > 0.
+
+    Agrees with ``scipy.special.gammaln`` within 1e-14 max(1, |log Gamma|) for 0.5 <= x <= 1e4
+    (tests).
+    """
+    a = np.asarray(x, dtype=float)
+    return np.asarray(_LGAMMA(a), dtype=float).reshape(a.shape)
 
 
 def trapezoid_weights(x: ArrayLike) -> FloatArray:

@@ -7,14 +7,18 @@ Prints, for 1, 2, 5 and 10 years of invented 3-hourly hindcast (one NetCDF file 
 cached in the temporary folder; generation is not timed) and a 500-sample route:
 wall time, (step x sample) pairs per second and peak memory of the local process-pool run
 (2 workers), the ratio against the serial run (baseline: SerialBackend) measured on the same
-data in the same session for the smallest and largest number of years, the load average, and the Dask LocalCluster run with 2 workers against 1 worker on the
-10-year data. No assertions: figures only.
+data in the same session for the smallest and largest number of years, the load average, and,
+on the largest number of years, side by side (median of 3 each): serial, local pool x2, and a
+real Dask scheduler with 1 and with 2 worker processes on loopback (started here with the
+`dask` command-line tool and stopped after), each compared with the serial result. No
+assertions: figures only.
 """
 from __future__ import annotations
 
 import argparse
 import os
 import resource
+import statistics
 import sys
 import tempfile
 import time
@@ -36,6 +40,7 @@ ROUTE_LON = [-20.0, -15.0, -10.5]
 ROUTE_LAT = [40.0, 43.5, 44.5]
 VESSEL, SPEED_KN = "coastal_survey_35m", 10.0
 FIRST_YEAR = 2001
+REPEAT = 3
 
 
 def _route_for_500_samples(series):
@@ -111,17 +116,41 @@ def main() -> None:
     if not dask_available():
         print("dask.distributed not importable: Dask comparison skipped")
         return
-    y = years_list[-1]
-    paths = all_paths[:y]
-    t1, r1 = _run(paths, C.DaskBackend(workers=1, processes=True), spacing)
-    t2, r2 = _run(paths, C.DaskBackend(workers=2, processes=True), spacing)
-    same = all(np.array_equal(getattr(r1, f), getattr(r2, f), equal_nan=True) and
-               np.array_equal(getattr(results[y][1], f), getattr(r2, f), equal_nan=True)
-               for f in ("class_share", "window_probability", "mean_wait_h", "wait_censored"))
-    print(f"dask LocalCluster {y} years: 1 worker {t1:.2f} s, 2 workers {t2:.2f} s, speed-up {t1 / t2:.2f} x "
-          f"(baseline: 1 worker, same data); results identical to the local pool: {same}")
-    print(f"load average after: {os.getloadavg()[0]:.2f}")
-    print(f"peak memory after dask runs: largest finished child {_maxrss_mb(resource.RUSAGE_CHILDREN):.0f} MB")
+    _dask_side_by_side(all_paths[:years_list[-1]], spacing, results[years_list[-1]][1])
+
+
+def _dask_side_by_side(paths, spacing, local_result) -> None:
+    """Serial, local pool x2, and a real scheduler with 1 and 2 worker processes on loopback
+    (``dask scheduler`` / ``dask worker``, started here and stopped after), same data, same
+    session; each figure the median of REPEAT runs; results compared with the serial run."""
+    from _dask_cli import LoopbackCluster, dask_cli
+
+    fields = ("class_share", "window_probability", "mean_wait_h", "wait_censored", "route_ok_share")
+
+    def same(a, b):
+        return all(np.array_equal(getattr(a, f), getattr(b, f), equal_nan=True) for f in fields)
+
+    def med(backend):
+        runs = [_run(paths, backend, spacing) for _ in range(REPEAT)]
+        return statistics.median(t for t, _ in runs), runs[0][1]
+
+    rows = [("serial",) + med(C.SerialBackend()), ("local pool x2",) + med(C.LocalPoolBackend(workers=2))]
+    if dask_cli() is None:
+        print("the `dask` command-line tool is not installed: real-cluster comparison skipped")
+    else:
+        for nw in (1, 2):
+            with LoopbackCluster(_pkg_parent(), n_workers=nw) as cl:
+                rows.append((f"dask scheduler + {nw} worker{'s' if nw > 1 else ''}",) + med(C.DaskBackend(address=cl.address)))
+    t_ser, r_ser = rows[0][1], rows[0][2]
+    print(f"{len(paths)} years, median of {REPEAT} (load average {os.getloadavg()[0]:.2f}):")
+    for name, t, r in rows:
+        print(f"  {name:<26} {t:>7.2f} s  {t / t_ser:>5.2f} x serial  identical to serial: {same(r, r_ser)}")
+    print(f"  local pool identical to serial: {same(local_result, r_ser)}")
+
+
+def _pkg_parent() -> str:
+    """Folder holding the ``seaway_comfort`` link that _pkg put on sys.path."""
+    return next(p for p in sys.path if (Path(p or ".") / "seaway_comfort").exists())
 
 
 if __name__ == "__main__":

@@ -158,3 +158,82 @@ def test_profile_with_rao_table_uses_it(tmp_path):
                            method=method)
         np.testing.assert_allclose(r.heave_rms_m, [0.25, 0.5], rtol=1e-3 if method == "table" else 1e-12)
         assert np.all(r.roll_rms_deg == 0.0) and np.all(r.pitch_rms_deg == 0.0)
+
+
+@pytest.fixture
+def cold_tables(tmp_path, monkeypatch):
+    """Empty in-memory and disk table caches; returns the list of real table builds."""
+    from seaway_comfort.processing.core import api
+    from seaway_comfort.processing.core.motions import table_cache, tables
+
+    monkeypatch.setenv(table_cache.CACHE_ENV, str(tmp_path / "cache"))
+    monkeypatch.setattr(api, "_TABLE_CACHE", type(api._TABLE_CACHE)())
+    builds = []
+
+    def counting(*a, **k):
+        builds.append(a[2])
+        return tables.build_response_table(*a, **k)
+
+    monkeypatch.setattr(table_cache, "build_response_table", counting)
+    return builds
+
+
+def _route_sea(n, seed=5):
+    rng = np.random.default_rng(seed)
+    parts = SeaPartitions(rng.uniform(0.2, 3.0, (n, 2)), rng.uniform(3.0, 14.0, (n, 2)), rng.uniform(0, 360, (n, 2)),
+                          [3.3, 3.3], [4.0, 4.0], ("wind", "swell"))
+    return parts, rng.uniform(0, 360, n)
+
+
+def test_automatic_choice_by_cost_and_cache(cold_tables):
+    """choose_method follows METHOD_COST_S (api.py): exact when building the tables costs more
+    than integrating the few samples, tables when they are cheap (many samples) or cached."""
+    from seaway_comfort.processing.core import api
+
+    c = api.METHOD_COST_S
+    few = int(0.5 * c["table_build"] / c["exact_per_sample_partition"])  # half the break-even
+    many = int(3.0 * c["table_build"] / c["exact_per_sample_partition"])
+    assert api.choose_method(BOAT, few, speed_m_s=3.0) == "exact"
+    assert api.choose_method(BOAT, many, speed_m_s=3.0) == "table"
+    eight_speeds = np.linspace(1.0, 4.5, many)  # 8 speed nodes: 8 builds > exact on `many`
+    assert api.choose_method(BOAT, many, speed_m_s=eight_speeds) == "exact"
+    parts, co = _route_sea(many)
+    r = assess_motions(BOAT, partitions=parts, course_deg=co, speed_m_s=3.0)
+    assert r.method == "table" and cold_tables == [3.0]
+    assert api.choose_method(BOAT, few, speed_m_s=3.0) == "table"  # in memory now
+    api._TABLE_CACHE.clear()
+    assert api.choose_method(BOAT, few, speed_m_s=3.0) == "table"  # on disk
+    r2 = assess_motions(BOAT, partitions=parts, course_deg=co, speed_m_s=3.0)
+    assert cold_tables == [3.0]  # loaded from disk, not built again
+    for f in ("vacc_rms_m_s2", "roll_rms_deg", "msi_pct", "flags"):
+        np.testing.assert_array_equal(getattr(r2, f), getattr(r, f))
+    api._TABLE_CACHE.clear()
+    assert api.choose_method(BOAT, 5, speed_m_s=3.0) == "exact"  # loading costs more than 5 samples
+
+
+def test_chosen_table_cases_agree_with_exact(cold_tables):
+    """The accuracy that backs the choice: on the cases where the automatic choice takes the
+    tables (2 400 route samples, one speed, short-crested, two partitions) they agree with the
+    exact path within what motions/tables.py states (1 % heave, pitch, vertical accelerations;
+    3 % roll and lateral force; MSI then within 0.2 percentage points), flags identical except
+    near a criterion's limit."""
+    from seaway_comfort.processing.core import api
+
+    parts, co = _route_sea(2400, seed=9)
+    for boat in (BOAT, builtin_profile("coastal_survey_35m")):
+        assert api.choose_method(boat, 2400, speed_m_s=4.0, gamma=parts.gamma, spread_s=parts.spread_s) == "table"
+        a = assess_motions(boat, partitions=parts, course_deg=co, speed_m_s=4.0)
+        b = assess_motions(boat, partitions=parts, course_deg=co, speed_m_s=4.0, method="exact")
+        assert a.method == "table"
+        for f, tol in (("heave_rms_m", 0.01), ("pitch_rms_deg", 0.01), ("vacc_rms_m_s2", 0.01),
+                       ("vacc_wf_rms_m_s2", 0.01), ("roll_rms_deg", 0.03),
+                       ("lacc_rms_m_s2", 0.03)):
+            x, y = getattr(b, f), getattr(a, f)
+            assert np.max(np.abs(y - x) / (np.abs(x) + 0.01 * np.abs(x).max())) < tol, f
+        assert np.max(np.abs(a.msi_pct - b.msi_pct)) < 0.2  # percentage points (from the 1 % in vacc)
+        crit = int(SampleFlag.CRITERIA_EXCEEDED)
+        np.testing.assert_array_equal(a.flags & ~crit, b.flags & ~crit)
+        # a difference within tolerance may flip "criterion exceeded" only that close to a limit
+        flip = (a.flags ^ b.flags) & crit != 0
+        closest = np.min(np.abs(np.stack(list(b.criteria_margin.values()))), axis=0)
+        assert flip.sum() <= 0.01 * flip.size and np.all(closest[flip] < 0.03)

@@ -115,3 +115,37 @@ def test_cancel_via_progress(series):
         C.compute_climate([-9.0, -7.0], [40.5, 43.5], series, "coastal_survey_35m", speed_kn=9.0,
                           backend=C.SerialBackend(), chunk_steps=600, progress=progress)
     assert len(seen) == 2 and 0 < seen[0] < seen[1] < 1
+
+
+def test_real_scheduler_and_two_worker_processes_equal_serial(series, reference, package_parent):
+    """`dask scheduler` and two `dask worker` processes on loopback, started with Dask's
+    command-line tools; the climate equals the serial run exactly."""
+    import sys
+    from pathlib import Path
+
+    if not dask_available():
+        pytest.skip("dask.distributed is not importable in this Python: Dask backend not tested")
+    sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "bench"))
+    from _dask_cli import LoopbackCluster, dask_cli
+
+    if dask_cli() is None:
+        pytest.skip("the `dask` command-line tool is not installed next to this Python")
+    with LoopbackCluster(str(package_parent), n_workers=2) as cl:
+        r = _run(series, C.DaskBackend(address=cl.address), chunk_steps=500)
+    _same(r, reference)
+
+
+@pytest.mark.parametrize("env, tuned", [({"MALLOC_TRIM_THRESHOLD_": "65536"}, True), ({}, False)])
+def test_worker_allocator_tuned_only_under_dask_nanny_setting(env, tuned, package_parent):
+    """glibc's thresholds are raised once per process, only where Dask's nanny set
+    MALLOC_TRIM_THRESHOLD_ (backends.py docstring); a second call does nothing."""
+    import subprocess
+    import sys
+
+    if not sys.platform.startswith("linux"):
+        pytest.skip("mallopt is glibc-only")
+    code = ("from seaway_comfort.processing.core.climate.backends import tune_worker_process as t\n"
+            "print(t(), t())\n")
+    out = subprocess.run([sys.executable, "-P", "-c", code], capture_output=True, text=True, check=False,
+                         env={**env, "PYTHONPATH": str(package_parent), "PATH": "/usr/bin:/bin"})
+    assert out.stdout.split() == [str(tuned), "False"], out.stdout + out.stderr

@@ -130,3 +130,46 @@ def test_full_circle_rao_table_uses_headings_0_to_360():
     # port and starboard beam seas differ for this table (mu 90 vs 270)
     r = tab.lookup([1.0, 1.0], [7.0, 7.0], [90.0, 270.0])
     assert r.roll_rms_deg[0] > 1.2 * r.roll_rms_deg[1]
+
+
+def _asymmetric_rao_table(tmp_path, full_circle):
+    """An invented RAO grid (demo data, not a real vessel): smooth in period and heading,
+    port and starboard different when ``full_circle``."""
+    from seaway_comfort.processing.core.motions.rao_table import TableTransfer, load_rao_table
+
+    heads = np.arange(0.0, 360.0, 15.0) if full_circle else np.arange(0.0, 180.1, 15.0)
+    lines = ["period_s,heading_deg,heave_m_per_m,pitch_deg_per_m,roll_deg_per_m"]
+    for t in np.arange(2.0, 30.01, 1.0):
+        for h in heads:
+            s = np.sin(np.radians(h))
+            lines.append(f"{t},{h},{1.0 - 0.8 * np.exp(-t / 6.0):.8f},{0.4 * t * abs(np.cos(np.radians(h))):.8f},"
+                         f"{2.0 * t / (1.0 + (t - 9.0) ** 2) * (abs(s) + (0.3 * s if full_circle else 0.0)):.8f}")
+    f = tmp_path / ("full.csv" if full_circle else "half.csv")
+    f.write_text("\n".join(lines) + "\n")
+    return TableTransfer(load_rao_table(f))
+
+
+@pytest.mark.parametrize("model", ["closed_form", "rao_half", "rao_full"])
+@pytest.mark.parametrize("long_crested", [False, True])
+def test_table_nodes_equal_the_exact_path_to_rounding(tmp_path, model, long_crested):
+    """Each distinct (Tp, frequency, direction) point is evaluated once when building a table
+    (tables.py docstring); the table's values AT its nodes must still equal the exact spectral
+    integration at those (Tp, mu), Hs = 1 m, to rounding (1e-12 relative, self-consistency of the
+    two summation orders), for the closed form, a folded and a full-circle RAO table, also with
+    finite depth."""
+    p = builtin_profile("coastal_survey_35m")
+    tr = (ClosedFormTransfer.from_profile(p) if model == "closed_form"
+          else _asymmetric_rao_table(tmp_path, model == "rao_full"))
+    tp_nodes, depth = np.geomspace(3.0, 18.0, 7), 35.0
+    tab = build_response_table(tr, p.stations, 4.0, tp_grid_s=tp_nodes, long_crested=long_crested, depth_m=depth)
+    T, H = np.meshgrid(tab.tp_grid_s, tab.heading_grid_deg, indexing="ij")
+    n = T.size
+    # course 0 and waves "from" mu - 180 give the ITTC relative heading mu
+    ex = motion_response(tr, p.stations, hs_m=np.ones(n), tp_s=T.ravel(), wave_from_deg=(H.ravel() - 180.0) % 360.0,
+                         course_deg=0.0, speed_m_s=4.0, depth_m=np.full(n, depth), long_crested=long_crested)
+    assert np.allclose(relative_heading_deg(0.0, (H.ravel() - 180.0) % 360.0), H.ravel())
+    tl = tab.lookup(np.ones(n), T.ravel(), H.ravel())
+    for f in FIELDS:
+        a, b = getattr(ex, f), getattr(tl, f)
+        assert np.max(np.abs(b - a) / np.maximum(np.abs(a), 1e-9 * np.abs(a).max())) < 1e-12, f
+    np.testing.assert_array_equal(tl.flags, ex.flags)

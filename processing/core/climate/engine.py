@@ -4,7 +4,8 @@
 For every time step t of the hindcast and every fixed route sample i the sea state
 (Hs, Tp, direction) is read (:mod:`.hindcast`) and turned into the station's motions through
 the RESPONSE-TABLE path: the table of per-unit-Hs**2 responses over (Tp, relative heading) is
-built ONCE for the vessel, speed and spectrum shape (:func:`..tables.build_response_table`)
+built ONCE for the vessel, speed and spectrum shape (:func:`..tables.build_response_table`,
+through the disk cache :mod:`..motions.table_cache`)
 and looked up for all (t, i) pairs; spectra are never recomputed per time step. Linear
 superposition makes every RMS response proportional to Hs (Lewis (ed.) 1989, Principles of
 Naval Architecture vol. III ch. 8).
@@ -166,7 +167,7 @@ def prepare_climate(
     ``gamma`` JONSWAP peak enhancement (>= 1), ``spread_s`` cos-2s spreading exponent.
     """
     from ..api import transfer_model
-    from ..motions.tables import build_response_table
+    from ..motions.table_cache import cached_table
     from ..units import m_s_from_kn
     from ..vessel.profile import resolve_vessel
 
@@ -183,7 +184,7 @@ def prepare_climate(
                                            series)
     pw = point_weights(series.grid, rs.lon_deg, rs.lat_deg)
     if table is None:
-        table = build_response_table(transfer_model(prof), [st], float(m_s_from_kn(speed)),
+        table = cached_table(transfer_model(prof), [st], float(m_s_from_kn(speed)),
                                      gamma=g, spread_s=s, long_crested=bool(long_crested))
     if st.name not in table.station_names:
         raise SeawayInputError(f"the response table has no station {show(st.name)} (has: {', '.join(table.station_names)})")

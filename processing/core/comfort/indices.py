@@ -29,8 +29,8 @@ from typing import Tuple
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
-from scipy.special import ndtr
 
+from ..numerics import normal_cdf
 from ..units import G_SHIP_M_S2, FloatArray
 from ..validation import SeawayInputError, require_nonnegative, require_positive
 
@@ -89,11 +89,11 @@ def msi_percent(
     if t_h == 2.0:
         lw = np.log10(w)
         mu = -0.819 + 2.32 * lw * lw
-        return np.asarray(100.0 * ndtr((la - mu) / 0.4), dtype=float)
+        return np.asarray(100.0 * normal_cdf((la - mu) / 0.4), dtype=float)
     lf = np.log10(w / (2.0 * math.pi))
     za = 2.128 * la - 9.277 * lf - 5.809 * lf * lf - 1.851
     zt = 1.134 * za + 1.989 * math.log10(t_h * 60.0) - 2.904
-    return np.asarray(100.0 * ndtr(za) * ndtr(zt), dtype=float)
+    return np.asarray(100.0 * normal_cdf(za) * normal_cdf(zt), dtype=float)
 
 
 # ISO 2631-1:1997 Annex A, Wf: f1 0.08, f2 0.63, f3 inf, f4 0.25 Hz, Q4 0.86, f5 0.0625 Hz,

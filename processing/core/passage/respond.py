@@ -135,15 +135,19 @@ def _partitions(sea: SeaAtSamples, chunk: NDArray[np.int64], gamma: float, sprea
                          spread_s=np.full(p, spread_s), names=tuple(sea.partition_names))
 
 
-def _chosen_method(method: Optional[str], n_computed: int) -> str:
-    """The method for the whole track, decided once: the table path builds its tables from the
-    speeds and depths of one call, so it gets every sample in one call (the same numbers
-    whatever the chunking); the exact path runs in chunks so progress and cancel work."""
-    from ..api import AUTO_TABLE_MIN_SAMPLES
+def _chosen_method(method: Optional[str], track: Track, idx: NDArray[np.int64], profile: object,
+                   station: Optional[str], gamma: float, spread_s: float, long_crested: bool, n_partitions: int) -> str:
+    """The method for the whole track, decided once (:func:`..api.choose_method` on the computed
+    samples): the table path builds its tables from the speeds of one call, so it gets every
+    sample in one call (the same numbers whatever the chunking); the exact path runs in chunks
+    so progress and cancel work."""
+    from ..api import choose_method
 
     if method not in (None, "auto"):
         return str(method)
-    return "exact" if n_computed < AUTO_TABLE_MIN_SAMPLES else "table"
+    p = max(1, n_partitions)
+    return choose_method(profile, idx.size, speed_m_s=m_s_from_kn(track.speed_kn[idx]), station=station,  # type: ignore[arg-type]
+                         gamma=np.full(p, gamma), spread_s=np.full(p, spread_s), long_crested=long_crested)
 
 
 def respond_motions(track: Track, sea: SeaAtSamples, profile: object, *, station: Optional[str] = None,
@@ -169,7 +173,8 @@ def respond_motions(track: Track, sea: SeaAtSamples, profile: object, *, station
     outputs = {k: np.full(n, np.nan) for k in MOTION_OUTPUT_NAMES}
     cls = np.full(n, NOT_COMPUTED_CLASS, dtype=np.int64)
     info = {"station": station or "", "method": method or "", "roll": float("nan")}
-    chosen = _chosen_method(method, idx.size)
+    chosen = _chosen_method(method, track, idx, profile, station, gamma_v, spread_v, bool(long_crested),
+                            len(sea.partition_names))
     step = RESPONSE_CHUNK if chosen == "exact" else max(idx.size, 1)
     for start in range(0, idx.size, step):
         chunk = idx[start:start + step]

@@ -35,9 +35,8 @@ from typing import Optional
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
-from scipy.special import gammaln
 
-from ..numerics import trapezoid_weights
+from ..numerics import log_gamma, trapezoid_weights
 from ..units import DEG_PER_RAD, RAD_PER_DEG, FloatArray
 from ..validation import (
     SeawayInputError,
@@ -286,7 +285,7 @@ def frequency_grid_rad_s(
 # --------------------------------------------------------------------------------------------
 def _cos2s_constant(s: FloatArray) -> FloatArray:
     """Gamma(s+1) / (2 sqrt(pi) Gamma(s+1/2)), via log-gamma (no overflow for large s)."""
-    return np.exp(gammaln(s + 1.0) - gammaln(s + 0.5)) / (2.0 * math.sqrt(math.pi))
+    return np.exp(log_gamma(s + 1.0) - log_gamma(s + 0.5)) / (2.0 * math.sqrt(math.pi))
 
 
 def cos2s_spreading_per_rad(theta_rel_rad: ArrayLike, s: ArrayLike) -> FloatArray:
