@@ -204,6 +204,47 @@ def _part_to_wgs84(pts: Sequence[Any], k: int, label: str, crs: Any, xform: Any)
     return lon, lat
 
 
+JOIN_TOLERANCE_NM = 0.05
+"""Leg ends closer than this (about 90 m) count as the same point when legs are joined."""
+
+
+def join_legs(legs: Sequence[RouteLeg]) -> Tuple[RouteLeg, List[str]]:
+    """The legs as ONE passage sailed in layer order, and notes on what the joining did.
+
+    A repeated joint vertex (end of one leg = start of the next, within
+    :data:`JOIN_TOLERANCE_NM`) is dropped; a gap between legs is sailed as a straight line and
+    named in the notes. The joined leg keeps the first leg's departure, and a speed only when
+    every leg that gives one gives the same (1 NM = 1852 m, the international nautical mile).
+    """
+    if len(legs) == 1:
+        return legs[0], []
+    lons, lats, notes = [legs[0].lon_deg], [legs[0].lat_deg], []
+    for prev, nxt in zip(legs[:-1], legs[1:]):
+        gap_nm = _gap_nm(prev.lon_deg[-1], prev.lat_deg[-1], nxt.lon_deg[0], nxt.lat_deg[0])
+        skip = 1 if gap_nm <= JOIN_TOLERANCE_NM else 0
+        if not skip:
+            notes.append(f"{show(prev.name)} ends {gap_nm:.2f} NM from the start of {show(nxt.name)}: "
+                         "sailed as a straight line between them")
+        lons.append(nxt.lon_deg[skip:])
+        lats.append(nxt.lat_deg[skip:])
+    speeds = {leg.speed_kn for leg in legs if leg.speed_kn is not None}
+    name = " + ".join(leg.name for leg in legs)
+    joined = RouteLeg(legs[0].feature_id, 0, name, np.concatenate(lons), np.concatenate(lats),
+                      legs[0].departure_utc, speeds.pop() if len(speeds) == 1 else None)
+    if len(speeds) > 1:
+        notes.append("the legs give different speed_kn; the whole passage uses SPEED_KN (or SPEEDS_KN)")
+    return joined, notes
+
+
+def _gap_nm(lon0_deg: float, lat0_deg: float, lon1_deg: float, lat1_deg: float) -> float:
+    """Ellipsoidal (WGS84) distance [NM] between two points, measured by QGIS's QgsDistanceArea."""
+    from qgis.core import QgsDistanceArea
+
+    da = QgsDistanceArea()
+    da.setEllipsoid("WGS84")
+    return da.measureLine(QgsPointXY(float(lon0_deg), float(lat0_deg)), QgsPointXY(float(lon1_deg), float(lat1_deg))) / 1852.0
+
+
 def segment_geometry(lon0_deg: float, lat0_deg: float, lon1_deg: float, lat1_deg: float) -> QgsGeometry:
     """A two-point line from one sample to the next (EPSG:4326).
 

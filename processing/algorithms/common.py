@@ -429,12 +429,47 @@ def read_route(
 
     context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
     source = alg.parameterAsSource(parameters, ROUTE, context)
-    layer = alg.parameterAsVectorLayer(parameters, ROUTE, context)
-    route_src = layer.source() if layer is not None else str(parameters.get(ROUTE))
     legs = adapters.route_legs(source, context, feedback=feedback)
     if not legs:
         raise QgsProcessingException("ROUTE: no line could be read from the route layer")
-    return legs, route_src
+    return legs, route_layer_and_text(parameters.get(ROUTE), context)[0]
+
+
+def join_route(legs: Sequence[Any], feedback: Any) -> Any:
+    """Every leg as one passage in layer order (:func:`..adapters.join_legs`); the legs (numbered
+    from 1, as in the reports) and any gap between them go to the log."""
+    from ..adapters import join_legs
+
+    leg, notes = join_legs(legs)
+    if len(legs) > 1:
+        feedback.pushInfo(f"ROUTE: {len(legs)} legs sailed one after another as one passage, in layer order: "
+                          + ", ".join(f"{k + 1} {show(x.name)}" for k, x in enumerate(legs)))
+    for note in notes:
+        feedback.pushWarning(f"ROUTE: {note}")
+    return leg
+
+
+def route_layer_and_text(value: Any, context: QgsProcessingContext) -> Tuple[str, str]:
+    """(source path or URI, text a person reads) of a ROUTE value.
+
+    The dialog hands a layer over as a QgsProcessingFeatureSourceDefinition (with "selected
+    features only" as a flag); scripts give a layer, a layer id or a path. The text is the layer
+    name with its source, e.g. ``Merrow route (/data/route.geojson; selected features only)``.
+    """
+    from qgis.core import QgsMapLayer, QgsProcessingFeatureSourceDefinition, QgsProcessingUtils, QgsProperty
+
+    selected = False
+    if isinstance(value, QgsProcessingFeatureSourceDefinition):
+        selected = bool(value.selectedFeaturesOnly)
+        value = value.source
+    if isinstance(value, QgsProperty):
+        value = value.valueAsString(context.expressionContext(), "")[0]
+    layer = value if isinstance(value, QgsMapLayer) else \
+        QgsProcessingUtils.mapLayerFromString(str(value or ""), context) if value else None
+    path = layer.source() if layer is not None else str(value or "")
+    name = layer.name() if layer is not None else ""
+    notes = "; ".join(n for n in (path, "selected features only" if selected else "") if n)
+    return path, (f"{name} ({notes})" if name and name != path else notes)
 
 
 def open_sources(settings: PassageSettings, feedback: Optional[Any]) -> List[Any]:

@@ -51,6 +51,7 @@ class RouteJob:
     settings: common.PassageSettings
     legs: Tuple[Any, ...]
     route_source: str
+    route_text: str = ""
 
     @property
     def inputs(self) -> List[str]:
@@ -135,7 +136,8 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
     def read_settings(self, run: Run) -> RouteJob:
         settings = common.parse_passage_settings(self, run.parameters, run.context)
         legs, route_src = common.read_route(self, run.parameters, run.context, run.feedback)
-        return RouteJob(settings, tuple(legs), route_src)
+        route_text = common.route_layer_and_text(run.parameters.get(common.ROUTE), run.context)[1]
+        return RouteJob(settings, tuple(legs), route_src, route_text)
 
     def compute(self, run: Run, job: RouteJob) -> Passages:
         results: List[Tuple[str, Any]] = []
@@ -158,7 +160,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
 
         fields = adapters.passage_fields()
         crs = QgsCoordinateReferenceSystem(adapters.WGS84)
-        abstract = provenance_text(job.settings, job.route_source)
+        abstract = provenance_text(job.settings, job.route_text or job.route_source)
         out: Dict[str, Any] = {}
         for name, wkb, features, title in (
             (OUTPUT_POINTS, QgsWkbTypes.Type.Point, adapters.point_features, "Seaway Comfort passage samples"),
@@ -230,7 +232,7 @@ def report_inputs(job: RouteJob, passages: Passages) -> Any:
         sea_state_files=s.sea_state_paths,
         source_names=passages.source_names,
         bathymetry=s.depth_path or "",
-        route=job.route_source,
+        route=job.route_text or job.route_source,
         vessel=common.vessel_text(s),
         station=first.station_name if first is not None else (s.station or ""),
         departure_utc=(str(s.departure_utc.astype("datetime64[m]")).replace("T", " ") + " UTC")
