@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Any, Iterable, Iterator, List, Optional, Sequence, Tuple
+from typing import Any, Dict, Iterable, Iterator, List, Optional, Sequence, Tuple
 
 import numpy as np
 from qgis.core import (
@@ -317,6 +317,52 @@ POINT_FIELDS = (
     ("flags", "string", None),
     ("source", "string", None),
 )
+
+
+# What a person reads for each field: (alias with unit, decimals shown; None = not a number).
+# Display only: the stored values keep full precision and the field names stay as they are.
+_BASE_DISPLAY = {
+    "leg": ("Leg index (0-based; leg number = leg + 1)", None),
+    "seq": ("Sample index in the leg (0-based)", None),
+    "leg_name": ("Leg", None),
+    "eta_utc": ("Passing time (UTC)", None),
+    "dist_nm": ("Distance from leg start (NM)", 1),
+    "course_deg": ("Course over ground (deg true)", 0),
+    "speed_kn": ("Speed through the water (kn)", 1),
+    "hs_m": ("Significant wave height Hs (m)", 1),
+    "tp_s": ("Peak period Tp (s)", 1),
+    "wave_from_deg": ("Waves from (deg true)", 0),
+    "depth_m": ("Depth (m)", 0),
+    "wavelength_m": ("Wavelength at Tp (m)", 0),
+    "celerity_m_s": ("Wave celerity (m/s)", 1),
+    "rel_heading_deg": ("Relative wave heading (deg; 0 following, 180 head)", 0),
+    "enc_period_s": ("Encounter period (s)", 1),
+    "msdv_cum": ("Motion sickness dose value, cumulative (m/s^1.5)", 1),
+    "vomit_pct": ("Expected sick, cumulative (%)", 1),
+    "comfort_class": ("Comfort class (0 smooth .. 4 punishing)", None),
+    "comfort_label": ("Comfort", None),
+    "flags": ("Guidance flags", None),
+    "source": ("Forecast source", None),
+    "heave_rms_m": ("Heave, RMS (m)", 2),
+    "pitch_rms_deg": ("Pitch, RMS (deg)", 1),
+    "roll_rms_deg": ("Roll, RMS (deg)", 1),
+    "heave_tz_s": ("Heave zero-crossing period (s)", 1),
+    "pitch_tz_s": ("Pitch zero-crossing period (s)", 1),
+    "roll_tz_s": ("Roll zero-crossing period (s)", 1),
+    "vacc_rms_m_s2": ("Vertical acceleration, RMS (m/s^2)", 2),
+    "lacc_rms_m_s2": ("Lateral acceleration, RMS (m/s^2)", 2),
+    "vacc_wf_rms_m_s2": ("Vertical acceleration Wf-weighted, RMS (m/s^2)", 2),
+    "msi_pct": ("Motion sickness incidence, 2 h (%)", 1),
+}
+
+
+def field_display() -> Dict[str, Tuple[str, Optional[int]]]:
+    """(alias with unit, display decimals or None) for every point/segment field, by name; a
+    motion output not named here gets its report label and unit from :data:`MOTION_OUTPUTS`."""
+    out = {o.name: (f"{o.label} ({o.unit})", o.report_digits if o.report_digits is not None else 2)
+           for o in MOTION_OUTPUTS}  # outputs added later still get an alias
+    out.update(_BASE_DISPLAY)
+    return out
 
 
 def passage_fields() -> QgsFields:
