@@ -88,6 +88,41 @@ def vessel_parameter(label: str) -> QgsProcessingParameterString:
     return QgsProcessingParameterString(VESSEL, label.format(", ".join(names)), defaultValue=default_vessel)
 
 
+def vessel_choices() -> List[str]:
+    """Profile names the dialog offers: the built-in ones, then those stored in the user's QGIS
+    profile folder (a JSON path can still be typed or given by scripts)."""
+    from ..core.vessel.profile import builtin_profile_names
+
+    folder = user_vessel_dir()
+    stored = sorted(p.stem for p in folder.glob("*.json")) if folder.is_dir() else []
+    names = list(builtin_profile_names())
+    return names + [n for n in stored if n not in names]
+
+
+def station_choices() -> List[str]:
+    """Station names of the built-in and stored profiles, in profile order (empty = the profile's
+    first); a station not on the chosen vessel is refused at run time, naming the vessel's own."""
+    out: List[str] = [""]
+    for name in vessel_choices():
+        try:
+            stations = _station_names(resolve_vessel_spec(name))
+        except QgsProcessingException:
+            continue  # a broken stored profile: the vessel manager reports it
+        out += [s for s in stations if s not in out]
+    return out
+
+
+def widget_hints(parameter: QgsProcessingParameterDefinition, decimals: Dict[str, int]) -> Dict[str, Any]:
+    """Dialog metadata of ``parameter``: display decimals, or value hints for VESSEL / STATION."""
+    if isinstance(parameter, QgsProcessingParameterNumber) and \
+            parameter.dataType() == QgsProcessingParameterNumber.Type.Double:
+        return {"widget_wrapper": {"decimals": decimals.get(parameter.name(), 2)}}
+    if parameter.name() in (VESSEL, STATION) and isinstance(parameter, QgsProcessingParameterString):
+        hints = vessel_choices() if parameter.name() == VESSEL else station_choices()
+        return {"widget_wrapper": {"value_hints": hints}}
+    return {}
+
+
 def spectrum_parameters() -> List[QgsProcessingParameterDefinition]:
     """GAMMA and SPREAD_S (advanced): the JONSWAP and cos-2s shape of every sea state."""
     tr = Tr.tr
@@ -561,6 +596,18 @@ def vessel_text(settings: PassageSettings) -> str:
     """The vessel's name, with the VESSEL text when that differs (a file path)."""
     name = getattr(settings.profile, "name", settings.vessel_spec)
     return name if str(settings.vessel_spec) == str(name) else f"{name} ({settings.vessel_spec})"
+
+
+def push_table(feedback: Any, text: str) -> None:
+    """Log a plain-text table so its columns stay aligned in the dialog's HTML log: as <pre> where
+    QGIS takes formatted messages (3.36+); else with no-break spaces (HTML collapses runs of
+    spaces), which keeps the widths though the dialog's font is proportional."""
+    import html
+
+    if hasattr(feedback, "pushFormattedMessage"):
+        feedback.pushFormattedMessage(f"<pre>{html.escape(text)}</pre>", text)
+    else:
+        feedback.pushInfo(text.replace("  ", "\u00a0\u00a0"))
 
 
 def flag_warning_lines(counts: Dict[str, int], n_total: int) -> List[str]:

@@ -238,7 +238,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         ))
         self.addParameter(QgsProcessingParameterFeatureSink(
             OUTPUT_POINTS, self.tr("Samples of the recommended departure"), QgsProcessing.SourceType.TypeVectorPoint,
-            optional=True, createByDefault=False,
+            optional=True, createByDefault=True,
         ))
         self.addOutput(QgsProcessingOutputString(SUMMARY, self.tr("Summary")))
         self.addOutput(QgsProcessingOutputString(RECOMMENDED_UTC, self.tr("Recommended departure (UTC, ISO 8601)")))
@@ -309,7 +309,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         flag_lines = common.flag_warning_lines(flag_counts(result.flags), int(result.flags.size))
         warnings = [*result.notes, *(line.replace(" samples - ", " passages - ") for line in flag_lines)]
         summary = sweep_text_summary(result)
-        run.feedback.pushInfo(summary)
+        common.push_table(run.feedback, summary)
         for w in warnings:
             run.feedback.pushWarning(w)
         out: Dict[str, Any] = {SUMMARY: summary, N_ROWS: len(result.rows),

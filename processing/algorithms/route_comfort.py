@@ -181,7 +181,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
             for line in warnings:
                 run.feedback.pushWarning("  " + line)
         summary = text_summary(report)
-        run.feedback.pushInfo(summary)
+        common.push_table(run.feedback, summary)
         out: Dict[str, Any] = {SUMMARY: summary, N_SAMPLES: passages.n_samples}
         report_path = run.file_output(OUTPUT_REPORT)
         if report_path:
