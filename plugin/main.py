@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import importlib
 from pathlib import Path
-from typing import Any, Callable, List, Optional
+from typing import Any, Callable, Dict, List, Optional
 
 from qgis.core import QgsApplication
 from qgis.PyQt.QtCore import QCoreApplication, QTranslator
@@ -18,6 +18,29 @@ from .translation import install_translator, remove_translator
 ICON_PATH = Path(__file__).resolve().parent / "icons" / "seaway_comfort.svg"
 ROUTE_COMFORT_ALG = f"{PROVIDER_ID}:routecomfort"
 DESCRIBE_SEASTATE_ALG = f"{PROVIDER_ID}:describeseastate"
+DEPARTURE_SWEEP_ALG = f"{PROVIDER_ID}:departuresweep"
+SEASONAL_CLIMATE_ALG = f"{PROVIDER_ID}:seasonalclimate"
+ROUTE_ALGS = (ROUTE_COMFORT_ALG, DEPARTURE_SWEEP_ALG, SEASONAL_CLIMATE_ALG)
+OUTPUT_MARK_FIELDS = ("comfort_class", "ok_sel", "rank")
+"""A line layer with one of these fields is one of our outputs, never offered as the route."""
+
+
+def route_candidate(project: Any, active: Optional[Any] = None) -> Optional[Any]:
+    """The line layer to offer as ROUTE: the active layer if it is a route, else the first
+    route in the layer tree; our own outputs (passage segments, climate segments) never."""
+    from qgis.core import QgsMapLayerType, QgsVectorLayer, QgsWkbTypes
+
+    def is_route(layer: Any) -> bool:
+        return (isinstance(layer, QgsVectorLayer) and layer.type() == QgsMapLayerType.VectorLayer
+                and layer.geometryType() == QgsWkbTypes.GeometryType.LineGeometry
+                and not any(layer.fields().indexOf(f) >= 0 for f in OUTPUT_MARK_FIELDS))
+
+    if active is not None and is_route(active):
+        return active
+    for layer in project.layerTreeRoot().layerOrder():
+        if is_route(layer):
+            return layer
+    return None
 
 
 def qgis_processing_module() -> Any:
@@ -78,6 +101,16 @@ class SeawayComfortPlugin:
             toolbar=True,
         )
         self._add_action(
+            self.tr("When to leave: departure sweep..."),
+            lambda: self.open_algorithm_dialog(DEPARTURE_SWEEP_ALG),
+            tip=self.tr("Compare departure times (and speeds) over the forecast and recommend one"),
+        )
+        self._add_action(
+            self.tr("Seasonal comfort climate..."),
+            lambda: self.open_algorithm_dialog(SEASONAL_CLIMATE_ALG),
+            tip=self.tr("How often, month by month, a passage along the route stays comfortable (hindcast)"),
+        )
+        self._add_action(
             self.tr("Describe a forecast file..."),
             lambda: self.open_algorithm_dialog(DESCRIBE_SEASTATE_ALG),
             tip=self.tr("List the variables, grid and time steps of a sea-state file"),
@@ -127,8 +160,18 @@ class SeawayComfortPlugin:
                 self.tr("QGIS's Processing framework could not be loaded: {0}").format(exc),
             )
             return False
-        qgis_processing.execAlgorithmDialog(algorithm_id)
+        qgis_processing.execAlgorithmDialog(algorithm_id, self.initial_parameters(algorithm_id))
         return True
+
+    def initial_parameters(self, algorithm_id: str) -> Dict[str, Any]:
+        """Values the dialog opens with: the project's route (never one of our outputs) as ROUTE."""
+        from qgis.core import QgsProject
+
+        if algorithm_id not in ROUTE_ALGS:
+            return {}
+        active = self.iface.activeLayer() if self.iface is not None else None
+        layer = route_candidate(QgsProject.instance(), active)
+        return {"ROUTE": layer.id()} if layer is not None else {}
 
     def open_vessel_manager(self) -> None:
         """Show the vessel-profile manager (modal)."""

@@ -39,6 +39,8 @@ from qgis.PyQt.QtWidgets import (
     QWidget,
 )
 
+from qgis.gui import QgsFileWidget
+
 from ..processing.core.vessel import profile as vessel_core
 from ..processing.core.comfort.criteria import NORDFORSK_TASKS
 from ..processing.core.flags import CAUTION
@@ -87,6 +89,8 @@ _SPIN_SPECS: Dict[str, Tuple[float, float, int, float, bool]] = {
     "service_speed_kn": (0.0, 60.0, 2, 0.5, False),
 }
 _OPTIONAL_SPINS = {k for k, spec in _SPIN_SPECS.items() if spec[4]}
+_PROFILE_KEYS = {f.name for f in dataclasses.fields(VesselProfile)}
+"""Keys the vessel core of this version reads (the hull-sections file arrives with strip theory)."""
 
 
 def default_store() -> ProfileStore:
@@ -240,9 +244,18 @@ class VesselManagerDialog(QDialog):
                 spin.setSpecialValueText(self._special_texts()[key])
             self.spins[key] = spin
             form.addRow(self.field_labels[key], spin)
-        self.rao_label = QLabel(hull_box)
+        self.rao_label = QLabel(hull_box)  # what the closed-form model uses when no table is set
         self.rao_label.setWordWrap(True)
-        form.addRow(self.tr("Response table (CSV)"), self.rao_label)
+        self.files: Dict[str, Any] = {}
+        for key, label in (("rao_table", self.tr("Response table (CSV)")),
+                           ("hull_sections", self.tr("Hull sections (CSV)"))):
+            picker = QgsFileWidget(hull_box)
+            picker.setObjectName(key)
+            picker.setFilter(self.tr("CSV files (*.csv);;All files (*)"))
+            picker.setStorageMode(QgsFileWidget.StorageMode.GetFile)
+            self.files[key] = picker
+            form.addRow(label, picker)
+        form.addRow("", self.rao_label)
         return hull_box
 
     def _build_station_box(self, right: QWidget) -> QGroupBox:
@@ -383,7 +396,10 @@ class VesselManagerDialog(QDialog):
         for key, spin in self.spins.items():
             value = getattr(profile, key)
             spin.setValue(spin.minimum() if value is None else float(value))
-        self.rao_label.setText(profile.rao_table or self.tr("none (closed-form hull model)"))
+        for key, picker in self.files.items():
+            picker.setFilePath(str(getattr(profile, key, None) or ""))
+            picker.setDefaultRoot(str(profile.base_dir or ""))
+        self.rao_label.setText("" if profile.rao_table else self.tr("no response table: the hull model is used"))
         self.station_table.setRowCount(0)
         for station in profile.stations:
             self.add_station_row(station)
@@ -400,7 +416,8 @@ class VesselManagerDialog(QDialog):
             cells.append(tuple(i.text() if i is not None else "" for i in items)
                          + (combo.currentData() if isinstance(combo, QComboBox) else None,))
         return (self.name_edit.text(), self.description_edit.toPlainText(),
-                tuple(spin.value() for spin in self.spins.values()), tuple(cells))
+                tuple(spin.value() for spin in self.spins.values()), tuple(cells),
+                tuple(picker.filePath() for picker in self.files.values()))
 
     def _mark_clean(self) -> None:
         self._clean_snapshot = self._snapshot()
@@ -485,6 +502,8 @@ class VesselManagerDialog(QDialog):
         self.description_edit.setReadOnly(ro)
         for spin in self.spins.values():
             spin.setReadOnly(ro)
+        for picker in self.files.values():
+            picker.setReadOnly(ro)
         triggers = (QAbstractItemView.EditTrigger.NoEditTriggers if ro else
                     QAbstractItemView.EditTrigger.DoubleClicked
                     | QAbstractItemView.EditTrigger.EditKeyPressed
@@ -513,7 +532,10 @@ class VesselManagerDialog(QDialog):
         for key, spin in self.spins.items():
             value = float(spin.value())
             data[key] = None if key in _OPTIONAL_SPINS and value <= spin.minimum() else value
-        data["rao_table"] = self._rao_table
+        for key, picker in self.files.items():
+            text = picker.filePath().strip()
+            if text or key in _PROFILE_KEYS:  # a key the core does not know yet stays out when empty
+                data[key] = text or None
         headers = self._station_headers()
         stations: List[Dict[str, Any]] = []
         for row in range(self.station_table.rowCount()):
@@ -550,9 +572,17 @@ class VesselManagerDialog(QDialog):
 
     # ================================================================== messages
     def field_of_message(self, message: str) -> Optional[str]:
-        """The form field a core validation message is about (the first one it names)."""
+        """The form field a core validation message is about (the first one it names).
+
+        "draught_m (T) must not exceed beam_m (B)" blames the beam when the beam is the odd one
+        out, i.e. narrower than a tenth of the waterline length (beam/length ratios of monohulls
+        lie well above 0.1: common practice, no source), as for a 0.5 m beam typed by mistake.
+        """
         # The profile name is quoted in core messages; keep it out of the search.
         message = re.sub(r"""vessel ('[^']*'|"[^"]*")""", "vessel", message)
+        if re.search(r"\bdraught_m\b.*must not exceed beam_m\b", message) and \
+                self.spins["beam_m"].value() < 0.1 * self.spins["length_wl_m"].value():
+            return "beam_m"
         if re.search(r"\bstations?\b|\bstations\[", message):
             return "stations"  # a station's name, position or task, or the list itself
         best: Optional[Tuple[int, str]] = None

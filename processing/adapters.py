@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Any, Iterable, Iterator, List, Optional, Sequence, Tuple
+from typing import Any, Dict, Iterable, Iterator, List, Optional, Sequence, Tuple
 
 import numpy as np
 from qgis.core import (
@@ -204,6 +204,47 @@ def _part_to_wgs84(pts: Sequence[Any], k: int, label: str, crs: Any, xform: Any)
     return lon, lat
 
 
+JOIN_TOLERANCE_NM = 0.05
+"""Leg ends closer than this (about 90 m) count as the same point when legs are joined."""
+
+
+def join_legs(legs: Sequence[RouteLeg]) -> Tuple[RouteLeg, List[str]]:
+    """The legs as ONE passage sailed in layer order, and notes on what the joining did.
+
+    A repeated joint vertex (end of one leg = start of the next, within
+    :data:`JOIN_TOLERANCE_NM`) is dropped; a gap between legs is sailed as a straight line and
+    named in the notes. The joined leg keeps the first leg's departure, and a speed only when
+    every leg that gives one gives the same (1 NM = 1852 m, the international nautical mile).
+    """
+    if len(legs) == 1:
+        return legs[0], []
+    lons, lats, notes = [legs[0].lon_deg], [legs[0].lat_deg], []
+    for prev, nxt in zip(legs[:-1], legs[1:]):
+        gap_nm = _gap_nm(prev.lon_deg[-1], prev.lat_deg[-1], nxt.lon_deg[0], nxt.lat_deg[0])
+        skip = 1 if gap_nm <= JOIN_TOLERANCE_NM else 0
+        if not skip:
+            notes.append(f"{show(prev.name)} ends {gap_nm:.2f} NM from the start of {show(nxt.name)}: "
+                         "sailed as a straight line between them")
+        lons.append(nxt.lon_deg[skip:])
+        lats.append(nxt.lat_deg[skip:])
+    speeds = {leg.speed_kn for leg in legs if leg.speed_kn is not None}
+    name = " + ".join(leg.name for leg in legs)
+    joined = RouteLeg(legs[0].feature_id, 0, name, np.concatenate(lons), np.concatenate(lats),
+                      legs[0].departure_utc, speeds.pop() if len(speeds) == 1 else None)
+    if len(speeds) > 1:
+        notes.append("the legs give different speed_kn; the whole passage uses SPEED_KN (or SPEEDS_KN)")
+    return joined, notes
+
+
+def _gap_nm(lon0_deg: float, lat0_deg: float, lon1_deg: float, lat1_deg: float) -> float:
+    """Ellipsoidal (WGS84) distance [NM] between two points, measured by QGIS's QgsDistanceArea."""
+    from qgis.core import QgsDistanceArea
+
+    da = QgsDistanceArea()
+    da.setEllipsoid("WGS84")
+    return da.measureLine(QgsPointXY(float(lon0_deg), float(lat0_deg)), QgsPointXY(float(lon1_deg), float(lat1_deg))) / 1852.0
+
+
 def segment_geometry(lon0_deg: float, lat0_deg: float, lon1_deg: float, lat1_deg: float) -> QgsGeometry:
     """A two-point line from one sample to the next (EPSG:4326).
 
@@ -280,22 +321,62 @@ POINT_FIELDS = (
 )
 
 
-POINT_FIELD_ALIASES = {
-    "msi_pct": "MSI % (2 h exposure at this sea state)",
-    "sick_pct_passage": "share who may vomit %, ISO 2631-1, accumulated from departure (hours since departure)",
-    "vomit_pct": "same as sick_pct_passage (old name, kept for one release)",
-    "class_reason": "what set the comfort class (measure, value, limit)",
+# What a person reads for each field: (alias with unit, decimals shown; None = not a number).
+# Display only: the stored values keep full precision and the field names stay as they are.
+_BASE_DISPLAY = {
+    "leg": ("Leg index (0-based; leg number = leg + 1)", None),
+    "seq": ("Sample index in the leg (0-based)", None),
+    "leg_name": ("Leg", None),
+    "eta_utc": ("Passing time (UTC)", None),
+    "dist_nm": ("Distance from leg start (NM)", 1),
+    "course_deg": ("Course over ground (deg true)", 0),
+    "speed_kn": ("Speed through the water (kn)", 1),
+    "hs_m": ("Significant wave height Hs (m)", 1),
+    "tp_s": ("Peak period Tp (s)", 1),
+    "wave_from_deg": ("Waves from (deg true)", 0),
+    "depth_m": ("Depth (m)", 0),
+    "wavelength_m": ("Wavelength at Tp (m)", 0),
+    "celerity_m_s": ("Wave celerity (m/s)", 1),
+    "rel_heading_deg": ("Relative wave heading (deg; 0 following, 180 head)", 0),
+    "enc_period_s": ("Encounter period (s)", 1),
+    "msdv_cum": ("Motion sickness dose value, cumulative (m/s^1.5)", 1),
+    "vomit_pct": ("Same as sick_pct_passage (old name, kept for one release) (%)", 1),
+    "sick_pct_passage": ("Share who may vomit, ISO 2631-1, accumulated from departure (%)", 1),
+    "class_reason": ("What set the comfort class (measure, value, limit)", None),
+    "comfort_class": ("Comfort class (0 smooth .. 4 punishing)", None),
+    "comfort_label": ("Comfort", None),
+    "flags": ("Guidance flags", None),
+    "source": ("Forecast source", None),
+    "heave_rms_m": ("Heave, RMS (m)", 2),
+    "pitch_rms_deg": ("Pitch, RMS (deg)", 1),
+    "roll_rms_deg": ("Roll, RMS (deg)", 1),
+    "heave_tz_s": ("Heave zero-crossing period (s)", 1),
+    "pitch_tz_s": ("Pitch zero-crossing period (s)", 1),
+    "roll_tz_s": ("Roll zero-crossing period (s)", 1),
+    "vacc_rms_m_s2": ("Vertical acceleration, RMS (m/s^2)", 2),
+    "lacc_rms_m_s2": ("Lateral acceleration, RMS (m/s^2)", 2),
+    "vacc_wf_rms_m_s2": ("Vertical acceleration Wf-weighted, RMS (m/s^2)", 2),
+    "msi_pct": ("Motion sickness incidence, 2 h exposure at this sea state (%)", 1),
 }
-"""Layer field aliases stating the exposure of each sickness figure."""
+
+
+def field_display() -> Dict[str, Tuple[str, Optional[int]]]:
+    """(alias with unit, display decimals or None) for every point/segment field, by name; a
+    motion output not named here gets its report label and unit from :data:`MOTION_OUTPUTS`."""
+    out = {o.name: (f"{o.label} ({o.unit})", o.report_digits if o.report_digits is not None else 2)
+           for o in MOTION_OUTPUTS}  # outputs added later still get an alias
+    out.update(_BASE_DISPLAY)
+    return out
 
 
 def passage_fields() -> QgsFields:
     """Fields of the point and segment layers (names and units are the public interface)."""
     fields = QgsFields()
+    display = field_display()
     for name, kind, _ in POINT_FIELDS:
         f = make_field(name, kind)
-        if name in POINT_FIELD_ALIASES:
-            f.setAlias(POINT_FIELD_ALIASES[name])
+        if name in display:
+            f.setAlias(display[name][0])
         fields.append(f)
     return fields
 

@@ -7,8 +7,9 @@
    a two-leg route) into ``<dir>/data`` (:mod:`.core.demo_scenario`);
 2. run ``seawaycomfort:describeseastate`` and ``seawaycomfort:routecomfort`` through
    ``/usr/bin/qgis_process.bin`` with an isolated QGIS profile in ``<dir>/.qgis-profile``;
-3. write ``<dir>/seaway_demo.qgz`` with the styled point and segment layers (their QML styles
-   applied), the invented island and the bathymetry, and print a short summary and the paths.
+3. write ``<dir>/seaway_demo.qgz``: the styled point and segment layers (their QML styles
+   applied) over the route, the forecast's Hs at departure, the invented island and the
+   bathymetry, opening zoomed on the passage; print a short summary and the paths.
 """
 from __future__ import annotations
 
@@ -20,7 +21,8 @@ import subprocess
 import sys
 import time
 from pathlib import Path
-from typing import Dict, List, Optional, Sequence
+from dataclasses import dataclass
+from typing import Any, Dict, List, Optional, Sequence, Tuple
 
 from .core.flags import CAUTION
 from .core.validation import show
@@ -71,53 +73,137 @@ def run_qgis_process(alg: str, params: Sequence[str], env: Dict[str, str], *, ti
     return json.loads(proc.stdout[start:])
 
 
-def _style_depth(layer: object) -> None:
-    """Depth in blues, light for shallow water, dark for deep (QGIS's built-in 'Blues' ramp)."""
-    from qgis.core import QgsColorRampShader, QgsRasterShader, QgsSingleBandPseudoColorRenderer, QgsStyle
+def _pseudocolour(layer: Any, band: int, ramp: Any, top: float, steps: int, opacity: float) -> None:
+    """Band ``band`` coloured along ``ramp`` from 0 to ``top`` in ``steps`` classes, at ``opacity``."""
+    from qgis.core import QgsColorRampShader, QgsRasterShader, QgsSingleBandPseudoColorRenderer
 
-    ramp = QgsStyle.defaultStyle().colorRamp("Blues")
-    if ramp is None:
-        return
-    shader_fn = QgsColorRampShader(0.0, 2500.0, ramp)
-    shader_fn.classifyColorRamp(8)
+    shader_fn = QgsColorRampShader(0.0, top, ramp)
+    shader_fn.classifyColorRamp(steps)
     shader = QgsRasterShader()
     shader.setRasterShaderFunction(shader_fn)
-    renderer = QgsSingleBandPseudoColorRenderer(layer.dataProvider(), 1, shader)
+    renderer = QgsSingleBandPseudoColorRenderer(layer.dataProvider(), band, shader)
     renderer.setClassificationMin(0.0)
-    renderer.setClassificationMax(2500.0)
+    renderer.setClassificationMax(top)
     layer.setRenderer(renderer)
-    layer.setOpacity(0.55)  # keep the dark comfort classes readable on deep water
+    layer.setOpacity(opacity)
 
 
-def write_project(out_dir: Path, points: str, segments: str, bathymetry: str, report: str,
-                  land: str = "") -> str:
-    """A QGIS project with the styled outputs (QML applied) and the bathymetry underneath."""
+def _style_depth(layer: Any) -> None:
+    """Depth in blues, light for shallow water, dark for deep (QGIS's built-in 'Blues' ramp), at 55 %
+    opacity to keep the dark comfort classes readable on deep water."""
+    from qgis.core import QgsStyle
+
+    ramp = QgsStyle.defaultStyle().colorRamp("Blues")
+    if ramp is not None:
+        _pseudocolour(layer, 1, ramp, 2500.0, 8, 0.55)
+
+
+@dataclass(frozen=True)
+class DemoLayers:
+    """The files the demo project shows (bottom to top: depth, land, forecast, route, outputs)."""
+
+    points: str
+    segments: str
+    bathymetry: str
+    report: str
+    land: str = ""
+    route: str = ""
+    forecast: str = ""
+    departure_utc: str = ""
+
+
+def write_project(out_dir: Path, files: DemoLayers) -> str:
+    """A QGIS project with the styled outputs (QML applied) over the route, the forecast's Hs at
+    departure, the land and the depth, opening zoomed on the passage."""
     from .standalone import run_with_qgis
 
-    return run_with_qgis(lambda: _write_project(out_dir, points, segments, bathymetry, report, land))
+    return run_with_qgis(lambda: _write_project(out_dir, files))
 
 
-def _write_project(out_dir: Path, points: str, segments: str, bathymetry: str, report: str,
-                   land: str) -> str:
+def _forecast_band(path: str, departure_utc: str) -> Tuple[str, str]:
+    """(GDAL source of the NetCDF Hs grid, 1-based band of the step nearest ``departure_utc``)."""
+    import numpy as np
+    from osgeo import gdal
+
+    source = f'NETCDF:"{path}":hs'
+    ds = gdal.Open(source)
+    if ds is None:
+        return "", ""
+    want_s = float(np.datetime64(str(departure_utc).rstrip("Z"), "s").astype("int64"))
+    unit, _, epoch = (ds.GetMetadataItem("time#units") or "").partition(" since ")
+    scale_s = {"seconds": 1.0, "minutes": 60.0, "hours": 3600.0, "days": 86400.0}.get(unit.strip())
+    if scale_s is None or not epoch.startswith("1970-01-01"):
+        return source, "1"  # CF time units of another form: show the first step (demo only)
+    best, best_gap = 1, None
+    for b in range(1, ds.RasterCount + 1):
+        t = ds.GetRasterBand(b).GetMetadataItem("NETCDF_DIM_time")
+        if t is None:
+            continue
+        gap = abs(float(t) * scale_s - want_s)
+        if best_gap is None or gap < best_gap:
+            best, best_gap = b, gap
+    return source, str(best)
+
+
+def _style_forecast(layer: Any, band: int) -> None:
+    """Hs in one band as a grey-to-violet ramp of our own (0-6 m), half transparent, under the route."""
+    from qgis.core import QgsGradientColorRamp
     from qgis.PyQt.QtGui import QColor
-    from qgis.core import QgsCoordinateReferenceSystem, QgsProject, QgsRasterLayer, QgsVectorLayer
+
+    _pseudocolour(layer, band, QgsGradientColorRamp(QColor("#f2f0f7"), QColor("#54278f")), 6.0, 7, 0.45)
+
+
+def _add_canvas_extent(project: Any, extent: Any) -> None:
+    """Store the view the desktop opens with (a <mapcanvas> entry as QGIS itself writes one) and
+    the project's default view extent."""
+    from qgis.core import QgsMapSettings, QgsReferencedRectangle
+
+    project.viewSettings().setDefaultViewExtent(QgsReferencedRectangle(extent, project.crs()))
+
+    def write(doc: Any) -> None:
+        settings = QgsMapSettings()
+        settings.setDestinationCrs(project.crs())
+        settings.setExtent(extent)
+        canvas = doc.createElement("mapcanvas")
+        canvas.setAttribute("name", "theMapCanvas")
+        canvas.setAttribute("annotationsVisible", "1")
+        settings.writeXml(canvas, doc)
+        doc.documentElement().appendChild(canvas)
+
+    project.writeProject.connect(write)
+
+
+def _layers(files: DemoLayers) -> List[Any]:
+    """The project's layers, bottom first, styled."""
+    from qgis.PyQt.QtGui import QColor
+    from qgis.core import QgsLineSymbol, QgsRasterLayer, QgsVectorLayer
 
     from .styling import qml_path_for
 
-    project = QgsProject()
-    project.setCrs(QgsCoordinateReferenceSystem("EPSG:4326"))
-    project.setTitle("Seaway Comfort demo: Merrow Reach (invented scenario)")
-    layers = []
-    depth = QgsRasterLayer(bathymetry, "Depth (invented bathymetry, m)", "gdal")
+    layers: List[Any] = []
+    depth = QgsRasterLayer(files.bathymetry, "Depth (m, invented bathymetry)", "gdal")
     if depth.isValid():
         _style_depth(depth)
         layers.append(depth)
-    if land and os.path.exists(land):
-        island = QgsVectorLayer(land, "Land (invented)", "ogr")
+    if files.land and os.path.exists(files.land):
+        island = QgsVectorLayer(files.land, "Land (invented)", "ogr")
         if island.isValid():
             island.renderer().symbol().setColor(QColor("#d8c9a3"))
             layers.append(island)
-    for path, name in ((segments, "Passage segments"), (points, "Passage samples")):
+    if files.forecast:
+        source, band = _forecast_band(files.forecast, files.departure_utc)
+        hs = QgsRasterLayer(source, f"Forecast Hs at departure {str(files.departure_utc)[:16]} UTC (m)", "gdal")
+        if source and hs.isValid():
+            _style_forecast(hs, int(band))
+            layers.append(hs)
+    if files.route:
+        route = QgsVectorLayer(files.route, "Route (2 legs, planned)", "ogr")
+        if route.isValid():
+            route.setRenderer(route.renderer().clone())
+            route.renderer().setSymbol(QgsLineSymbol.createSimple(
+                {"line_color": "#202020", "line_width": "0.5", "line_style": "dash"}))
+            layers.append(route)
+    for path, name in ((files.segments, "Passage segments"), (files.points, "Passage samples")):
         layer = QgsVectorLayer(path, name, "ogr")
         if not layer.isValid():
             raise RuntimeError(f"output {show(path)} could not be opened")
@@ -125,9 +211,29 @@ def _write_project(out_dir: Path, points: str, segments: str, bathymetry: str, r
         if os.path.exists(qml):
             layer.loadNamedStyle(qml)
         layers.append(layer)
+    return layers
+
+
+def _write_project(out_dir: Path, files: DemoLayers) -> str:
+    from qgis.core import QgsCoordinateReferenceSystem, QgsProject, QgsRectangle
+
+    project = QgsProject()
+    project.setCrs(QgsCoordinateReferenceSystem("EPSG:4326"))
+    project.setTitle("Seaway Comfort demo: Merrow Reach (invented scenario)")
+    layers = _layers(files)
+    from qgis.core import QgsMapLayerLegendUtils, QgsRasterLayer
+
     for layer in layers:
-        project.addMapLayer(layer)
-    project.writeEntry("SeawayComfort", "/report", report)
+        project.addMapLayer(layer, False)
+        node = project.layerTreeRoot().insertLayer(0, layer)  # last added on top
+        if isinstance(layer, QgsRasterLayer):  # the band row reads "Band 1 (Gray)" otherwise
+            QgsMapLayerLegendUtils.setLegendNodeUserLabel(node, 0, "metres" if "Depth" in layer.name() else "Hs, metres")
+    extent = QgsRectangle()
+    for layer in layers[-2:]:  # the passage: segments and samples
+        extent.combineExtentWith(layer.extent())
+    extent.scale(1.15)
+    _add_canvas_extent(project, extent)
+    project.writeEntry("SeawayComfort", "/report", files.report)
     project.writeEntry("SeawayComfort", "/caution", CAUTION)
     target = str(out_dir / "seaway_demo.qgz")
     if not project.write(target):
@@ -174,7 +280,9 @@ def main(argv: Optional[List[str]] = None) -> int:
             f"OUTPUT_SEGMENTS={segments}",
             f"OUTPUT_REPORT={report}",
         ], env)
-        project = write_project(out, points, segments, scen.bathymetry_path, report, scen.land_path)
+        project = write_project(out, DemoLayers(
+            points, segments, scen.bathymetry_path, report, scen.land_path, scen.route_path, scen.netcdf_path,
+            str(scen.legs[0]["depart_utc"])))
     except Exception as exc:  # noqa: BLE001 - the demo reports any failure and exits non-zero
         print(f"demo failed: {exc}", file=sys.stderr)
         return 1

@@ -1,8 +1,10 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Styles for passage outputs: comfort-class renderers, time settings, provenance metadata.
 
-Colours come from :data:`.core.report.COMFORT_PALETTE` (our own five-step light-to-dark palette,
-kept apart by lightness so it reads under colour-vision deficiencies; grey = not computed).
+Colours come from :data:`.core.reports.palette.COMFORT_PALETTE` (our own five-step light-to-dark
+palette, kept apart by lightness and off the bathymetry blues; grey = not computed). Lines carry a
+light casing, points are smaller than a segment is wide and show only when zoomed in far enough
+that 1 NM samples stay apart; segments are labelled "Leg N" (1-based, as in the report and log).
 Styles are written where they hold without any post-processor (qgis_process, processing.run):
 a QML file beside the output (renderer AND temporal settings) and, for GeoPackages, the
 default style in the file (QGIS restores its renderer on open, not its temporal settings).
@@ -20,20 +22,34 @@ from qgis.core import (
     QgsCategorizedSymbolRenderer,
     QgsLineSymbol,
     QgsMarkerSymbol,
+    QgsProperty,
+    QgsSimpleLineSymbolLayer,
     QgsProcessingLayerPostProcessorInterface,
     QgsRendererCategory,
     QgsVectorLayer,
     QgsWkbTypes,
 )
-from qgis.PyQt.QtCore import QVariant
-from qgis.PyQt.QtGui import QColor
+from qgis.PyQt.QtCore import Qt, QVariant
+from qgis.PyQt.QtGui import QColor, QFont
 
 from .core.reports.passage import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 from .core.validation import show
 
 CLASS_FIELD = "comfort_class"
 TIME_FIELD = "eta_utc"
-OUTLINE = "#3a3a3a"
+OUTLINE = "#ffffff"
+CASING = "#ffffff"
+SHAPEFILE_NAME_CHARS = 10
+"""A Shapefile (dBASE) keeps at most 10 characters of a field name."""
+POINTS_MIN_SCALE = 1_000_000
+"""Sample points show only when zoomed in closer than 1:1,000,000: at 1 NM spacing they are then
+at least 1.85 mm apart, more than their size, so they never merge into a strip."""
+POINT_SIZE_MM = "scale_linear(@map_scale, 25000, 1000000, 2.4, 1.0)"
+"""Point size [mm] by scale: 2.4 mm close in, 1.0 mm at 1:1,000,000 (smaller than a segment is wide
+at every scale they show, so the segments stay visible)."""
+LINE_WIDTH_MM, CASING_WIDTH_MM = 1.6, 2.6
+TIME_LABEL_MAX_SCALE = 150_000
+"""Passing-time labels on every fifth sample only when zoomed in closer than 1:150,000."""
 
 
 def _labels() -> Tuple[str, ...]:
@@ -43,24 +59,118 @@ def _labels() -> Tuple[str, ...]:
 
 
 def _symbol(geometry_type: Any, colour: str) -> Any:
+    """A line with a light casing (reads over dark and light water alike), or a small point."""
     if geometry_type == QgsWkbTypes.GeometryType.LineGeometry:
-        sym = QgsLineSymbol.createSimple({"line_color": colour, "line_width": "1.4", "capstyle": "round"})
-    else:
-        sym = QgsMarkerSymbol.createSimple({
-            "name": "circle", "color": colour, "size": "2.6",
-            "outline_color": OUTLINE, "outline_width": "0.2",
-        })
-    sym.setColor(QColor(colour))
+        sym = QgsLineSymbol.createSimple({"line_color": CASING, "line_width": str(CASING_WIDTH_MM),
+                                          "capstyle": "round", "joinstyle": "round"})
+        top = QgsSimpleLineSymbolLayer(QColor(colour), LINE_WIDTH_MM)
+        top.setPenCapStyle(Qt.PenCapStyle.RoundCap)
+        top.setRenderingPass(1)  # with symbol levels: every casing first, then the colours
+        sym.appendSymbolLayer(top)
+        return sym
+    sym = QgsMarkerSymbol.createSimple({"name": "circle", "color": colour, "size": "1.6",
+                                        "outline_color": OUTLINE, "outline_width": "0.25"})
+    sym.setDataDefinedSize(QgsProperty.fromExpression(POINT_SIZE_MM))
     return sym
 
 
-def comfort_renderer(geometry_type: Any) -> QgsCategorizedSymbolRenderer:
-    """A categorized renderer on ``comfort_class``: classes 0..4 and NULL = not computed."""
+def resolved_field(layer: QgsVectorLayer, name: str) -> Optional[str]:
+    """The name ``name`` has in this layer: itself, or its Shapefile truncation (first 10
+    characters), or the field at its position among the passage fields (a driver that renamed
+    it otherwise); None when the layer has no such field."""
+    fields = layer.fields()
+    if fields.indexOf(name) >= 0:
+        return name
+    if fields.indexOf(name[:SHAPEFILE_NAME_CHARS]) >= 0:
+        return name[:SHAPEFILE_NAME_CHARS]
+    from .adapters import passage_fields
+
+    ours = passage_fields()
+    k = ours.indexOf(name)
+    if k >= 0 and fields.count() == ours.count():
+        return fields.at(k).name()
+    return None
+
+
+def comfort_renderer(geometry_type: Any, field: str = CLASS_FIELD) -> QgsCategorizedSymbolRenderer:
+    """A categorized renderer on ``field`` (comfort_class): classes 0..4 and NULL = not computed."""
     cats: List[QgsRendererCategory] = []
     for c, label in enumerate(_labels()):
         cats.append(QgsRendererCategory(c, _symbol(geometry_type, COMFORT_PALETTE[c]), f"{c} {label}"))
     cats.append(QgsRendererCategory(QVariant(), _symbol(geometry_type, NOT_COMPUTED_COLOUR), "not computed"))
-    return QgsCategorizedSymbolRenderer(CLASS_FIELD, cats)
+    return QgsCategorizedSymbolRenderer(field, cats)
+
+
+def apply_display(layer: QgsVectorLayer) -> None:
+    """Aliases with units and display decimals (:func:`..adapters.field_display`), whatever the
+    format did to the names; the stored values are not changed."""
+    from qgis.core import QgsEditorWidgetSetup
+
+    from .adapters import field_display
+
+    for name, (alias, decimals) in field_display().items():
+        actual = resolved_field(layer, name)
+        if actual is None:
+            continue
+        idx = layer.fields().indexOf(actual)
+        layer.setFieldAlias(idx, alias)
+        if decimals is not None:
+            layer.setEditorWidgetSetup(idx, QgsEditorWidgetSetup("Range", {
+                "Precision": decimals, "Style": "SpinBox", "AllowNull": True,
+                "Min": -1.0e12, "Max": 1.0e12, "Step": 10.0 ** -decimals}))
+
+
+def _text_format() -> Any:
+    from qgis.core import QgsTextBufferSettings, QgsTextFormat
+
+    from qgis.PyQt.QtGui import QFontDatabase
+
+    fmt = QgsTextFormat()
+    family = next((f for f in ("DejaVu Sans", "Liberation Sans", "Arial") if f in QFontDatabase().families()), "")
+    if family:
+        fmt.setFont(QFont(family))
+    fmt.setSize(8.5)
+    fmt.setColor(QColor("#1a1a1a"))
+    buffer = QgsTextBufferSettings()
+    buffer.setEnabled(True)
+    buffer.setSize(0.9)
+    buffer.setColor(QColor("#ffffff"))
+    fmt.setBuffer(buffer)
+    return fmt
+
+
+def label_expression(layer: QgsVectorLayer) -> Optional[str]:
+    """Lines: "Leg N: name" (N 1-based, as in the report and log) at each leg's first segment;
+    points: the passing time (UTC) at every fifth sample. None when the fields are missing."""
+    leg, seq, name, eta = (resolved_field(layer, f) for f in ("leg", "seq", "leg_name", TIME_FIELD))
+    if leg is None or seq is None:
+        return None
+    if layer.geometryType() == QgsWkbTypes.GeometryType.LineGeometry:
+        title = f"': ' || \"{name}\"" if name else "''"
+        return f"if(\"{seq}\" = 0, 'Leg ' || to_string(\"{leg}\" + 1) || {title}, NULL)"
+    if eta is None:
+        return None
+    return f"if(\"{seq}\" % 5 = 0, format_date(\"{eta}\", 'dd HH:mm') || ' UTC', NULL)"
+
+
+def apply_labels(layer: QgsVectorLayer) -> None:
+    """Leg numbers on segments; passing times on points, only close in (:data:`TIME_LABEL_MAX_SCALE`)."""
+    from qgis.core import QgsPalLayerSettings, QgsVectorLayerSimpleLabeling
+
+    expression = label_expression(layer)
+    if expression is None:
+        return
+    settings = QgsPalLayerSettings()
+    settings.fieldName = expression
+    settings.isExpression = True
+    settings.setFormat(_text_format())
+    if layer.geometryType() == QgsWkbTypes.GeometryType.PointGeometry:
+        settings.scaleVisibility = True
+        settings.minimumScale = TIME_LABEL_MAX_SCALE  # QGIS: the most zoomed-out scale shown
+        settings.maximumScale = 1.0
+        settings.dist = 1.5
+    layer.setLabeling(QgsVectorLayerSimpleLabeling(settings))
+    layer.setLabelsEnabled(True)
 
 
 def apply_temporal(layer: QgsVectorLayer, field: str = TIME_FIELD) -> None:
@@ -80,10 +190,22 @@ def apply_metadata(layer: QgsVectorLayer, title: str, abstract: str) -> None:
 
 
 def apply_comfort_style(layer: QgsVectorLayer, *, title: str = "", abstract: str = "") -> None:
-    """Renderer, temporal properties and (when given) provenance metadata on a layer."""
-    layer.setRenderer(comfort_renderer(layer.geometryType()))
-    if layer.fields().indexOf(TIME_FIELD) >= 0:
-        apply_temporal(layer)
+    """Renderer, labels, aliases and display decimals, temporal properties and (when given)
+    provenance metadata on a layer; works on every output format (field names resolved with
+    :func:`resolved_field`, so a Shapefile's truncated ``comfort_cl`` is classified too)."""
+    field = resolved_field(layer, CLASS_FIELD) or CLASS_FIELD
+    renderer = comfort_renderer(layer.geometryType(), field)
+    renderer.setUsingSymbolLevels(layer.geometryType() == QgsWkbTypes.GeometryType.LineGeometry)
+    layer.setRenderer(renderer)
+    if layer.geometryType() == QgsWkbTypes.GeometryType.PointGeometry:
+        layer.setScaleBasedVisibility(True)
+        layer.setMinimumScale(POINTS_MIN_SCALE)
+        layer.setMaximumScale(0.0)
+    apply_display(layer)
+    apply_labels(layer)
+    time_field = resolved_field(layer, TIME_FIELD)
+    if time_field is not None:
+        apply_temporal(layer, time_field)
     if title or abstract:
         apply_metadata(layer, title, abstract)
     layer.triggerRepaint()

@@ -21,12 +21,17 @@ from qgis.core import (
     QgsProcessingParameterFileDestination,
     QgsProperty,
 )
-from qgis.PyQt.QtCore import QCoreApplication
+from qgis.PyQt.QtCore import QCoreApplication, QUrl
 
 from ..core.validation import show
 from . import common
 
 TEMPORARY = ("memory:", "TEMPORARY_OUTPUT")
+HELP_PAGE = os.path.join(os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)))),
+                         "help", "index.html")
+"""The local help page shipped with the plugin (one section per algorithm, anchored by its name)."""
+DISPLAY_DECIMALS = {"SPEED_KN": 1, "SPACING_NM": 2, "GAMMA": 2, "SPREAD_S": 1, "DEPART_STEP_H": 1}
+"""Decimals the dialog shows for decimal parameters (others: 2); values keep full precision."""
 
 
 class Run:
@@ -122,6 +127,16 @@ class SeawayAlgorithm(QgsProcessingAlgorithm):
 
     def createInstance(self) -> "SeawayAlgorithm":  # noqa: N802
         return type(self)()
+
+    def helpUrl(self) -> str:  # noqa: N802
+        """The algorithm's section of the help page shipped with the plugin (opens offline)."""
+        return QUrl.fromLocalFile(HELP_PAGE).toString() + "#" + self.name()
+
+    def addParameter(self, parameter: Any, createOutput: bool = True) -> bool:  # noqa: N802, N803
+        """Every parameter with its dialog hints: decimals for decimal numbers, the known vessel
+        profiles and stations as choices (:func:`.common.widget_hints`); scripts are unaffected."""
+        parameter.setMetadata({**parameter.metadata(), **common.widget_hints(parameter, DISPLAY_DECIMALS)})
+        return super().addParameter(parameter, createOutput)
 
     def processAlgorithm(  # noqa: N802
         self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback

@@ -88,6 +88,41 @@ def vessel_parameter(label: str) -> QgsProcessingParameterString:
     return QgsProcessingParameterString(VESSEL, label.format(", ".join(names)), defaultValue=default_vessel)
 
 
+def vessel_choices() -> List[str]:
+    """Profile names the dialog offers: the built-in ones, then those stored in the user's QGIS
+    profile folder (a JSON path can still be typed or given by scripts)."""
+    from ..core.vessel.profile import builtin_profile_names
+
+    folder = user_vessel_dir()
+    stored = sorted(p.stem for p in folder.glob("*.json")) if folder.is_dir() else []
+    names = list(builtin_profile_names())
+    return names + [n for n in stored if n not in names]
+
+
+def station_choices() -> List[str]:
+    """Station names of the built-in and stored profiles, in profile order (empty = the profile's
+    first); a station not on the chosen vessel is refused at run time, naming the vessel's own."""
+    out: List[str] = [""]
+    for name in vessel_choices():
+        try:
+            stations = _station_names(resolve_vessel_spec(name))
+        except QgsProcessingException:
+            continue  # a broken stored profile: the vessel manager reports it
+        out += [s for s in stations if s not in out]
+    return out
+
+
+def widget_hints(parameter: QgsProcessingParameterDefinition, decimals: Dict[str, int]) -> Dict[str, Any]:
+    """Dialog metadata of ``parameter``: display decimals, or value hints for VESSEL / STATION."""
+    if isinstance(parameter, QgsProcessingParameterNumber) and \
+            parameter.dataType() == QgsProcessingParameterNumber.Type.Double:
+        return {"widget_wrapper": {"decimals": decimals.get(parameter.name(), 2)}}
+    if parameter.name() in (VESSEL, STATION) and isinstance(parameter, QgsProcessingParameterString):
+        hints = vessel_choices() if parameter.name() == VESSEL else station_choices()
+        return {"widget_wrapper": {"value_hints": hints}}
+    return {}
+
+
 def spectrum_parameters() -> List[QgsProcessingParameterDefinition]:
     """GAMMA and SPREAD_S (advanced): the JONSWAP and cos-2s shape of every sea state."""
     tr = Tr.tr
@@ -442,12 +477,47 @@ def read_route(
 
     context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
     source = alg.parameterAsSource(parameters, ROUTE, context)
-    layer = alg.parameterAsVectorLayer(parameters, ROUTE, context)
-    route_src = layer.source() if layer is not None else str(parameters.get(ROUTE))
     legs = adapters.route_legs(source, context, feedback=feedback)
     if not legs:
         raise QgsProcessingException("ROUTE: no line could be read from the route layer")
-    return legs, route_src
+    return legs, route_layer_and_text(parameters.get(ROUTE), context)[0]
+
+
+def join_route(legs: Sequence[Any], feedback: Any) -> Any:
+    """Every leg as one passage in layer order (:func:`..adapters.join_legs`); the legs (numbered
+    from 1, as in the reports) and any gap between them go to the log."""
+    from ..adapters import join_legs
+
+    leg, notes = join_legs(legs)
+    if len(legs) > 1:
+        feedback.pushInfo(f"ROUTE: {len(legs)} legs sailed one after another as one passage, in layer order: "
+                          + ", ".join(f"{k + 1} {show(x.name)}" for k, x in enumerate(legs)))
+    for note in notes:
+        feedback.pushWarning(f"ROUTE: {note}")
+    return leg
+
+
+def route_layer_and_text(value: Any, context: QgsProcessingContext) -> Tuple[str, str]:
+    """(source path or URI, text a person reads) of a ROUTE value.
+
+    The dialog hands a layer over as a QgsProcessingFeatureSourceDefinition (with "selected
+    features only" as a flag); scripts give a layer, a layer id or a path. The text is the layer
+    name with its source, e.g. ``Merrow route (/data/route.geojson; selected features only)``.
+    """
+    from qgis.core import QgsMapLayer, QgsProcessingFeatureSourceDefinition, QgsProcessingUtils, QgsProperty
+
+    selected = False
+    if isinstance(value, QgsProcessingFeatureSourceDefinition):
+        selected = bool(value.selectedFeaturesOnly)
+        value = value.source
+    if isinstance(value, QgsProperty):
+        value = value.valueAsString(context.expressionContext(), "")[0]
+    layer = value if isinstance(value, QgsMapLayer) else \
+        QgsProcessingUtils.mapLayerFromString(str(value or ""), context) if value else None
+    path = layer.source() if layer is not None else str(value or "")
+    name = layer.name() if layer is not None else ""
+    notes = "; ".join(n for n in (path, "selected features only" if selected else "") if n)
+    return path, (f"{name} ({notes})" if name and name != path else notes)
 
 
 def open_sources(settings: PassageSettings, feedback: Optional[Any]) -> List[Any]:
@@ -549,6 +619,18 @@ def vessel_text(settings: PassageSettings) -> str:
     """The vessel's name, with the VESSEL text when that differs (a file path)."""
     name = getattr(settings.profile, "name", settings.vessel_spec)
     return name if str(settings.vessel_spec) == str(name) else f"{name} ({settings.vessel_spec})"
+
+
+def push_table(feedback: Any, text: str) -> None:
+    """Log a plain-text table so its columns stay aligned in the dialog's HTML log: as <pre> where
+    QGIS takes formatted messages (3.36+); else with no-break spaces (HTML collapses runs of
+    spaces), which keeps the widths though the dialog's font is proportional."""
+    import html
+
+    if hasattr(feedback, "pushFormattedMessage"):
+        feedback.pushFormattedMessage(f"<pre>{html.escape(text)}</pre>", text)
+    else:
+        feedback.pushInfo(text.replace("  ", "\u00a0\u00a0"))
 
 
 def flag_warning_lines(counts: Dict[str, int], n_total: int) -> List[str]:

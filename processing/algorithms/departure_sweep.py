@@ -135,6 +135,7 @@ class SweepJob:
     settings: common.PassageSettings
     leg: Any
     route_source: str
+    route_text: str
     deps: Any  # numpy datetime64 array of departures
     step_h: float
     speeds: Tuple[float, ...]
@@ -174,9 +175,12 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
 
     def shortHelpString(self) -> str:  # noqa: N802
         return self.tr(
-            "<p>Runs the passage of ONE route line for every departure from DEPART_FROM to DEPART_TO "
+            "<p>Runs the passage along the route for every departure from DEPART_FROM to DEPART_TO "
             "(UTC) every DEPART_STEP_H hours, at each speed of SPEEDS_KN (empty: SPEED_KN), through "
             "each sea-state file separately, and ranks the departures.</p>"
+            "<p><b>Route</b>: a route with several lines (or multi-part lines) is sailed as ONE passage, "
+            "the legs one after another in layer order (tick 'Selected features only' to sweep part of it); "
+            "the route fields depart_utc are not used.</p>"
             "<p><b>What best means</b> (CRITERION): lowest worst-case motion sickness incidence (MSI); "
             "lowest_prob_taxing (last choice): lowest share of ensemble members reaching taxing or worse "
             "anywhere, ties broken by the median MSI; "
@@ -208,10 +212,12 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
             if p.name() not in NOT_SHARED:
                 self.addParameter(p)
         self.addParameter(QgsProcessingParameterDateTime(
-            DEPART_FROM, self.tr("Earliest departure (UTC)"), QgsProcessingParameterDateTime.Type.DateTime,
+            DEPART_FROM, self.tr("Earliest departure (UTC; empty: the forecast's first step)"),
+            QgsProcessingParameterDateTime.Type.DateTime, optional=True,
         ))
         self.addParameter(QgsProcessingParameterDateTime(
-            DEPART_TO, self.tr("Latest departure (UTC)"), QgsProcessingParameterDateTime.Type.DateTime,
+            DEPART_TO, self.tr("Latest departure (UTC; empty: the forecast's last step)"),
+            QgsProcessingParameterDateTime.Type.DateTime, optional=True,
         ))
         self.addParameter(QgsProcessingParameterNumber(
             DEPART_STEP_H, self.tr("Step between departures (hours)"), QgsProcessingParameterNumber.Type.Double,
@@ -236,7 +242,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         ))
         self.addParameter(QgsProcessingParameterFeatureSink(
             OUTPUT_POINTS, self.tr("Samples of the recommended departure"), QgsProcessing.SourceType.TypeVectorPoint,
-            optional=True, createByDefault=False,
+            optional=True, createByDefault=True,
         ))
         self.addOutput(QgsProcessingOutputString(SUMMARY, self.tr("Summary")))
         self.addOutput(QgsProcessingOutputString(RECOMMENDED_UTC, self.tr("Recommended departure (UTC, ISO 8601)")))
@@ -248,15 +254,16 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
 
         p, ctx = run.parameters, run.context
         settings = common.parse_passage_settings(self, p, ctx)
-        deps = departure_window(self, p, ctx)
+        deps = departure_window(self, p, ctx, settings, run.feedback)
         criterion = CRITERIA[self.parameterAsEnum(p, CRITERION, ctx)]
         max_class = common.parse_max_class(self, p, ctx)
-        leg, route_src = one_leg(self, run)
+        leg, route_src = joined_route(self, run)
+        route_text = common.route_layer_and_text(p.get(common.ROUTE), ctx)[1]
         default_speed = leg.speed_kn if leg.speed_kn is not None else settings.speed_kn
         with common.input_error("SPEEDS_KN: "):
             speeds = tuple(parse_speeds_kn(self.parameterAsString(p, SPEEDS_KN, ctx), default_speed))
         step_h = float(self.parameterAsDouble(p, DEPART_STEP_H, ctx))
-        return SweepJob(settings, leg, route_src, deps, step_h, speeds, criterion, max_class)
+        return SweepJob(settings, leg, route_src, route_text, deps, step_h, speeds, criterion, max_class)
 
     def compute(self, run: Run, job: SweepJob) -> SweepOutcome:
         from ..core.sweep.engine import sweep_departures
@@ -306,7 +313,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         flag_lines = common.flag_warning_lines(flag_counts(result.flags), int(result.flags.size))
         warnings = [*result.notes, *(line.replace(" samples - ", " passages - ") for line in flag_lines)]
         summary = sweep_text_summary(result)
-        run.feedback.pushInfo(summary)
+        common.push_table(run.feedback, summary)
         for w in warnings:
             run.feedback.pushWarning(w)
         out: Dict[str, Any] = {SUMMARY: summary, N_ROWS: len(result.rows),
@@ -329,12 +336,18 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         return out
 
 
-def departure_window(alg: SeawayAlgorithm, parameters: Dict[str, Any], context: Any) -> Any:
-    """The departures DEPART_FROM .. DEPART_TO every DEPART_STEP_H, checked (at most MAX_DEPARTURES)."""
+def departure_window(alg: SeawayAlgorithm, parameters: Dict[str, Any], context: Any,
+                     settings: common.PassageSettings, feedback: Any) -> Any:
+    """The departures DEPART_FROM .. DEPART_TO every DEPART_STEP_H, checked (at most MAX_DEPARTURES);
+    an unset end is the forecast's first or last step (:func:`forecast_range`)."""
     from ..core.sweep.engine import MAX_DEPARTURES, departure_times
 
-    t0 = common.parse_datetime(alg, parameters, DEPART_FROM, context, required=True)
-    t1 = common.parse_datetime(alg, parameters, DEPART_TO, context, required=True)
+    t0 = common.parse_datetime(alg, parameters, DEPART_FROM, context)
+    t1 = common.parse_datetime(alg, parameters, DEPART_TO, context)
+    if t0 is None or t1 is None:
+        first, last = forecast_range(settings, feedback)
+        t0 = first if t0 is None else t0
+        t1 = last if t1 is None else t1
     step = alg.parameterAsDouble(parameters, DEPART_STEP_H, context)
     if t1 < t0:
         raise QgsProcessingException(
@@ -352,18 +365,41 @@ def departure_window(alg: SeawayAlgorithm, parameters: Dict[str, Any], context: 
         return departure_times(t0, t1, step)
 
 
-def one_leg(alg: SeawayAlgorithm, run: Run) -> Tuple[Any, str]:
-    """(the one route leg, the route's source text); a layer with several lines is refused."""
-    legs, route_src = common.read_route(alg, run.parameters, run.context, run.feedback)
-    if len(legs) > 1:
+def forecast_range(settings: common.PassageSettings, feedback: Any) -> Tuple[Any, Any]:
+    """(first, last) time step every forecast file covers: the default departure window."""
+    import numpy as np
+
+    sources = common.open_sources(settings, None)
+    try:
+        ranges = [s.time_range_utc for s in sources]
+    finally:
+        for src in sources:
+            src.close()
+    first = max(np.datetime64(r[0], "ms") for r in ranges)
+    last = min(np.datetime64(r[1], "ms") for r in ranges)
+    if last < first:
         raise QgsProcessingException(
-            f"ROUTE: the departure sweep takes one line (one passage), the layer has {len(legs)} lines or "
-            f"parts ({', '.join(repr(leg.name) for leg in legs[:4])}{', ...' if len(legs) > 4 else ''}): select "
-            "one feature and tick 'Selected features only', or run the sweep once per line")
-    if legs[0].departure_utc is not None:
-        run.feedback.pushInfo(f"The route field depart_utc of {show(legs[0].name)} is not used: the sweep departs "
-                              "at every step from DEPART_FROM to DEPART_TO")
-    return legs[0], route_src
+            "DEPART_FROM/DEPART_TO: the forecast files do not overlap in time, so there is no default departure "
+            "window: give DEPART_FROM and DEPART_TO")
+    feedback.pushInfo(f"Departure window from the forecast: {str(first)[:16]} to {str(last)[:16]} UTC "
+                      "(DEPART_FROM / DEPART_TO not set)")
+    return first, last
+
+
+def joined_route(alg: SeawayAlgorithm, run: Run) -> Tuple[Any, str]:
+    """(the route as ONE passage, the route's source path): every line of the layer (or every
+    selected line), sailed one after another in layer order (:func:`..adapters.join_legs`).
+
+    A departure sweep asks when to leave for the whole trip: the vessel departs once and sails
+    the legs in turn, so the legs are joined rather than swept each on its own (which would
+    recommend each leg a departure of its own, legs 2.. before leg 1 arrives).
+    """
+    legs, route_src = common.read_route(alg, run.parameters, run.context, run.feedback)
+    leg = common.join_route(legs, run.feedback)
+    if any(x.departure_utc is not None for x in legs):
+        run.feedback.pushInfo("The route field depart_utc is not used: the sweep departs at every step from "
+                              "DEPART_FROM to DEPART_TO")
+    return leg, route_src
 
 
 def recommended_passages(run: Run, job: SweepJob, rec: Any, sources: List[Any], depth: Any) -> Tuple[Any, ...]:
@@ -385,7 +421,7 @@ def provenance_text(job: SweepJob, result: Any) -> str:
     """The metadata abstract of the outputs: what went in, the recommendation, the caution."""
     s = job.settings
     return (
-        f"Seaway Comfort departure sweep. Route: {job.route_source} ({job.leg.name}). Sea-state files: "
+        f"Seaway Comfort departure sweep. Route: {job.route_text} ({job.leg.name}). Sea-state files: "
         f"{'; '.join(s.sea_state_paths)} (sources {', '.join(result.source_names)}, each on its own). "
         f"Bathymetry: {s.depth_path or 'none (deep water)'}. Vessel: {getattr(s.profile, 'name', s.vessel_spec)} "
         f"({s.vessel_spec}); station: {result.station_name}. Departures: {job.deps.size} from "
@@ -403,7 +439,7 @@ def report_inputs(job: SweepJob, result: Any) -> Any:
     s = job.settings
     return ReportInputs(
         sea_state_files=s.sea_state_paths, source_names=result.source_names,
-        bathymetry=s.depth_path or "", route=f"{job.route_source} ({job.leg.name})",
+        bathymetry=s.depth_path or "", route=f"{job.route_text} ({job.leg.name})",
         vessel=f"{getattr(s.profile, 'name', s.vessel_spec)} ({s.vessel_spec})", station=result.station_name,
         departure_utc=f"{job.window_text().replace('T', ' ')} UTC every {job.step_h:g} h",
         speed_kn=", ".join(f"{v:g} kn" for v in job.speeds), spacing_nm=f"{s.spacing_nm:g} NM",

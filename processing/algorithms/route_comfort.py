@@ -51,6 +51,7 @@ class RouteJob:
     settings: common.PassageSettings
     legs: Tuple[Any, ...]
     route_source: str
+    route_text: str = ""
 
     @property
     def inputs(self) -> List[str]:
@@ -144,7 +145,8 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
     def read_settings(self, run: Run) -> RouteJob:
         settings = common.parse_passage_settings(self, run.parameters, run.context)
         legs, route_src = common.read_route(self, run.parameters, run.context, run.feedback)
-        return RouteJob(settings, tuple(legs), route_src)
+        route_text = common.route_layer_and_text(run.parameters.get(common.ROUTE), run.context)[1]
+        return RouteJob(settings, tuple(legs), route_src, route_text)
 
     def compute(self, run: Run, job: RouteJob) -> Passages:
         results: List[Tuple[str, Any]] = []
@@ -171,7 +173,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         ens = passages.ensembles if any(e is not None for e in passages.ensembles) else ()
         fields = adapters.ensemble_passage_fields() if ens else adapters.passage_fields()
         crs = QgsCoordinateReferenceSystem(adapters.WGS84)
-        abstract = provenance_text(job.settings, job.route_source)
+        abstract = provenance_text(job.settings, job.route_text or job.route_source)
         out: Dict[str, Any] = {}
         for name, wkb, features, title in (
             (OUTPUT_POINTS, QgsWkbTypes.Type.Point, adapters.point_features, "Seaway Comfort passage samples"),
@@ -194,7 +196,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
             for line in warnings:
                 run.feedback.pushWarning("  " + line)
         summary = text_summary(report)
-        run.feedback.pushInfo(summary)
+        common.push_table(run.feedback, summary)
         out: Dict[str, Any] = {SUMMARY: summary, N_SAMPLES: passages.n_samples}
         report_path = run.file_output(OUTPUT_REPORT)
         if report_path:
@@ -256,7 +258,7 @@ def report_inputs(job: RouteJob, passages: Passages) -> Any:
         sea_state_files=s.sea_state_paths,
         source_names=passages.source_names,
         bathymetry=s.depth_path or "",
-        route=job.route_source,
+        route=job.route_text or job.route_source,
         vessel=common.vessel_text(s),
         station=first.station_name if first is not None else (s.station or ""),
         departure_utc=(str(s.departure_utc.astype("datetime64[m]")).replace("T", " ") + " UTC")

@@ -132,6 +132,7 @@ class ClimateJob:
     station: Optional[str]
     leg: Any = None
     route_source: str = ""
+    route_text: str = ""
 
     @property
     def inputs(self) -> List[str]:
@@ -153,7 +154,8 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         return self.tr(
             "<p>From years of hindcast sea states (NetCDF-CF or GRIB2 files with significant wave "
             "height, a period and a direction, all on one grid and time step), works out for every "
-            "calendar month how often the passage along the route is comfortable enough.</p>"
+            "calendar month how often the passage along the route is comfortable enough. A route with "
+            "several lines is sailed as one passage, the lines one after another in layer order.</p>"
             "<p>Every hindcast time step is evaluated at every route sample (spacing 1 NM) through the "
             "vessel's response table (built once), giving the comfort class 0-4 (smooth, steady, "
             "lively, taxing, punishing) at the station. Per month: the share of time within "
@@ -175,7 +177,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
 
     def initAlgorithm(self, config: Optional[Dict[str, Any]] = None) -> None:  # noqa: N802
         self.addParameter(QgsProcessingParameterFeatureSource(
-            common.ROUTE, self.tr("Route (line layer; the first line is used)"), [QgsProcessing.SourceType.TypeVectorLine]))
+            common.ROUTE, self.tr("Route (line layer; several lines are sailed one after another, in layer order)"), [QgsProcessing.SourceType.TypeVectorLine]))
         self.addParameter(QgsProcessingParameterMultipleLayers(
             HINDCAST, self.tr("Hindcast files (NetCDF-CF or GRIB2, any number of years)"),
             QgsProcessing.SourceType.TypeFile))
@@ -231,11 +233,9 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
             backend = make_backend("local", workers=workers, scheduler=scheduler,
                                    fallback_local=self.parameterAsBoolean(p, FALLBACK_LOCAL, ctx))
         legs, route_src = common.read_route(self, p, ctx, run.feedback)
-        if len(legs) > 1:
-            run.feedback.pushWarning(
-                f"ROUTE has {len(legs)} lines; the seasonal climate uses the first one, {show(legs[0].name)}")
+        leg = common.join_route(legs, run.feedback)
         return ClimateJob(tuple(paths), speed, max_class, months, gamma, spread, backend, scheduler, profile,
-                          station, legs[0], route_src)
+                          station, leg, route_src, common.route_layer_and_text(p.get(common.ROUTE), ctx)[1])
 
     def compute(self, run: Run, job: ClimateJob) -> Any:
         from ..core.climate import ClimateCancelled, compute_climate
@@ -261,7 +261,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         from .. import adapters
         from ..styling import OutputStyle
 
-        abstract = (f"Seasonal comfort climate. Route: {job.route_source}. Hindcast: {'; '.join(job.paths)}. "
+        abstract = (f"Seasonal comfort climate. Route: {job.route_text or job.route_source}. Hindcast: {'; '.join(job.paths)}. "
                     f"Vessel {result.vessel_name}, station {result.station_name}, {job.speed_kn:g} kn, "
                     f"worst acceptable class {result.max_class}, months {','.join(str(m) for m in result.months)}. "
                     f"{CAUTION}")

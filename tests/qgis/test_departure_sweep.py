@@ -203,7 +203,7 @@ def test_two_speeds_and_marked_horizon(sweep_registered, route, seas, tmp_path):
     ({"SPEEDS_KN": "0"}, "SPEEDS_KN: .*> 0 kn"),
     ({"DEPART_FROM": "2030-07-01T00:00:00Z", "DEPART_TO": "2030-07-02T00:00:00Z"}, "no departure .* inside the time range"),
     # a missing mandatory parameter is refused by QGIS itself, naming it
-    ({"DEPART_FROM": None}, "DEPART_FROM"),
+    ({"ROUTE": None}, "ROUTE"),
 ])
 def test_bad_parameters(sweep_registered, route, seas, tmp_path, over, pattern):
     from qgis.core import QgsProcessingException
@@ -214,7 +214,7 @@ def test_bad_parameters(sweep_registered, route, seas, tmp_path, over, pattern):
         _run(params)
 
 
-def test_non_overlapping_sources_and_two_lines(sweep_registered, route, seas, tmp_path):
+def test_non_overlapping_sources(sweep_registered, route, seas, tmp_path):
     from qgis.core import QgsProcessingException
 
     later = str(tmp_path / "later.nc")
@@ -223,10 +223,86 @@ def test_non_overlapping_sources_and_two_lines(sweep_registered, route, seas, tm
     write_cf_netcdf(later, LON, LAT, times, {HS: np.ones(shape), TP: np.full(shape, 6.0), DIR: np.zeros(shape)})
     with pytest.raises(QgsProcessingException, match="do not overlap in time"):
         _run(_params(route, (seas[0], later), tmp_path))
-    two = _geojson(tmp_path / "two.geojson", [({"name": "a"}, [[0.0, 0.0], [1.0, 0.0]]),
-                                             ({"name": "b"}, [[0.0, 0.05], [1.0, 0.05]])])
-    with pytest.raises(QgsProcessingException, match="takes one line .* has 2 lines"):
-        _run(_params(two, seas, tmp_path))
+    # no window given: the default window needs overlapping files too
+    with pytest.raises(QgsProcessingException, match="DEPART_FROM/DEPART_TO: the forecast files do not overlap"):
+        _run(_params(route, (seas[0], later), tmp_path, DEPART_FROM=None, DEPART_TO=None))
+
+
+def test_two_leg_route_is_one_passage_in_layer_order(sweep_registered, seas, tmp_path):
+    """Two legs end to start = the passage along their vertices: same table as the core sweep
+    of the joined vertices (0, 0.6, 1.2 deg E on the equator), same recommendation as one line."""
+    two = _geojson(tmp_path / "two.geojson", [({"name": "out"}, [[0.0, 0.0], [0.6, 0.0]]),
+                                             ({"name": "on"}, [[0.6, 0.0], [1.2, 0.0]])])
+    res = _run(_params(two, seas, tmp_path))
+    _, feats = _features(res["OUTPUT_TABLE"])
+    from seaway_comfort.processing.core.sweep.engine import sweep_departures
+
+    srcs = [open_sea_state(p, source_name=n) for p, n in zip(seas, ("model A", "model B"))]
+    try:
+        core = sweep_departures([0.0, 0.6, 1.2], [0.0, 0.0, 0.0], depart_from_utc="2030-06-01T06:00",
+                                depart_to_utc="2030-06-01T16:00", step_h=1.0, sea_states=srcs,
+                                profile=resolve_vessel(VESSEL), speeds_kn=[10.0], criterion="earliest_ok",
+                                max_class=2, spacing_nm=1.0)
+    finally:
+        for s in srcs:
+            s.close()
+    assert len(feats) == len(core.rows)
+    by_key = {(int(r.depart_utc.astype(np.int64)), r.source): r for r in core.rows}
+    for f in feats:
+        r = by_key[(_ms(f["depart_utc"]), f["source"])]
+        assert _num(f["duration_h"]) == pytest.approx(float(r.duration_h), rel=1e-9)
+        assert int(f["rank"]) == r.rank
+    assert res["RECOMMENDED_UTC"] == "2030-06-01T14:00:00Z"  # as the one-line route (storm timing by hand)
+    html = open(res["OUTPUT_REPORT"], encoding="utf-8").read()
+    assert "out + on" in html and "QgsProcessingFeatureSourceDefinition" not in html
+
+
+def test_legs_with_a_gap_are_joined_with_a_warning(sweep_registered, seas, tmp_path):
+    from qgis.core import QgsProcessingFeedback
+
+    class Record(QgsProcessingFeedback):
+        def __init__(self):
+            super().__init__()
+            self.warnings = []
+
+        def pushWarning(self, warning):  # noqa: N802
+            self.warnings.append(warning)
+            super().pushWarning(warning)
+
+    gap = _geojson(tmp_path / "gap.geojson", [({"name": "a"}, [[0.0, 0.0], [0.5, 0.0]]),
+                                             ({"name": "b"}, [[0.6, 0.0], [1.2, 0.0]])])
+    fb = Record()
+    _run(_params(gap, seas, tmp_path), feedback=fb)
+    # 0.1 deg of longitude on the equator = 6.01 NM (WGS84 a = 6378137 m: 2*pi*a/3600/1852)
+    assert any("'a' ends 6.01 NM from the start of 'b'" in w for w in fb.warnings), fb.warnings
+
+
+def test_default_window_is_the_forecast_range(sweep_registered, route, seas, tmp_path):
+    # the storm files run from T0 to T0 + 30 h every 15 min (_storm_file), so every 6 h: 0, 6, ..., 30 h
+    res = _run(_params(route, seas, tmp_path, DEPART_FROM=None, DEPART_TO=None, DEPART_STEP_H=6.0))
+    _, feats = _features(res["OUTPUT_TABLE"])
+    deps = sorted({_ms(f["depart_utc"]) for f in feats})
+    t0 = int(T0.astype(np.int64))
+    assert [(d - t0) / 3.6e6 for d in deps] == [0.0, 6.0, 12.0, 18.0, 24.0, 30.0]
+
+
+def test_selected_features_only_named_in_report(sweep_registered, seas, tmp_path):
+    from qgis.core import QgsProcessingFeatureSourceDefinition, QgsProject, QgsVectorLayer
+
+    two = _geojson(tmp_path / "sel.geojson", [({"name": "a"}, [[0.0, 0.0], [1.2, 0.0]]),
+                                             ({"name": "b"}, [[0.0, 0.05], [1.2, 0.05]])])
+    layer = QgsVectorLayer(two, "Invented run", "ogr")
+    QgsProject.instance().addMapLayer(layer)
+    try:
+        layer.selectByExpression("\"name\" = 'a'")
+        src = QgsProcessingFeatureSourceDefinition(layer.id(), True)
+        res = _run(_params(src, seas, tmp_path))
+    finally:
+        QgsProject.instance().removeMapLayer(layer.id())
+    html = open(res["OUTPUT_REPORT"], encoding="utf-8").read()
+    assert "QgsProcessingFeatureSourceDefinition" not in html
+    assert "Invented run" in html and "selected features only" in html and "sel.geojson" in html
+    assert res["RECOMMENDED_UTC"] == "2030-06-01T14:00:00Z"  # line a alone, as the one-line route
 
 
 def test_progress_and_cancel(sweep_registered, route, seas, tmp_path):

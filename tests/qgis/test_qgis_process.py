@@ -143,4 +143,22 @@ def test_demo_runner_end_to_end(tmp_path, package_parent):
     samples = project.mapLayersByName("Passage samples")[0]
     assert samples.renderer().type() == "categorizedSymbol"
     assert samples.temporalProperties().isActive()
+    # opens on the passage (a <mapcanvas> extent as the desktop reads it) with route and forecast
+    route = project.mapLayersByName("Route (2 legs, planned)")[0]
+    assert route.featureCount() == 2
+    assert any(n.startswith("Forecast Hs at departure 2031-03-11T06:00") for n in names), names
+    assert any(n.startswith("Depth") for n in names)
     project.clear()
+    import re
+    import zipfile
+
+    with zipfile.ZipFile(out / "seaway_demo.qgz") as z:
+        xml = z.read(next(n for n in z.namelist() if n.endswith(".qgs"))).decode("utf-8")
+    canvas = xml[xml.index('<mapcanvas'):xml.index('</mapcanvas>')]
+    box = [float(re.search(f"<{k}>([^<]+)</{k}>", canvas).group(1)) for k in ("xmin", "ymin", "xmax", "ymax")]
+    from qgis.core import QgsVectorLayer
+
+    ext = QgsVectorLayer(str(out / "data" / "merrow_reach_route.geojson"), "r", "ogr").extent()
+    assert box[0] <= ext.xMinimum() and box[1] <= ext.yMinimum() and box[2] >= ext.xMaximum() \
+        and box[3] >= ext.yMaximum(), (box, ext.toString())
+    assert (box[2] - box[0]) < 3 * ext.width()  # zoomed on the passage, not the world

@@ -1,9 +1,10 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """The colours of every output, in one place: the reports and the QGIS styling both read them.
 
-Comfort classes: five colours of our own, ordered from light to dark so that the classes stay
-apart by lightness alone (readable under the common colour-vision deficiencies and in grey-scale
-print), with a neutral grey for samples without results.
+Comfort classes: five warm colours of our own (straw to plum), ordered from light to dark so that
+the classes stay apart by lightness alone (readable under the common colour-vision deficiencies
+and in grey-scale print) and apart from the blues of a depth layer, with a neutral grey for
+samples without results.
 
 Climate shares (percentages): five steps of "share of time within the acceptable class" in a
 sequential green of their own, pale for rarely acceptable to deep green for nearly always
@@ -20,9 +21,14 @@ import numpy as np
 __all__ = ["COMFORT_PALETTE", "NOT_COMPUTED_COLOUR", "comfort_colour", "SHARE_PALETTE", "SHARE_BOUNDS",
            "NO_DATA_COLOUR", "share_bin"]
 
-COMFORT_PALETTE: Tuple[str, ...] = ("#e3f1f7", "#a3d6cf", "#d69a3a", "#b4492a", "#4d1a47")
-"""Fill colours for comfort classes 0..4 (smooth, steady, lively, taxing, punishing); CIE L*
-about 94, 82, 68, 45, 19 (more than 10 units apart, so the order reads without hue)."""
+COMFORT_PALETTE: Tuple[str, ...] = ("#f6e8a6", "#e7b43f", "#d9722b", "#a8283f", "#3b1030")
+"""Fill colours for comfort classes 0..4 (smooth, steady, lively, taxing, punishing): pale straw,
+gold, orange, crimson, near-black plum. CIE L* about 92, 76, 59, 38, 13 (order readable without
+hue, also in grey-scale print). Chosen to stay off the blues of bathymetry: CIE76 colour
+difference >= 25 from every step of a 9-step light-to-dark blue depth ramp (plain and at 55 %
+opacity over white), and >= 16 between classes, with normal vision and under simulated
+deuteranopia and protanopia (Machado, Oliveira & Fernandes 2009, severity 1); checked in
+tests/core/test_palette.py."""
 
 NOT_COMPUTED_COLOUR: str = "#9a9a9a"
 """Colour of samples without results (no sea data, outside the grid or the time range)."""

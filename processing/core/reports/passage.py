@@ -444,13 +444,14 @@ def write_html(path: str, report: ReportData, *, plots: bool = True, extra_secti
 def text_summary(report: ReportData) -> str:
     """A short plain-text summary (for logs and the terminal), caution included."""
     lines = [report.title, ""]
-    head = f"{'leg':<4}{'name':<22}{'NM':>7}{'hours':>7}  {'worst':<10}{'maxMSI%':>8}{'MSDV':>7}{'no data':>8}"
+    w = max([len("name"), *(len(leg.name) for leg in report.legs)]) + 2  # whole names, columns aligned
+    head = f"{'leg':<4}{'name':<{w}}{'NM':>7}{'hours':>7}  {'worst':<10}{'maxMSI%':>8}{'MSDV':>7}{'no data':>8}"
     lines.append(head)
     for leg in report.legs:
         s = leg.summary
         worst = leg.result.comfort_label[s.worst_index] if s.worst_index is not None else "n/a"
         lines.append(
-            f"{s.leg + 1:<4}{leg.name[:21]:<22}{_fmt(s.distance_nm, 1):>7}{_fmt(s.duration_h, 1):>7}  "
+            f"{s.leg + 1:<4}{leg.name:<{w}}{_fmt(s.distance_nm, 1):>7}{_fmt(s.duration_h, 1):>7}  "
             f"{worst:<10}{_fmt(s.max_msi_pct, 1):>8}{_fmt(s.final_msdv, 1):>7}{s.n_samples - s.n_computed:>8}"
         )
         if s.worst_reason:
