@@ -31,6 +31,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QCoreApplication, QDateTime
 
 from ..core.validation import SeawayInputError, show
+from ..protected_inputs import file_part
 
 ROUTE = "ROUTE"
 SEA_STATE = "SEA_STATE"
@@ -210,6 +211,16 @@ def default_source_names(paths: Sequence[str]) -> Tuple[str, ...]:
     )
 
 
+def _probe(path: str, param: str) -> None:
+    """Refuse a raster file that kills GDAL (probed in a child process, see core.seastate.probe)."""
+    from ..core.seastate.probe import probe_raster_file
+
+    try:
+        probe_raster_file(path, what=f"{param} file")
+    except SeawayInputError as exc:
+        raise QgsProcessingException(str(exc)) from exc
+
+
 def parse_passage_settings(
     alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
 ) -> PassageSettings:
@@ -232,6 +243,9 @@ def parse_passage_settings(
     if not names:
         names = default_source_names(paths)
     mode = SOURCE_MODES[alg.parameterAsEnum(parameters, SOURCE_MODE, context)]
+    raw_depth = parameters.get(DEPTH)
+    if isinstance(raw_depth, str) and os.path.isfile(raw_depth):
+        _probe(raw_depth, DEPTH)  # before QGIS opens it as a layer
     depth_layer = alg.parameterAsRasterLayer(parameters, DEPTH, context)
     depth_path = None
     if depth_layer is not None:
@@ -290,34 +304,41 @@ def parse_passage_settings(
     )
 
 
-def _norm(path: str) -> str:
-    return os.path.normcase(os.path.realpath(os.path.abspath(path)))
+def vessel_input_files(spec: str, profile: Any) -> List[Tuple[str, str]]:
+    """(label, path) of every file the VESSEL choice reads: the profile JSON (built-in, stored or
+    given), the RAO table / hull sections it names, and every stored profile."""
+    from ..core.vessel.profile import BUILTIN_DIR, builtin_profile_names
+    from ..protected_inputs import profile_files
+
+    text = (spec or "").strip()
+    user = user_vessel_dir() / f"{text}.json" if text else None
+    if text in builtin_profile_names():
+        loaded: Optional[str] = str(BUILTIN_DIR / f"{text}.json")
+    elif user is not None and user.is_file():
+        loaded = str(user)
+    else:
+        loaded = text if text and os.path.isfile(text) else None
+    return profile_files(text, profile, loaded, stored_dirs=[user_vessel_dir()])
 
 
-def file_part(source_or_uri: str) -> str:
-    """The file path of an OGR/GDAL source string (before '|' options, without ogr: prefixes)."""
-    text = str(source_or_uri or "")
-    if text.startswith("ogr:"):
-        text = text[4:]
-        if "dbname=" in text:
-            text = text.split("dbname=", 1)[1].strip().split(" ")[0].strip("'\"")
-    return text.split("|", 1)[0]
-
-
-def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[str]) -> None:
-    """Refuse outputs that would overwrite an input, or that cannot be written.
+def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[Any]) -> None:
+    """Refuse outputs that would overwrite an input (also through links), or that cannot be written.
 
     ``outputs``: (parameter name, destination path or URI); memory/temporary outputs pass.
+    ``inputs``: paths or (label, path) pairs of every file the run reads.
     """
-    ins = {_norm(file_part(p)): p for p in inputs if p and os.path.exists(file_part(p))}
+    from ..protected_inputs import find_clash, protect
+
+    protected = protect(inputs)
     for name, dest in outputs:
         if not dest or str(dest).startswith(("memory:", "TEMPORARY_OUTPUT")):
             continue
         path = file_part(dest)
-        if _norm(path) in ins:
+        clash = find_clash(path, protected)
+        if clash is not None:
             raise QgsProcessingException(
-                f"{name} {show(path)} is also an input ({show(ins[_norm(path)])}): choose another output "
-                "file; inputs are never overwritten"
+                f"{name} {show(path)} is also an input of this run ({clash.label} {show(clash.path)}): choose "
+                "another output file; inputs are never overwritten"
             )
         folder = os.path.dirname(os.path.abspath(path)) or "."
         if not os.path.isdir(folder):

@@ -290,6 +290,7 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         points_dest = self.parameterAsOutputLayer(parameters, OUTPUT_POINTS, context) if parameters.get(OUTPUT_POINTS) else ""
         report_path = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
         inputs = [route_src, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
+        inputs += common.vessel_input_files(settings.vessel_spec, settings.profile)
         common.check_outputs([(OUTPUT_TABLE, table_dest), (OUTPUT_POINTS, points_dest), (OUTPUT_REPORT, report_path)],
                              inputs)
         dests = [d for d in (table_dest, points_dest, report_path) if d and not str(d).startswith(("memory:", "TEMPORARY"))]

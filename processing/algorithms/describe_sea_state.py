@@ -87,6 +87,9 @@ class DescribeSeaStateAlgorithm(SeawayAlgorithm):
         path = self.parameterAsFile(parameters, INPUT, context)
         if not path or not os.path.isfile(path):
             raise QgsProcessingException(f"INPUT {show(path)} is not an existing file: choose a forecast file")
+        dest = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
+        if dest:
+            common.check_outputs([(OUTPUT_REPORT, dest)], [("INPUT file", path)])
         try:
             inv = describe_file(path)
         except SeawayInputError as exc:
@@ -99,9 +102,7 @@ class DescribeSeaStateAlgorithm(SeawayAlgorithm):
         for line in text.splitlines():
             feedback.pushInfo(line)
         out: Dict[str, Any] = {DESCRIPTION: text}
-        dest = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
         if dest:
-            common.check_outputs([(OUTPUT_REPORT, dest)], [path])
             body = text if dest.lower().endswith(".txt") else inventory_html(
                 f"Sea-state file: {os.path.basename(path)}", text)
             try:

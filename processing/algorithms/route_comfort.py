@@ -113,6 +113,7 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         segs_dest = self.parameterAsOutputLayer(parameters, OUTPUT_SEGMENTS, context)
         report_path = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
         inputs = [route_src, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
+        inputs += common.vessel_input_files(settings.vessel_spec, settings.profile)
         common.check_outputs(
             [(OUTPUT_POINTS, points_dest), (OUTPUT_SEGMENTS, segs_dest), (OUTPUT_REPORT, report_path)], inputs,
         )

@@ -277,7 +277,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         csv_path = self.parameterAsFileOutput(parameters, OUTPUT_CSV, context) if parameters.get(OUTPUT_CSV) else ""
         rep_path = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
         common.check_outputs([(OUTPUT_SEGMENTS, seg_dest), (OUTPUT_CSV, csv_path), (OUTPUT_REPORT, rep_path)],
-                             [route_src, *s["paths"]])
+                             [route_src, *s["paths"], *common.vessel_input_files(s["vessel_spec"], s["profile"])])
         dests = [d for d in (seg_dest, csv_path, rep_path) if d and not str(d).startswith(("memory:", "TEMPORARY"))]
         if len({common.file_part(d) for d in dests}) < len(dests):
             raise QgsProcessingException("OUTPUT_SEGMENTS, OUTPUT_CSV and OUTPUT_REPORT must be different files")
