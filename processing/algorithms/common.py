@@ -182,8 +182,14 @@ def resolve_vessel_spec(spec: str) -> Any:
     user = user_vessel_dir() / f"{text}.json"
     try:
         if text not in builtin_profile_names() and user.is_file():
-            return load_vessel_profile(user)
-        return resolve_vessel(text)
+            profile = load_vessel_profile(user)
+        else:
+            profile = resolve_vessel(text)
+        if profile.rao_table_path() is not None:  # read now, before any work
+            from ..core.motions.rao_table import load_rao_table
+
+            load_rao_table(profile.rao_table_path())
+        return profile
     except SeawayInputError as exc:
         stored = sorted(p.stem for p in user_vessel_dir().glob("*.json")) if user_vessel_dir().is_dir() else []
         extra = f"; profiles in your QGIS profile folder: {', '.join(stored)}" if stored else ""
@@ -219,6 +225,18 @@ def _probe(path: str, param: str) -> None:
         probe_raster_file(path, what=f"{param} file")
     except SeawayInputError as exc:
         raise QgsProcessingException(str(exc)) from exc
+
+
+def checked_speed_kn(speed: float, what: str = SPEED_KN) -> float:
+    """A plausible speed through the water (core.plausibility.SPEED_KN) or a message naming ``what``."""
+    from ..core.plausibility import SPEED_KN as SPEED_RANGE, check_range
+
+    if not speed > 0:
+        raise QgsProcessingException(f"{what} must be > 0 kn, got {speed:g}: give the planned speed through the water")
+    try:
+        return float(check_range(SPEED_RANGE, what, speed))
+    except SeawayInputError as exc:
+        raise QgsProcessingException(f"{exc}: give the planned speed through the water") from None
 
 
 def parse_passage_settings(
@@ -264,9 +282,7 @@ def parse_passage_settings(
                 "e.g. 2031-03-11T06:00:00Z (UTC)"
             )
         departure = adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
-    speed = alg.parameterAsDouble(parameters, SPEED_KN, context)
-    if not speed > 0:
-        raise QgsProcessingException(f"SPEED_KN must be > 0 kn, got {speed:g}: give the planned speed through the water")
+    speed = checked_speed_kn(alg.parameterAsDouble(parameters, SPEED_KN, context))
     spacing = alg.parameterAsDouble(parameters, SPACING_NM, context)
     if not spacing > 0:
         raise QgsProcessingException(f"SPACING_NM must be > 0 NM, got {spacing:g}")

@@ -212,9 +212,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         for p in paths:
             if not os.path.isfile(p):
                 raise QgsProcessingException(f"HINDCAST: file {show(p)} does not exist")
-        speed = self.parameterAsDouble(parameters, common.SPEED_KN, context)
-        if not speed > 0:
-            raise QgsProcessingException(f"SPEED_KN must be > 0 kn, got {speed:g}")
+        speed = common.checked_speed_kn(self.parameterAsDouble(parameters, common.SPEED_KN, context))
         raw_max = parameters.get(MAX_CLASS, 1)
         max_class = self.parameterAsInt(parameters, MAX_CLASS, context)
         try:
