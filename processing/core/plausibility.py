@@ -49,9 +49,9 @@ SPEED_M_S = Range("speed", 0.0, 80.0 / KN_PER_M_S, None, 45.0 / KN_PER_M_S, "m/s
 HS_M = Range("significant wave height", 0.0, 30.0, None, 20.0, "m", reason=(
     "the highest significant wave height measured by a buoy is about 19 m (WMO record of 2016, "
     "North Atlantic; from memory)"))
-TP_S = Range("wave period", 0.5, 40.0, 1.0, 30.0, "s", reason=(
-    "wind seas shorter than 0.5 s are ripples (wavelength < 0.4 m) and swell beyond about 30 s is "
-    "not reported by wave models (common practice, no source)"))
+TP_S = Range("wave period", 0.5, 100.0, 1.0, 30.0, "s", reason=(
+    "wind seas shorter than 0.5 s are ripples (wavelength < 0.4 m); swell beyond about 30 s is "
+    "rare and beyond 100 s is infragravity or tide, not a sea state (common practice, no source)"))
 DEPTH_M = Range("depth", 0.0, 12000.0, None, None, "m", low_open=True, reason=(
     "the deepest sounding of the oceans is about 10.9 km (Challenger Deep; from memory)"))
 GAMMA = Range("JONSWAP gamma", 1.0, 20.0, None, 7.0, "", reason=(

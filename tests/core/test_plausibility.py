@@ -101,7 +101,7 @@ def test_api_refuses_impossible_arguments_by_name():
     prof = profile_from_dict(_boat(), source="b")
     base = dict(hs_m=[1.0, 1.0], tp_s=[6.0, 6.0], wave_from_deg=0.0, course_deg=0.0, speed_m_s=4.0)
     for arg, value, pattern in [
-        ("tp_s", [6.0, 0.01], r"tp_s\[1\] = 0.01 is not a plausible wave period \(allowed \[0.5, 40\] s"),
+        ("tp_s", [6.0, 0.01], r"tp_s\[1\] = 0.01 is not a plausible wave period \(allowed \[0.5, 100\] s"),
         ("hs_m", [1e6, 1.0], r"hs_m\[0\] = 1000000.0 is not a plausible significant wave height"),
         ("speed_m_s", 1e308, r"speed_m_s = 1e\+308 is not a plausible speed"),
         ("gamma", 100.0, r"gamma = 100.0 is not a plausible JONSWAP gamma"),

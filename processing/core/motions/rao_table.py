@@ -94,8 +94,9 @@ def _err(source: str, msg: str) -> SeawayInputError:
 AMPLITUDE_MAX: Dict[str, float] = {"heave_m_per_m": 10.0, "pitch_deg_per_m": 90.0, "roll_deg_per_m": 90.0}
 """Impossible above (common practice, no source): heave RAOs of ships peak at about 1-3 m/m; a
 unit-amplitude wave cannot pitch or roll a hull by a right angle."""
-FREQ_RANGE: Dict[str, tuple] = {"period_s": (0.2, 100.0), "freq_hz": (0.01, 5.0), "omega_rad_s": (0.06, 32.0)}
-"""Impossible outside (common practice, no source): ocean waves of 0.2-100 s."""
+FREQ_RANGE: Dict[str, tuple] = {"period_s": (0.1, 1000.0), "freq_hz": (0.001, 10.0), "omega_rad_s": (0.006, 63.0)}
+"""Impossible outside (common practice, no source): tables may reach far into the long-wave
+limit, but a period beyond 1000 s or below 0.1 s is a unit mix-up (milliseconds, say)."""
 _NAME_LIKE = re.compile(r"^[A-Za-z][A-Za-z0-9_]{0,39}$")
 
 
