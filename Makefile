@@ -10,7 +10,7 @@ PKGROOT := .build/pkgroot
 RUNENV := QT_QPA_PLATFORM=offscreen PROJ_DATA=/usr/share/proj PYTHONPATH=$(CURDIR)/$(PKGROOT)
 OUT ?= demo_output
 
-.PHONY: help setup test test-core test-trixie test-sid demo bench package i18n clean pkgroot
+.PHONY: help setup test test-core test-trixie test-sid demo bench package i18n clean pkgroot compat
 
 help:
 	@echo "make demo     run the invented demo passage end to end (installs what is missing)"
@@ -44,6 +44,11 @@ test-core: setup
 
 demo: setup pkgroot
 	$(RUNENV) $(PY) -P -m seaway_comfort demo --out "$(OUT)"
+
+# All four algorithms through qgis_process on the demo data (compare folders with
+# `tests/compat/four_algorithms.py compare A B`; in the chroot: .ci/chroot_test.sh trixie compat OUT=...).
+compat: setup pkgroot
+	$(RUNENV) $(PY) -P tests/compat/four_algorithms.py run "$(OUT)"
 
 bench: setup pkgroot
 	@set -e; for b in tests/bench/bench_*.py; do \

@@ -23,7 +23,7 @@ if [ "$(id -u)" -ne 0 ]; then
     exit 1
 fi
 
-root="$here/.build/chroot-$suite"
+root="${SEAWAY_CHROOT_ROOT:-$here/.build/chroot-$suite}"  # override to share one chroot between checkouts
 venv=".build/venv-$suite"
 stamp="$root/.seaway-chroot-stamp"
 base_stamp="$root/.seaway-debootstrap-stamp"
@@ -59,7 +59,7 @@ base_key="$(printf '%s\n' "$suite" "$mirror" | sha1sum | cut -c1-12)"
 
 # ------------------------------------------------------------------ mounts and cleanup
 mkdir -p "$here/.build"
-exec 9>"$here/.build/chroot-$suite.lock"
+exec 9>"$root.lock"
 if ! flock -n 9; then
     log "another run is using $root; wait for it to finish" >&2
     exit 1

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Any, Iterator, List, Optional, Sequence
+from typing import Any, Iterable, Iterator, List, Optional, Sequence, Tuple
 
 import numpy as np
 from qgis.core import (
@@ -129,79 +129,113 @@ def route_legs(
     crs = source.sourceCrs()
     if not crs.isValid():
         raise QgsProcessingException("ROUTE: the route layer has no valid CRS: set its CRS (e.g. EPSG:4326) and retry")
-    dest = QgsCoordinateReferenceSystem(WGS84)
-    xform = QgsCoordinateTransform(crs, dest, context.transformContext())
+    xform = QgsCoordinateTransform(crs, QgsCoordinateReferenceSystem(WGS84), context.transformContext())
     fields = source.fields()
-    i_name = _field_index(fields, name_field)
-    i_dep = _field_index(fields, depart_field)
-    i_speed = _field_index(fields, speed_field)
+    i_name, i_dep, i_speed = (_field_index(fields, f) for f in (name_field, depart_field, speed_field))
     legs: List[RouteLeg] = []
     for feat in source.getFeatures():
         if feedback is not None and feedback.isCanceled():
             break
         geom = feat.geometry()
         fid = int(feat.id())
-        label = str(feat[i_name]) if i_name >= 0 and feat[i_name] not in (None, "") and not (
-            isinstance(feat[i_name], QVariant) and feat[i_name].isNull()) else f"route {fid}"
+        label = str(feat[i_name]) if i_name >= 0 and not _is_null(feat[i_name]) else f"route {fid}"
         if geom is None or geom.isEmpty():
             raise QgsProcessingException(f"ROUTE: feature {show(label)} has no geometry: delete it or draw its line")
         if QgsWkbTypes.geometryType(geom.wkbType()) != QgsWkbTypes.GeometryType.LineGeometry:
             raise QgsProcessingException(f"ROUTE: feature {show(label)} is not a line")
         parts = geom.asMultiPolyline() if geom.isMultipart() else [geom.asPolyline()]
         dep = datetime64_from_value(feat[i_dep], what=f"{depart_field} of {show(label)}") if i_dep >= 0 else None
-        speed = None
-        if i_speed >= 0:
-            raw = feat[i_speed]
-            if raw is not None and not (isinstance(raw, QVariant) and raw.isNull()) and str(raw).strip() != "":
-                try:
-                    speed = float(raw)
-                except (TypeError, ValueError):
-                    raise QgsProcessingException(
-                        f"ROUTE: field {speed_field} of {show(label)} must be a number of knots, got {show(raw)}"
-                    ) from None
-                if not (math.isfinite(speed) and 0 < speed <= SPEED_KN.high):
-                    raise QgsProcessingException(
-                        f"ROUTE: field {speed_field} of {show(label)} = {show(raw)} is not a plausible speed "
-                        f"(allowed {SPEED_KN.text()}: {SPEED_KN.reason})"
-                    )
+        speed = _leg_speed(feat[i_speed], speed_field, label) if i_speed >= 0 else None
         for k, pts in enumerate(parts):
-            xs = [p.x() for p in pts]
-            ys = [p.y() for p in pts]
-            if len(xs) < 2:
-                raise QgsProcessingException(f"ROUTE: part {k + 1} of {show(label)} has fewer than 2 vertices")
-            nan = [i for i, (x, y) in enumerate(zip(xs, ys)) if not (math.isfinite(x) and math.isfinite(y))]
-            if nan:
-                raise QgsProcessingException(
-                    f"ROUTE: vertex {nan[0] + 1} of part {k + 1} of {show(label)} has a coordinate that is not a "
-                    f"number ({xs[nan[0]]}, {ys[nan[0]]}): fix or delete that vertex"
-                )
-            if crs.isGeographic() and not _looks_like_degrees(xs, ys):
-                raise QgsProcessingException(
-                    f"ROUTE: {show(label)} has coordinates like ({xs[0]:.1f}, {ys[0]:.1f}) that are not degrees, but "
-                    f"the layer CRS {crs.authid()} is geographic: set the layer's true (projected) CRS"
-                )
-            try:
-                out = [xform.transform(QgsPointXY(x, y)) for x, y in zip(xs, ys)]
-            except QgsCsException as exc:
-                raise QgsProcessingException(
-                    f"ROUTE: {show(label)} cannot be transformed from {crs.authid()} to WGS84 ({exc}): check the layer CRS"
-                ) from exc
-            lon = np.array([p.x() for p in out], dtype=float)
-            lat = np.array([p.y() for p in out], dtype=float)
-            if not (np.isfinite(lon).all() and np.isfinite(lat).all()) or np.any(np.abs(lat) > 90):
-                raise QgsProcessingException(
-                    f"ROUTE: {show(label)} falls outside the valid area of CRS {crs.authid()}: check the layer CRS"
-                )
-            if not crs.isGeographic() and _looks_like_degrees(xs, ys):
-                span = max(max(xs) - min(xs), max(ys) - min(ys))
-                if span < 400.0:
-                    raise QgsProcessingException(
-                        f"ROUTE: {show(label)} spans only {span:.1f} map units in the projected CRS {crs.authid()}, "
-                        "and its coordinates look like degrees: set the layer CRS to EPSG:4326"
-                    )
+            lon, lat = _part_to_wgs84(pts, k, label, crs, xform)
             name = label if len(parts) == 1 else f"{label} ({k + 1})"
             legs.append(RouteLeg(fid, k, name, lon, lat, dep, speed))
     return legs
+
+
+def _is_null(value: Any) -> bool:
+    return value in (None, "") or (isinstance(value, QVariant) and value.isNull())
+
+
+def _leg_speed(raw: Any, speed_field: str, label: str) -> Optional[float]:
+    """The route field speed_kn of one feature: None when empty, else a finite number > 0."""
+    if raw is None or (isinstance(raw, QVariant) and raw.isNull()) or str(raw).strip() == "":
+        return None
+    try:
+        speed = float(raw)
+    except (TypeError, ValueError):
+        raise QgsProcessingException(
+            f"ROUTE: field {speed_field} of {show(label)} must be a number of knots, got {show(raw)}"
+        ) from None
+    if not (math.isfinite(speed) and speed > 0):
+        raise QgsProcessingException(f"ROUTE: field {speed_field} of {show(label)} must be > 0 kn, got {show(raw)}")
+    if speed > SPEED_KN.high:
+        raise QgsProcessingException(
+            f"ROUTE: field {speed_field} of {show(label)} = {show(raw)} is not a plausible speed "
+            f"(allowed {SPEED_KN.text()}: {SPEED_KN.reason})"
+        )
+    return speed
+
+
+def _part_to_wgs84(pts: Sequence[Any], k: int, label: str, crs: Any, xform: Any) -> Tuple[np.ndarray, np.ndarray]:
+    """(lon, lat) in degrees of one line part, with checks that the coordinates fit the CRS."""
+    xs = [p.x() for p in pts]
+    ys = [p.y() for p in pts]
+    if len(xs) < 2:
+        raise QgsProcessingException(f"ROUTE: part {k + 1} of {show(label)} has fewer than 2 vertices")
+    nan = [i for i, (x, y) in enumerate(zip(xs, ys)) if not (math.isfinite(x) and math.isfinite(y))]
+    if nan:
+        raise QgsProcessingException(
+            f"ROUTE: vertex {nan[0] + 1} of part {k + 1} of {show(label)} has a coordinate that is not a "
+            f"number ({xs[nan[0]]}, {ys[nan[0]]}): fix or delete that vertex"
+        )
+    if crs.isGeographic() and not _looks_like_degrees(xs, ys):
+        raise QgsProcessingException(
+            f"ROUTE: {show(label)} has coordinates like ({xs[0]:.1f}, {ys[0]:.1f}) that are not degrees, but "
+            f"the layer CRS {crs.authid()} is geographic: set the layer's true (projected) CRS"
+        )
+    try:
+        out = [xform.transform(QgsPointXY(x, y)) for x, y in zip(xs, ys)]
+    except QgsCsException as exc:
+        raise QgsProcessingException(
+            f"ROUTE: {show(label)} cannot be transformed from {crs.authid()} to WGS84 ({exc}): check the layer CRS"
+        ) from exc
+    lon = np.array([p.x() for p in out], dtype=float)
+    lat = np.array([p.y() for p in out], dtype=float)
+    if not (np.isfinite(lon).all() and np.isfinite(lat).all()) or np.any(np.abs(lat) > 90):
+        raise QgsProcessingException(
+            f"ROUTE: {show(label)} falls outside the valid area of CRS {crs.authid()}: check the layer CRS"
+        )
+    if not crs.isGeographic() and _looks_like_degrees(xs, ys):
+        span = max(max(xs) - min(xs), max(ys) - min(ys))
+        if span < 400.0:
+            raise QgsProcessingException(
+                f"ROUTE: {show(label)} spans only {span:.1f} map units in the projected CRS {crs.authid()}, "
+                "and its coordinates look like degrees: set the layer CRS to EPSG:4326"
+            )
+    return lon, lat
+
+
+def segment_geometry(lon0_deg: float, lat0_deg: float, lon1_deg: float, lat1_deg: float) -> QgsGeometry:
+    """A two-point line from one sample to the next (EPSG:4326).
+
+    Across the antimeridian the end longitude is unwrapped (e.g. 180.4 instead of -179.6) so
+    the short segment is not drawn round the world.
+    """
+    x0, x1 = float(lon0_deg), float(lon1_deg)
+    if x1 - x0 > 180.0:
+        x1 -= 360.0
+    elif x1 - x0 < -180.0:
+        x1 += 360.0
+    return QgsGeometry.fromPolylineXY([QgsPointXY(x0, float(lat0_deg)), QgsPointXY(x1, float(lat1_deg))])
+
+
+def make_fields(spec: Iterable[Tuple[str, str]]) -> QgsFields:
+    """QgsFields from (name, kind) pairs (kinds as :func:`make_field`)."""
+    fields = QgsFields()
+    for name, kind in spec:
+        fields.append(make_field(name, kind))
+    return fields
 
 
 # ------------------------------------------------------------------------------- fields
@@ -306,20 +340,11 @@ def point_features(r: PassageResult, fields: QgsFields, leg_name: str) -> Iterat
 
 
 def segment_features(r: PassageResult, fields: QgsFields, leg_name: str) -> Iterator[QgsFeature]:
-    """One line from each sample to the next, with the start sample's fields (EPSG:4326).
-
-    Across the antimeridian the end longitude is unwrapped (e.g. 180.4 instead of -179.6) so
-    the short segment is not drawn round the world.
-    """
+    """One line from each sample to the next, with the start sample's fields (EPSG:4326),
+    unwrapped across the antimeridian (:func:`segment_geometry`)."""
     flag_text = flag_codes_array(r.flags)
     for i in range(r.n - 1):
-        x0, y0 = float(r.lon_deg[i]), float(r.lat_deg[i])
-        x1, y1 = float(r.lon_deg[i + 1]), float(r.lat_deg[i + 1])
-        if x1 - x0 > 180.0:
-            x1 -= 360.0
-        elif x1 - x0 < -180.0:
-            x1 += 360.0
         f = QgsFeature(fields)
-        f.setGeometry(QgsGeometry.fromPolylineXY([QgsPointXY(x0, y0), QgsPointXY(x1, y1)]))
+        f.setGeometry(segment_geometry(r.lon_deg[i], r.lat_deg[i], r.lon_deg[i + 1], r.lat_deg[i + 1]))
         f.setAttributes(_attributes(r, i, leg_name, flag_text))
         yield f

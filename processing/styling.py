@@ -1,18 +1,19 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Styles for passage outputs: comfort-class renderers, time settings, provenance metadata.
 
-Colours come from :data:`.core.reports.palette.COMFORT_PALETTE` (our own five-step
-light-to-dark palette, kept apart by lightness so it reads under colour-vision deficiencies;
-grey = not computed).
+Colours come from :data:`.core.report.COMFORT_PALETTE` (our own five-step light-to-dark palette,
+kept apart by lightness so it reads under colour-vision deficiencies; grey = not computed).
 Styles are written where they hold without any post-processor (qgis_process, processing.run):
 a QML file beside the output (renderer AND temporal settings) and, for GeoPackages, the
 default style in the file (QGIS restores its renderer on open, not its temporal settings).
-When outputs are loaded into a project, :class:`ComfortStylePostProcessor` applies the same.
+When outputs are loaded into a project, :class:`StylePostProcessor` applies the same;
+:func:`style_output` makes that choice for every algorithm.
 """
 from __future__ import annotations
 
 import os
-from typing import Any, ClassVar, List, Optional, Tuple
+from dataclasses import dataclass
+from typing import Any, Callable, ClassVar, List, Optional, Tuple
 
 from qgis.core import (
     Qgis,
@@ -27,7 +28,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QVariant
 from qgis.PyQt.QtGui import QColor
 
-from .core.reports.palette import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
+from .core.reports.passage import COMFORT_PALETTE, NOT_COMPUTED_COLOUR
 from .core.validation import show
 
 CLASS_FIELD = "comfort_class"
@@ -116,6 +117,26 @@ def qml_path_for(dest: str) -> str:
     return base + ".qml"
 
 
+@dataclass(frozen=True)
+class OutputStyle:
+    """How one output is dressed: title and abstract (provenance and caution) always, and a
+    renderer when ``apply`` sets one (``table=True``: metadata only, for layers without geometry).
+
+    ``apply(layer, title=..., abstract=...)`` styles an open layer; the default is
+    :func:`apply_comfort_style`.
+    """
+
+    title: str
+    abstract: str
+    apply: Callable[..., None] = apply_comfort_style
+    table: bool = False
+
+
+def apply_metadata_only(layer: QgsVectorLayer, *, title: str = "", abstract: str = "") -> None:
+    """Provenance metadata without a renderer (the ``apply`` of table outputs)."""
+    apply_metadata(layer, title, abstract)
+
+
 def mark_datetimes_utc(dest: str) -> None:
     """Make every date-time in a GeoPackage output carry its UTC marker ('...Z').
 
@@ -146,52 +167,70 @@ def mark_datetimes_utc(dest: str) -> None:
         ds = None
 
 
-def save_output_style(dest: str, *, title: str, abstract: str) -> Tuple[str, List[str]]:
+def save_output_style(dest: str, style: OutputStyle) -> Tuple[str, List[str]]:
     """Open a written output, style it and save the style beside it (and into a GeoPackage).
 
-    Writes '<base>.qml' (renderer and temporal settings) and '<base>.qmd' (the provenance
-    metadata; QGIS keeps layer metadata out of QML files). Returns (QML path, warnings). Never raises for a style that cannot be stored in the file;
-    it reports it in the warnings instead (the QML still holds everything).
+    Writes '<base>.qml' (renderer and temporal settings; not for tables) and '<base>.qmd' (the
+    provenance metadata; QGIS keeps layer metadata out of QML files). Returns (QML path or "",
+    warnings). Never raises for a style that cannot be stored in the file; it reports it in the
+    warnings instead. Date-times in a GeoPackage get their UTC marker first.
     """
-    warnings: List[str] = []
     mark_datetimes_utc(dest)
     layer = QgsVectorLayer(dest, os.path.basename(str(dest)), "ogr")
     if not layer.isValid():
         return "", [f"could not reopen {show(dest)} to save its style"]
-    apply_comfort_style(layer, title=title, abstract=abstract)
-    qml = qml_path_for(dest)
-    msg, ok = layer.saveNamedStyle(qml)
-    if not ok:
-        warnings.append(f"style not saved to {show(qml)}: {msg}")
-    qmd = qml[: -len(".qml")] + ".qmd"
-    msg, ok = layer.saveNamedMetadata(qmd)
-    if not ok:
-        warnings.append(f"metadata not saved to {show(qmd)}: {msg}")
+    style.apply(layer, title=style.title, abstract=style.abstract)
+    qml = "" if style.table else qml_path_for(dest)
+    saves = [(layer.saveNamedStyle, qml, "style")] if qml else []
+    saves.append((layer.saveNamedMetadata, qml_path_for(dest)[: -len(".qml")] + ".qmd", "metadata"))
+    warnings: List[str] = []
+    for save, target, what in saves:
+        msg, ok = save(target)
+        if not ok:
+            warnings.append(f"{what} not saved to {show(target)}: {msg}")
     path, _ = _file_and_layer(dest)
-    if path.lower().endswith(".gpkg"):
-        err = layer.saveStyleToDatabase("default", "Seaway Comfort: comfort classes", True, "")
+    if qml and path.lower().endswith(".gpkg"):
+        err = layer.saveStyleToDatabase("default", style.title, True, "")
         if err:
             warnings.append(f"default style not stored in {show(path)}: {err}")
     return qml, warnings
 
 
-class ComfortStylePostProcessor(QgsProcessingLayerPostProcessorInterface):
+def style_output(dest_id: str, style: OutputStyle, context: Any, feedback: Any) -> None:
+    """Dress a written output wherever it ends up, in the one place every algorithm uses.
+
+    A memory layer held by the context is styled directly; a file output is reopened, styled and
+    its style saved beside it (so qgis_process and processing.run get it too); and an output the
+    run will load into a project gets a post-processor that styles the loaded layer.
+    """
+    if not dest_id:
+        return
+    layer = context.getMapLayer(dest_id)
+    if layer is not None and layer.providerType() == "memory":
+        style.apply(layer, title=style.title, abstract=style.abstract)
+    else:
+        for warning in save_output_style(dest_id, style)[1]:
+            feedback.pushWarning(warning)
+    if not style.table and context.willLoadLayerOnCompletion(dest_id):
+        context.layerToLoadOnCompletionDetails(dest_id).setPostProcessor(StylePostProcessor.create(style))
+
+
+class StylePostProcessor(QgsProcessingLayerPostProcessorInterface):
     """Styles an output when Processing loads it into the project (GUI, runAndLoadResults)."""
 
-    _alive: ClassVar[List["ComfortStylePostProcessor"]] = []
+    _alive: ClassVar[List["StylePostProcessor"]] = []
 
-    def __init__(self, title: str = "", abstract: str = "") -> None:
+    def __init__(self, style: OutputStyle) -> None:
         super().__init__()
-        self.title = title
-        self.abstract = abstract
+        self.style = style
 
     def postProcessLayer(self, layer: Any, context: Any, feedback: Any) -> None:  # noqa: N802
         if isinstance(layer, QgsVectorLayer):
-            apply_comfort_style(layer, title=self.title, abstract=self.abstract)
+            self.style.apply(layer, title=self.style.title, abstract=self.style.abstract)
 
     @classmethod
-    def create(cls, title: str = "", abstract: str = "") -> "ComfortStylePostProcessor":
+    def create(cls, style: OutputStyle) -> "StylePostProcessor":
         """A new instance kept alive for the session (Processing holds only a raw pointer)."""
-        inst = cls(title, abstract)
+        inst = cls(style)
         cls._alive.append(inst)
         return inst

@@ -7,6 +7,7 @@ from __future__ import annotations
 
 from typing import Tuple
 
+from .comfort_track import ComfortTrackAlgorithm
 from .departure_sweep import DepartureSweepAlgorithm
 from .describe_sea_state import DescribeSeaStateAlgorithm
 from .route_comfort import RouteComfortAlgorithm
@@ -15,6 +16,7 @@ from .seasonal_climate import SeasonalClimateAlgorithm
 ALGORITHM_CLASSES: Tuple[type, ...] = (
     RouteComfortAlgorithm,
     DepartureSweepAlgorithm,
+    ComfortTrackAlgorithm,
     SeasonalClimateAlgorithm,
     DescribeSeaStateAlgorithm,
 )

@@ -8,9 +8,10 @@ definitions and parsers (one place, no copies). Every check turns bad input into
 from __future__ import annotations
 
 import os
+from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Any, Dict, List, Optional, Sequence, Tuple
+from typing import Any, Dict, Iterator, List, Optional, Sequence, Tuple
 
 from qgis.core import (
     QgsApplication,
@@ -47,6 +48,7 @@ GAMMA = "GAMMA"
 SPREAD_S = "SPREAD_S"
 LONG_CRESTED = "LONG_CRESTED"
 METHOD = "METHOD"
+MAX_CLASS = "MAX_CLASS"
 
 SOURCE_MODES: Tuple[str, ...] = ("first_valid", "compare")
 METHOD_CHOICES: Tuple[Optional[str], ...] = (None, "table", "exact")
@@ -72,19 +74,40 @@ class Tr:
         return QCoreApplication.translate("@default", text)
 
 
-def _advanced(p: QgsProcessingParameterDefinition) -> QgsProcessingParameterDefinition:
+def advanced(p: QgsProcessingParameterDefinition) -> QgsProcessingParameterDefinition:
+    """``p`` shown under the dialog's "Advanced parameters"."""
     p.setFlags(p.flags() | QgsProcessingParameterDefinition.Flag.FlagAdvanced)
     return p
 
 
-def passage_parameters() -> List[QgsProcessingParameterDefinition]:
-    """The input parameters of a passage computation, in dialog order."""
-    tr = Tr.tr
+def vessel_parameter(label: str) -> QgsProcessingParameterString:
+    """VESSEL: a JSON file or a profile name; ``label`` holds "{}" for the built-in names."""
     from ..core.vessel.profile import builtin_profile_names
 
     names = builtin_profile_names()
     default_vessel = DEFAULT_VESSEL if DEFAULT_VESSEL in names else (names[0] if names else "")
-    params: List[QgsProcessingParameterDefinition] = [
+    return QgsProcessingParameterString(VESSEL, label.format(", ".join(names)), defaultValue=default_vessel)
+
+
+def spectrum_parameters() -> List[QgsProcessingParameterDefinition]:
+    """GAMMA and SPREAD_S (advanced): the JONSWAP and cos-2s shape of every sea state."""
+    tr = Tr.tr
+    return [
+        advanced(QgsProcessingParameterNumber(
+            GAMMA, tr("JONSWAP peak enhancement gamma (1 = Pierson-Moskowitz)"),
+            QgsProcessingParameterNumber.Type.Double, defaultValue=3.3,
+        )),
+        advanced(QgsProcessingParameterNumber(
+            SPREAD_S, tr("Directional spreading exponent s (cos-2s)"),
+            QgsProcessingParameterNumber.Type.Double, defaultValue=4.0,
+        )),
+    ]
+
+
+def _sea_parameters() -> List[QgsProcessingParameterDefinition]:
+    """ROUTE, the forecast files and how several combine, the bathymetry."""
+    tr = Tr.tr
+    return [
         QgsProcessingParameterFeatureSource(
             ROUTE, tr("Route (line layer; optional fields name, depart_utc, speed_kn)"),
             [QgsProcessing.SourceType.TypeVectorLine],
@@ -97,7 +120,7 @@ def passage_parameters() -> List[QgsProcessingParameterDefinition]:
             SOURCE_NAMES, tr("Source names (comma-separated, one per forecast file)"),
             optional=True,
         ),
-        _advanced(QgsProcessingParameterEnum(
+        advanced(QgsProcessingParameterEnum(
             SOURCE_MODE, tr("Several sources"),
             [tr("First file with data at each sample"), tr("Compare: one result per file")],
             defaultValue=0,
@@ -105,6 +128,13 @@ def passage_parameters() -> List[QgsProcessingParameterDefinition]:
         QgsProcessingParameterRasterLayer(
             DEPTH, tr("Bathymetry raster (optional; deep water when absent)"), optional=True,
         ),
+    ]
+
+
+def _voyage_parameters() -> List[QgsProcessingParameterDefinition]:
+    """Departure, speed, vessel, station and sample spacing."""
+    tr = Tr.tr
+    return [
         QgsProcessingParameterDateTime(
             DEPARTURE, tr("Departure (UTC; a route field depart_utc overrides it)"),
             QgsProcessingParameterDateTime.Type.DateTime, optional=True,
@@ -113,10 +143,7 @@ def passage_parameters() -> List[QgsProcessingParameterDefinition]:
             SPEED_KN, tr("Speed through the water (kn; a route field speed_kn overrides it)"),
             QgsProcessingParameterNumber.Type.Double, defaultValue=8.0,
         ),
-        QgsProcessingParameterString(
-            VESSEL, tr("Vessel profile: a JSON file or a profile name ({})").format(", ".join(names)),
-            defaultValue=default_vessel,
-        ),
+        vessel_parameter(tr("Vessel profile: a JSON file or a profile name ({})")),
         QgsProcessingParameterString(
             STATION, tr("Station on board (default: the profile's first)"), optional=True,
         ),
@@ -124,24 +151,25 @@ def passage_parameters() -> List[QgsProcessingParameterDefinition]:
             SPACING_NM, tr("Sample spacing (NM)"), QgsProcessingParameterNumber.Type.Double,
             defaultValue=1.0,
         ),
-        _advanced(QgsProcessingParameterNumber(
-            GAMMA, tr("JONSWAP peak enhancement gamma (1 = Pierson-Moskowitz)"),
-            QgsProcessingParameterNumber.Type.Double, defaultValue=3.3,
-        )),
-        _advanced(QgsProcessingParameterNumber(
-            SPREAD_S, tr("Directional spreading exponent s (cos-2s)"),
-            QgsProcessingParameterNumber.Type.Double, defaultValue=4.0,
-        )),
-        _advanced(QgsProcessingParameterBoolean(
+    ]
+
+
+def passage_parameters() -> List[QgsProcessingParameterDefinition]:
+    """The input parameters of a passage computation, in dialog order."""
+    tr = Tr.tr
+    return [
+        *_sea_parameters(),
+        *_voyage_parameters(),
+        *spectrum_parameters(),
+        advanced(QgsProcessingParameterBoolean(
             LONG_CRESTED, tr("Long-crested seas (no directional spreading)"), defaultValue=False,
         )),
-        _advanced(QgsProcessingParameterEnum(
+        advanced(QgsProcessingParameterEnum(
             METHOD, tr("Response method"),
             [tr("Automatic"), tr("Response tables (fast)"), tr("Full spectral integration")],
             defaultValue=0,
         )),
     ]
-    return params
 
 
 @dataclass(frozen=True)
@@ -217,6 +245,32 @@ def default_source_names(paths: Sequence[str]) -> Tuple[str, ...]:
     )
 
 
+def existing_files(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], name: str, context: QgsProcessingContext, what: str
+) -> List[str]:
+    """The files of list parameter ``name``: at least one, each existing (``what`` names the kind)."""
+    paths = [str(p) for p in (alg.parameterAsFileList(parameters, name, context) or []) if str(p)]
+    if not paths:
+        raise QgsProcessingException(f"{name}: give at least one {what}")
+    for p in paths:
+        if not os.path.isfile(p):
+            raise QgsProcessingException(f"{name}: file {show(p)} does not exist")
+    return paths
+
+
+def _source_names(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext, paths: Sequence[str]
+) -> Tuple[str, ...]:
+    raw = alg.parameterAsString(parameters, SOURCE_NAMES, context) or ""
+    names = tuple(n.strip() for n in raw.split(",") if n.strip())
+    if names and len(names) != len(paths):
+        raise QgsProcessingException(
+            f"SOURCE_NAMES has {len(names)} names ({show(raw)}) but SEA_STATE has {len(paths)} "
+            "files: give one name per file, comma-separated, or leave it empty"
+        )
+    return names or default_source_names(paths)
+
+
 def _probe(path: str, param: str) -> None:
     """Refuse a raster file that kills GDAL (probed in a child process, see core.seastate.probe)."""
     from ..core.seastate.probe import probe_raster_file
@@ -239,59 +293,64 @@ def checked_speed_kn(speed: float, what: str = SPEED_KN) -> float:
         raise QgsProcessingException(f"{exc}: give the planned speed through the water") from None
 
 
-def parse_passage_settings(
-    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
-) -> PassageSettings:
-    """Read and check every shared passage parameter; QgsProcessingException on bad input."""
+def _depth_path(alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext) -> Optional[str]:
+    raw = parameters.get(DEPTH)
+    if isinstance(raw, str) and os.path.isfile(raw):
+        _probe(raw, DEPTH)  # before QGIS opens it as a layer
+    layer = alg.parameterAsRasterLayer(parameters, DEPTH, context)
+    if layer is not None:
+        return layer.source()
+    if parameters.get(DEPTH) not in (None, ""):
+        raise QgsProcessingException(f"DEPTH {show(parameters.get(DEPTH))} is not a readable raster")
+    return None
+
+
+def parse_datetime(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], name: str, context: QgsProcessingContext,
+    *, required: bool = False,
+) -> Optional[Any]:
+    """Date-time parameter ``name`` as a UTC datetime64; None when unset and not ``required``."""
     from .. import adapters
 
-    paths = [str(p) for p in (alg.parameterAsFileList(parameters, SEA_STATE, context) or []) if str(p)]
-    if not paths:
-        raise QgsProcessingException("SEA_STATE: give at least one forecast file (GRIB2, NetCDF-CF or GeoTIFF)")
-    for p in paths:
-        if not os.path.isfile(p):
-            raise QgsProcessingException(f"SEA_STATE: file {show(p)} does not exist")
-    raw_names = alg.parameterAsString(parameters, SOURCE_NAMES, context) or ""
-    names = tuple(n.strip() for n in raw_names.split(",") if n.strip()) if raw_names.strip() else ()
-    if names and len(names) != len(paths):
+    raw = parameters.get(name)
+    if isinstance(raw, QDateTime) and not raw.isValid():
+        raw = None  # the dialog's "not set" value
+    if raw in (None, ""):
+        if required:
+            raise QgsProcessingException(f"{name} is required: give a UTC date-time, e.g. 2031-03-11T06:00:00Z")
+        return None
+    qdt = alg.parameterAsDateTime(parameters, name, context)
+    if qdt is None or not qdt.isValid():
         raise QgsProcessingException(
-            f"SOURCE_NAMES has {len(names)} names ({show(raw_names)}) but SEA_STATE has {len(paths)} "
-            "files: give one name per file, comma-separated, or leave it empty"
+            f"{name} {show(raw)} is not a valid date-time: use ISO 8601, e.g. 2031-03-11T06:00:00Z (UTC)"
         )
-    if not names:
-        names = default_source_names(paths)
-    mode = SOURCE_MODES[alg.parameterAsEnum(parameters, SOURCE_MODE, context)]
-    raw_depth = parameters.get(DEPTH)
-    if isinstance(raw_depth, str) and os.path.isfile(raw_depth):
-        _probe(raw_depth, DEPTH)  # before QGIS opens it as a layer
-    depth_layer = alg.parameterAsRasterLayer(parameters, DEPTH, context)
-    depth_path = None
-    if depth_layer is not None:
-        depth_path = depth_layer.source()
-    elif parameters.get(DEPTH) not in (None, ""):
-        raise QgsProcessingException(f"DEPTH {show(parameters.get(DEPTH))} is not a readable raster")
-    departure = None
-    raw_dep = parameters.get(DEPARTURE)
-    if isinstance(raw_dep, QDateTime) and not raw_dep.isValid():
-        raw_dep = None  # the dialog's "not set" value
-    if raw_dep not in (None, ""):
-        qdt = alg.parameterAsDateTime(parameters, DEPARTURE, context)
-        if qdt is None or not qdt.isValid():
-            raise QgsProcessingException(
-                f"DEPARTURE {show(parameters.get(DEPARTURE))} is not a valid date-time: use ISO 8601, "
-                "e.g. 2031-03-11T06:00:00Z (UTC)"
-            )
-        departure = adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
-    speed = checked_speed_kn(alg.parameterAsDouble(parameters, SPEED_KN, context))
-    spacing = alg.parameterAsDouble(parameters, SPACING_NM, context)
-    if not spacing > 0:
-        raise QgsProcessingException(f"SPACING_NM must be > 0 NM, got {spacing:g}")
+    return adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
+
+
+def positive(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], name: str, context: QgsProcessingContext,
+    unit: str = "", hint: str = "",
+) -> float:
+    """Number parameter ``name``, refused unless > 0 (``unit`` and ``hint`` complete the message)."""
+    value = alg.parameterAsDouble(parameters, name, context)
+    if not value > 0:
+        unit_text = f" {unit}" if unit else ""
+        raise QgsProcessingException(f"{name} must be > 0{unit_text}, got {value:g}{hint}")
+    return float(value)
+
+
+def spectrum_shape(alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext) -> Tuple[float, float]:
+    """(GAMMA >= 1, SPREAD_S > 0)."""
     gamma = alg.parameterAsDouble(parameters, GAMMA, context)
     if not gamma >= 1.0:
         raise QgsProcessingException(f"GAMMA must be >= 1 (1 = Pierson-Moskowitz), got {gamma:g}")
-    spread = alg.parameterAsDouble(parameters, SPREAD_S, context)
-    if not spread > 0:
-        raise QgsProcessingException(f"SPREAD_S must be > 0, got {spread:g}")
+    return float(gamma), positive(alg, parameters, SPREAD_S, context)
+
+
+def vessel_and_station(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
+) -> Tuple[str, Any, Optional[str]]:
+    """(VESSEL text, its profile, STATION or None), the station checked against the profile."""
     vessel_spec = alg.parameterAsString(parameters, VESSEL, context)
     profile = resolve_vessel_spec(vessel_spec)
     station = (alg.parameterAsString(parameters, STATION, context) or "").strip() or None
@@ -301,22 +360,53 @@ def parse_passage_settings(
             f"STATION {show(station)} is not on vessel {show(getattr(profile, 'name', vessel_spec))}: "
             f"choose one of {', '.join(stations)}"
         )
-    method = METHOD_CHOICES[alg.parameterAsEnum(parameters, METHOD, context)]
+    return vessel_spec, profile, station
+
+
+def parse_max_class(alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext) -> int:
+    """MAX_CLASS, a whole comfort class 0..4 (unset: the parameter's default)."""
+    raw = parameters.get(MAX_CLASS)
+    if raw in (None, ""):
+        raw = alg.parameterDefinition(MAX_CLASS).defaultValue()
+    value = alg.parameterAsInt(parameters, MAX_CLASS, context)
+    try:
+        ok = float(raw) == value and 0 <= value <= 4
+    except (TypeError, ValueError):
+        ok = False
+    if not ok:
+        raise QgsProcessingException(
+            "MAX_CLASS must be a whole number 0..4 (0 smooth, 1 steady, 2 lively, 3 taxing, 4 punishing), "
+            f"got {show(raw)}")
+    return value
+
+
+def parse_passage_settings(
+    alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext
+) -> PassageSettings:
+    """Read and check every shared passage parameter; QgsProcessingException on bad input."""
+    paths = existing_files(alg, parameters, SEA_STATE, context, "forecast file (GRIB2, NetCDF-CF or GeoTIFF)")
+    names = _source_names(alg, parameters, context, paths)
+    depth_path = _depth_path(alg, parameters, context)
+    departure = parse_datetime(alg, parameters, DEPARTURE, context)
+    speed = checked_speed_kn(alg.parameterAsDouble(parameters, SPEED_KN, context))
+    spacing = positive(alg, parameters, SPACING_NM, context, "NM")
+    gamma, spread = spectrum_shape(alg, parameters, context)
+    vessel_spec, profile, station = vessel_and_station(alg, parameters, context)
     return PassageSettings(
         sea_state_paths=tuple(paths),
         source_names=names,
-        source_mode=mode,
+        source_mode=SOURCE_MODES[alg.parameterAsEnum(parameters, SOURCE_MODE, context)],
         depth_path=depth_path,
         departure_utc=departure,
-        speed_kn=float(speed),
+        speed_kn=speed,
         vessel_spec=vessel_spec,
         profile=profile,
         station=station,
-        spacing_nm=float(spacing),
-        gamma=float(gamma),
-        spread_s=float(spread),
+        spacing_nm=spacing,
+        gamma=gamma,
+        spread_s=spread,
         long_crested=alg.parameterAsBoolean(parameters, LONG_CRESTED, context),
-        method=method,
+        method=METHOD_CHOICES[alg.parameterAsEnum(parameters, METHOD, context)],
     )
 
 
@@ -415,6 +505,67 @@ def open_depth(settings: PassageSettings) -> Any:
         return open_bathymetry(settings.depth_path)
     except (SeawayInputError, RuntimeError) as exc:
         raise QgsProcessingException(f"DEPTH {show(settings.depth_path)}: {exc}") from exc
+
+
+@contextmanager
+def cancellable(*cancelled: type) -> Iterator[None]:
+    """Turn the core's cancel exceptions into "Cancelled: no outputs were written"."""
+    try:
+        yield
+    except cancelled as exc:
+        raise QgsProcessingException("Cancelled: no outputs were written") from exc
+
+
+@contextmanager
+def input_error(prefix: str) -> Iterator[None]:
+    """Turn a core SeawayInputError into a QgsProcessingException starting with ``prefix``."""
+    try:
+        yield
+    except SeawayInputError as exc:
+        raise QgsProcessingException(f"{prefix}{exc}") from exc
+
+
+@contextmanager
+def opened_sea(settings: PassageSettings, feedback: Optional[Any]) -> Iterator[Tuple[List[Any], Any]]:
+    """(sea-state sources, bathymetry or None), open for the block and closed after it; a
+    cancelled passage becomes "Cancelled: no outputs were written"."""
+    from ..core.passage.pipeline import PassageCancelled
+
+    sources = open_sources(settings, feedback)
+    depth = None
+    try:
+        depth = open_depth(settings)
+        with cancellable(PassageCancelled):
+            yield sources, depth
+    finally:
+        for s in sources:
+            s.close()
+        if depth is not None:
+            depth.close()
+
+
+def passage_options(settings: PassageSettings, depth: Any, method: Optional[str]) -> Dict[str, Any]:
+    """The keyword arguments every core passage call takes from the shared settings."""
+    return dict(profile=settings.profile, station=settings.station, depth=depth, spacing_nm=settings.spacing_nm,
+                gamma=settings.gamma, spread_s=settings.spread_s, long_crested=settings.long_crested, method=method)
+
+
+def input_paths(settings: PassageSettings, route_source: str) -> List[Any]:
+    """Every input file of a passage run (no output may overwrite one): paths and (label, path)."""
+    return ([route_source, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
+            + vessel_input_files(settings.vessel_spec, settings.profile))
+
+
+def spectrum_text(settings: PassageSettings) -> str:
+    """The spectrum line of the reports."""
+    spread = "long-crested" if settings.long_crested else f"cos-2s spreading s = {settings.spread_s:g}"
+    return f"JONSWAP gamma {settings.gamma:g}, {spread}"
+
+
+def vessel_text(settings: PassageSettings) -> str:
+    """The vessel's name, with the VESSEL text when that differs (a file path)."""
+    name = getattr(settings.profile, "name", settings.vessel_spec)
+    return name if str(settings.vessel_spec) == str(name) else f"{name} ({settings.vessel_spec})"
 
 
 def flag_warning_lines(counts: Dict[str, int], n_total: int) -> List[str]:

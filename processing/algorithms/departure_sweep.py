@@ -4,25 +4,21 @@
 The route, sea-state, vessel and spectrum parameters are those of ``routecomfort``
 (:func:`.common.passage_parameters`, parsed by :func:`.common.parse_passage_settings`) without
 DEPARTURE and SOURCE_MODE (the sweep always compares every source); the sources are opened
-and the recommended passage's points written with the routecomfort helpers. The numbers come
-from :func:`..core.sweep.sweep_departures`.
+and the recommended passage's points written with the shared helpers of :mod:`.common` and
+:mod:`..adapters`. The numbers come from :func:`..core.sweep.engine.sweep_departures`.
 """
 from __future__ import annotations
 
 import math
-import os
-from typing import Any, Dict, List, Optional
+from dataclasses import dataclass
+from typing import Any, Dict, List, Optional, Tuple
 
 from qgis.core import (
     QgsCoordinateReferenceSystem,
     QgsFeature,
-    QgsFeatureRequest,
-    QgsFeatureSink,
     QgsFields,
     QgsProcessing,
-    QgsProcessingContext,
     QgsProcessingException,
-    QgsProcessingFeedback,
     QgsProcessingOutputNumber,
     QgsProcessingOutputString,
     QgsProcessingParameterDateTime,
@@ -31,21 +27,20 @@ from qgis.core import (
     QgsProcessingParameterFileDestination,
     QgsProcessingParameterNumber,
     QgsProcessingParameterString,
-    QgsVectorLayer,
     QgsWkbTypes,
 )
 from qgis.PyQt.QtCore import QVariant
 
-from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
-from ..core.validation import SeawayInputError, show
+from ..core.validation import show
 from . import common
+from .base import Run, SeawayAlgorithm
 
 DEPART_FROM = "DEPART_FROM"
 DEPART_TO = "DEPART_TO"
 DEPART_STEP_H = "DEPART_STEP_H"
 CRITERION = "CRITERION"
-MAX_CLASS = "MAX_CLASS"
+MAX_CLASS = common.MAX_CLASS
 SPEEDS_KN = "SPEEDS_KN"
 OUTPUT_TABLE = "OUTPUT_TABLE"
 OUTPUT_REPORT = "OUTPUT_REPORT"
@@ -127,8 +122,49 @@ def _row_attributes(row: Any) -> List[Any]:
     return out
 
 
+def _row_feature(fields: QgsFields, row: Any) -> QgsFeature:
+    f = QgsFeature(fields)
+    f.setAttributes(_row_attributes(row))
+    return f
+
+
+@dataclass(frozen=True)
+class SweepJob:
+    """The checked settings of one sweep: passage settings, the one leg, the window, speeds, ranking."""
+
+    settings: common.PassageSettings
+    leg: Any
+    route_source: str
+    deps: Any  # numpy datetime64 array of departures
+    step_h: float
+    speeds: Tuple[float, ...]
+    criterion: str
+    max_class: int
+
+    @property
+    def inputs(self) -> List[str]:
+        return common.input_paths(self.settings, self.route_source)
+
+    def window_text(self) -> str:
+        return f"{str(self.deps[0])[:16]} to {str(self.deps[-1])[:16]}"
+
+    def speeds_text(self) -> str:
+        return ", ".join(f"{v:g}" for v in self.speeds)
+
+
+@dataclass(frozen=True)
+class SweepOutcome:
+    """The core sweep result, the recommended passage per source (if asked for), the abstract."""
+
+    result: Any
+    points: Tuple[Tuple[str, Any], ...]
+    abstract: str
+
+
 class DepartureSweepAlgorithm(SeawayAlgorithm):
     """Sweep departure times (and speeds) over every forecast source; rank and recommend."""
+
+    OUTPUT_FILES = (OUTPUT_TABLE, OUTPUT_POINTS, OUTPUT_REPORT)
 
     def name(self) -> str:
         return "departuresweep"
@@ -202,251 +238,163 @@ class DepartureSweepAlgorithm(SeawayAlgorithm):
         self.addOutput(QgsProcessingOutputString(RECOMMENDED_UTC, self.tr("Recommended departure (UTC, ISO 8601)")))
         self.addOutput(QgsProcessingOutputNumber(N_ROWS, self.tr("Rows in the departure table")))
 
-    # -----------------------------------------------------------------------------------------
-    def _datetime(self, parameters: Dict[str, Any], name: str, context: QgsProcessingContext) -> Any:
+    # hooks of the run skeleton (:meth:`.base.SeawayAlgorithm.processAlgorithm`) ---------------
+    def read_settings(self, run: Run) -> SweepJob:
+        from ..core.sweep.engine import CRITERIA, parse_speeds_kn
+
+        p, ctx = run.parameters, run.context
+        settings = common.parse_passage_settings(self, p, ctx)
+        deps = departure_window(self, p, ctx)
+        criterion = CRITERIA[self.parameterAsEnum(p, CRITERION, ctx)]
+        max_class = common.parse_max_class(self, p, ctx)
+        leg, route_src = one_leg(self, run)
+        default_speed = leg.speed_kn if leg.speed_kn is not None else settings.speed_kn
+        with common.input_error("SPEEDS_KN: "):
+            speeds = tuple(parse_speeds_kn(self.parameterAsString(p, SPEEDS_KN, ctx), default_speed))
+        step_h = float(self.parameterAsDouble(p, DEPART_STEP_H, ctx))
+        return SweepJob(settings, leg, route_src, deps, step_h, speeds, criterion, max_class)
+
+    def compute(self, run: Run, job: SweepJob) -> SweepOutcome:
+        from ..core.sweep.engine import sweep_departures
+
+        run.feedback.pushInfo(
+            f"Sweeping {job.deps.size} departures ({job.window_text()} UTC) x {len(job.speeds)} speed(s) "
+            f"({job.speeds_text()} kn) x {len(job.settings.sea_state_paths)} source(s) on {show(job.leg.name)}; "
+            f"best = {job.criterion}, worst acceptable class {job.max_class}")
+        leg, method = job.leg, job.settings.method or "table"
+        with common.opened_sea(job.settings, run.feedback) as (sources, depth), \
+                common.input_error(f"{show(leg.name)}: "):
+            result = sweep_departures(
+                leg.lon_deg, leg.lat_deg, depart_from_utc=job.deps[0], depart_to_utc=job.deps[-1],
+                step_h=job.step_h, sea_states=sources, speeds_kn=list(job.speeds), criterion=job.criterion,
+                max_class=job.max_class, progress=run.progress(0.0, 85.0),
+                **common.passage_options(job.settings, depth, method))
+            points = recommended_passages(run, job, result.recommendation, sources, depth) \
+                if run.wants(OUTPUT_POINTS) else ()
+        run.feedback.setProgress(88)
+        return SweepOutcome(result, points, provenance_text(job, result))
+
+    def write_sinks(self, run: Run, job: SweepJob, outcome: SweepOutcome) -> Dict[str, Any]:
         from .. import adapters
+        from ..styling import OutputStyle, apply_metadata_only
 
-        raw = parameters.get(name)
-        if raw in (None, ""):
-            raise QgsProcessingException(f"{name} is required: give a UTC date-time, e.g. 2031-03-11T06:00:00Z")
-        qdt = self.parameterAsDateTime(parameters, name, context)
-        if qdt is None or not qdt.isValid():
-            raise QgsProcessingException(
-                f"{name} {show(raw)} is not a valid date-time: use ISO 8601, e.g. 2031-03-11T06:00:00Z (UTC)")
-        return adapters.datetime64_from_qdatetime(qdt, assume_utc=True)
+        fields = table_fields()
+        rows = (_row_feature(fields, row) for row in outcome.result.rows)
+        table_style = OutputStyle("Seaway Comfort departure sweep", outcome.abstract, apply_metadata_only, table=True)
+        out: Dict[str, Any] = {OUTPUT_TABLE: run.write_sink(
+            OUTPUT_TABLE, fields, QgsWkbTypes.Type.NoGeometry, QgsCoordinateReferenceSystem(), rows, table_style)}
+        if run.wants(OUTPUT_POINTS):
+            pfields = adapters.passage_fields()
+            feats = (f for name, res in outcome.points for f in adapters.point_features(res, pfields, name))
+            out[OUTPUT_POINTS] = run.write_sink(
+                OUTPUT_POINTS, pfields, QgsWkbTypes.Type.Point, QgsCoordinateReferenceSystem(adapters.WGS84), feats,
+                OutputStyle("Seaway Comfort recommended departure", outcome.abstract))
+        run.feedback.setProgress(94)
+        return out
 
-    def _window(self, parameters: Dict[str, Any], context: QgsProcessingContext) -> Any:
-        from ..core.sweep.engine import MAX_DEPARTURES, departure_times
-
-        t0 = self._datetime(parameters, DEPART_FROM, context)
-        t1 = self._datetime(parameters, DEPART_TO, context)
-        step = self.parameterAsDouble(parameters, DEPART_STEP_H, context)
-        if t1 < t0:
-            raise QgsProcessingException(
-                f"DEPART_TO {str(t1)[:16]} UTC lies before DEPART_FROM {str(t0)[:16]} UTC: give the end of the "
-                "departure window after its start")
-        if not (math.isfinite(step) and step > 0):
-            raise QgsProcessingException(f"DEPART_STEP_H must be > 0 hours, got {step:g}")
-        span_h = float((t1 - t0).astype("timedelta64[ms]").astype("int64")) / 3.6e6
-        n = int(math.floor(span_h / step + 1e-9)) + 1
-        if n > MAX_DEPARTURES:
-            raise QgsProcessingException(
-                f"DEPART_FROM to DEPART_TO every DEPART_STEP_H = {step:g} h gives {n} departures, more than the "
-                f"limit of {MAX_DEPARTURES}: choose a larger step or a shorter window")
-        try:
-            return departure_times(t0, t1, step)
-        except SeawayInputError as exc:
-            raise QgsProcessingException(f"DEPART_FROM/DEPART_TO/DEPART_STEP_H: {exc}") from exc
-
-    def processAlgorithm(  # noqa: N802
-        self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback
-    ) -> Dict[str, Any]:
+    def write_report(self, run: Run, job: SweepJob, outcome: SweepOutcome) -> Dict[str, Any]:
         import numpy as np
 
-        from .. import adapters, styling
-        from ..core.passage.pipeline import PassageCancelled, compute_passage
-        from ..core.reports.passage import ReportInputs
-        from ..core.sweep.engine import CRITERIA, parse_speeds_kn, sweep_departures
+        from ..core.flags import flag_counts
         from ..core.reports.sweep import build_sweep_report, sweep_text_summary, write_sweep_html
 
-        feedback = feedback or QgsProcessingFeedback()
-        settings = common.parse_passage_settings(self, parameters, context)
-        deps = self._window(parameters, context)
-        criterion = CRITERIA[self.parameterAsEnum(parameters, CRITERION, context)]
-        max_class_raw = parameters.get(MAX_CLASS, 2)
-        max_class = self.parameterAsInt(parameters, MAX_CLASS, context)
-        try:
-            ok_class = float(max_class_raw) == max_class and 0 <= max_class <= 4
-        except (TypeError, ValueError):
-            ok_class = False
-        if not ok_class:
-            raise QgsProcessingException(
-                f"MAX_CLASS must be a whole number 0..4 (0 smooth, 1 steady, 2 lively, 3 taxing, 4 punishing), "
-                f"got {show(max_class_raw)}")
-
-        context.setInvalidGeometryCheck(QgsFeatureRequest.InvalidGeometryCheck.GeometryNoCheck)
-        source = self.parameterAsSource(parameters, common.ROUTE, context)
-        route_layer = self.parameterAsVectorLayer(parameters, common.ROUTE, context)
-        route_src = route_layer.source() if route_layer is not None else str(parameters.get(common.ROUTE))
-        legs = adapters.route_legs(source, context, feedback=feedback)
-        if not legs:
-            raise QgsProcessingException("ROUTE: no line could be read from the route layer")
-        if len(legs) > 1:
-            raise QgsProcessingException(
-                f"ROUTE: the departure sweep takes one line (one passage), the layer has {len(legs)} lines or "
-                f"parts ({', '.join(repr(l.name) for l in legs[:4])}{', ...' if len(legs) > 4 else ''}): select "
-                "one feature and tick 'Selected features only', or run the sweep once per line")
-        leg = legs[0]
-        if leg.departure_utc is not None:
-            feedback.pushInfo(f"The route field depart_utc of {show(leg.name)} is not used: the sweep departs at "
-                              "every step from DEPART_FROM to DEPART_TO")
-        default_speed = leg.speed_kn if leg.speed_kn is not None else settings.speed_kn
-        try:
-            speeds = parse_speeds_kn(self.parameterAsString(parameters, SPEEDS_KN, context), default_speed)
-        except SeawayInputError as exc:
-            raise QgsProcessingException(f"SPEEDS_KN: {exc}") from exc
-
-        table_dest = self.parameterAsOutputLayer(parameters, OUTPUT_TABLE, context)
-        points_dest = self.parameterAsOutputLayer(parameters, OUTPUT_POINTS, context) if parameters.get(OUTPUT_POINTS) else ""
-        report_path = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
-        inputs = [route_src, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
-        inputs += common.vessel_input_files(settings.vessel_spec, settings.profile)
-        common.check_outputs([(OUTPUT_TABLE, table_dest), (OUTPUT_POINTS, points_dest), (OUTPUT_REPORT, report_path)],
-                             inputs)
-        dests = [d for d in (table_dest, points_dest, report_path) if d and not str(d).startswith(("memory:", "TEMPORARY"))]
-        if len({common.file_part(d) for d in dests}) < len(dests):
-            raise QgsProcessingException("OUTPUT_TABLE, OUTPUT_POINTS and OUTPUT_REPORT must be different files")
-
-        feedback.pushInfo(
-            f"Sweeping {deps.size} departures ({str(deps[0])[:16]} to {str(deps[-1])[:16]} UTC) x {len(speeds)} "
-            f"speed(s) ({', '.join(f'{v:g}' for v in speeds)} kn) x {len(settings.sea_state_paths)} source(s) on "
-            f"{show(leg.name)}; best = {criterion}, worst acceptable class {max_class}")
-        sources = common.open_sources(settings, feedback)
-        depth = common.open_depth(settings)
-        method = settings.method or "table"
-
-        def progress(fraction: float) -> bool:
-            feedback.setProgress(85.0 * fraction)
-            return not feedback.isCanceled()
-
-        points_results: List[Any] = []
-        try:
-            try:
-                result = sweep_departures(
-                    leg.lon_deg, leg.lat_deg, depart_from_utc=deps[0], depart_to_utc=deps[-1],
-                    step_h=float(self.parameterAsDouble(parameters, DEPART_STEP_H, context)), sea_states=sources,
-                    profile=settings.profile, speeds_kn=speeds, criterion=criterion, max_class=max_class,
-                    station=settings.station, depth=depth, spacing_nm=settings.spacing_nm, gamma=settings.gamma,
-                    spread_s=settings.spread_s, long_crested=settings.long_crested, method=method,
-                    progress=progress,
-                )
-                rec = result.recommendation
-                if points_dest:
-                    for src in sources:
-                        if feedback.isCanceled():
-                            raise PassageCancelled("cancelled")
-                        res = compute_passage(
-                            leg.lon_deg, leg.lat_deg, departure_utc=rec.depart_utc, speed_kn=rec.speed_kn,
-                            sea_states=[src], profile=settings.profile, station=settings.station, depth=depth,
-                            spacing_nm=settings.spacing_nm, gamma=settings.gamma, spread_s=settings.spread_s,
-                            long_crested=settings.long_crested, method=method, leg=len(points_results),
-                        )
-                        points_results.append((f"{leg.name} [{src.name}]", res))
-            except SeawayInputError as exc:
-                raise QgsProcessingException(f"{show(leg.name)}: {exc}") from exc
-        except PassageCancelled as exc:
-            raise QgsProcessingException("Cancelled: no outputs were written") from exc
-        finally:
-            for s in sources:
-                s.close()
-            if depth is not None:
-                depth.close()
-        feedback.setProgress(88)
-
-        # the table
-        fields = table_fields()
-        sink, table_id = self.parameterAsSink(parameters, OUTPUT_TABLE, context, fields, QgsWkbTypes.Type.NoGeometry,
-                                              QgsCoordinateReferenceSystem())
-        if sink is None:
-            raise QgsProcessingException(f"OUTPUT_TABLE {show(table_dest)} could not be created: check the path")
-        for row in result.rows:
-            f = QgsFeature(fields)
-            f.setAttributes(_row_attributes(row))
-            sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
-        del sink
-        vessel_name = getattr(settings.profile, "name", settings.vessel_spec)
-        abstract = (
-            f"Seaway Comfort departure sweep. Route: {route_src} ({leg.name}). Sea-state files: "
-            f"{'; '.join(settings.sea_state_paths)} (sources {', '.join(result.source_names)}, each on its own). "
-            f"Bathymetry: {settings.depth_path or 'none (deep water)'}. Vessel: {vessel_name} "
-            f"({settings.vessel_spec}); station: {result.station_name}. Departures: {deps.size} from "
-            f"{str(deps[0])[:16]} to {str(deps[-1])[:16]} UTC; speeds {', '.join(f'{v:g}' for v in speeds)} kn; "
-            f"spacing {settings.spacing_nm:g} NM; JONSWAP gamma {settings.gamma:g}, "
-            f"{'long-crested' if settings.long_crested else f'cos-2s s {settings.spread_s:g}'}; best = {criterion}, "
-            f"worst acceptable class {max_class}. Recommended: {rec.reason} {CAUTION}"
-        )
-        self._table_metadata(table_id, context, abstract, feedback)
-
-        out: Dict[str, Any] = {OUTPUT_TABLE: table_id}
-        if points_dest:
-            crs = QgsCoordinateReferenceSystem(adapters.WGS84)
-            pfields = adapters.passage_fields()
-            psink, points_id = self.parameterAsSink(parameters, OUTPUT_POINTS, context, pfields,
-                                                    QgsWkbTypes.Type.Point, crs)
-            if psink is None:
-                raise QgsProcessingException(f"OUTPUT_POINTS {show(points_dest)} could not be created: check the path")
-            for name, res in points_results:
-                for f in adapters.point_features(res, pfields, name):
-                    psink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
-            del psink
-            title = "Seaway Comfort recommended departure"
-            layer_in_context = context.getMapLayer(points_id) if points_id else None
-            if layer_in_context is not None and layer_in_context.providerType() == "memory":
-                styling.apply_comfort_style(layer_in_context, title=title, abstract=abstract)
-            elif points_id:
-                _, warns = styling.save_output_style(points_id, title=title, abstract=abstract)
-                for w in warns:
-                    feedback.pushWarning(w)
-            if context.willLoadLayerOnCompletion(points_id):
-                context.layerToLoadOnCompletionDetails(points_id).setPostProcessor(
-                    styling.ComfortStylePostProcessor.create(title, abstract))
-            out[OUTPUT_POINTS] = points_id
-        feedback.setProgress(94)
-
-        warnings: List[str] = list(result.notes)
-        from ..core.flags import flag_counts
-
-        counts = flag_counts(result.flags)
-        flag_lines = common.flag_warning_lines(counts, int(result.flags.size))
-        warnings.extend(line.replace(" samples - ", " passages - ") for line in flag_lines)
+        result = outcome.result
+        flag_lines = common.flag_warning_lines(flag_counts(result.flags), int(result.flags.size))
+        warnings = [*result.notes, *(line.replace(" samples - ", " passages - ") for line in flag_lines)]
         summary = sweep_text_summary(result)
-        feedback.pushInfo(summary)
+        run.feedback.pushInfo(summary)
         for w in warnings:
-            feedback.pushWarning(w)
+            run.feedback.pushWarning(w)
+        out: Dict[str, Any] = {SUMMARY: summary, N_ROWS: len(result.rows),
+                               RECOMMENDED_UTC: str(np.datetime64(result.recommendation.depart_utc, "s")) + "Z"}
+        report_path = run.file_output(OUTPUT_REPORT)
         if report_path:
-            rinputs = ReportInputs(
-                sea_state_files=settings.sea_state_paths, source_names=result.source_names,
-                bathymetry=settings.depth_path or "", route=f"{route_src} ({leg.name})",
-                vessel=f"{vessel_name} ({settings.vessel_spec})", station=result.station_name,
-                departure_utc=f"{str(deps[0])[:16].replace('T', ' ')} to {str(deps[-1])[:16].replace('T', ' ')} UTC "
-                              f"every {self.parameterAsDouble(parameters, DEPART_STEP_H, context):g} h",
-                speed_kn=", ".join(f"{v:g} kn" for v in speeds), spacing_nm=f"{settings.spacing_nm:g} NM",
-                spectrum=f"JONSWAP gamma {settings.gamma:g}, "
-                + ("long-crested" if settings.long_crested else f"cos-2s spreading s = {settings.spread_s:g}"),
-                method=result.method,
-            )
-            report = build_sweep_report(result, rinputs, warnings=warnings)
+            report = build_sweep_report(result, report_inputs(job, result), warnings=warnings)
             try:
                 write_sweep_html(report_path, report)
             except OSError as exc:
                 raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = report_path
-        out[SUMMARY] = summary
-        out[RECOMMENDED_UTC] = str(np.datetime64(rec.depart_utc, "s")) + "Z"
-        out[N_ROWS] = len(result.rows)
-        feedback.setProgress(100)
         return out
 
-    @staticmethod
-    def _table_metadata(table_id: str, context: QgsProcessingContext, abstract: str,
-                        feedback: QgsProcessingFeedback) -> None:
-        """Provenance and caution in the table's metadata (memory layer) or a .qmd beside the file."""
-        from .. import styling
 
-        title = "Seaway Comfort departure sweep"
-        layer = context.getMapLayer(table_id) if table_id else None
-        if layer is not None and layer.providerType() == "memory":
-            styling.apply_metadata(layer, title, abstract)
-            return
-        if not table_id:
-            return
-        styling.mark_datetimes_utc(table_id)
-        lyr = QgsVectorLayer(table_id, os.path.basename(str(table_id)), "ogr")
-        if not lyr.isValid():
-            feedback.pushWarning(f"could not reopen {show(table_id)} to save its metadata")
-            return
-        styling.apply_metadata(lyr, title, abstract)
-        qmd = styling.qml_path_for(table_id)[: -len(".qml")] + ".qmd"
-        msg, ok = lyr.saveNamedMetadata(qmd)
-        if not ok:
-            feedback.pushWarning(f"metadata not saved to {show(qmd)}: {msg}")
+def departure_window(alg: SeawayAlgorithm, parameters: Dict[str, Any], context: Any) -> Any:
+    """The departures DEPART_FROM .. DEPART_TO every DEPART_STEP_H, checked (at most MAX_DEPARTURES)."""
+    from ..core.sweep.engine import MAX_DEPARTURES, departure_times
+
+    t0 = common.parse_datetime(alg, parameters, DEPART_FROM, context, required=True)
+    t1 = common.parse_datetime(alg, parameters, DEPART_TO, context, required=True)
+    step = alg.parameterAsDouble(parameters, DEPART_STEP_H, context)
+    if t1 < t0:
+        raise QgsProcessingException(
+            f"DEPART_TO {str(t1)[:16]} UTC lies before DEPART_FROM {str(t0)[:16]} UTC: give the end of the "
+            "departure window after its start")
+    if not (math.isfinite(step) and step > 0):
+        raise QgsProcessingException(f"DEPART_STEP_H must be > 0 hours, got {step:g}")
+    span_h = float((t1 - t0).astype("timedelta64[ms]").astype("int64")) / 3.6e6
+    n = int(math.floor(span_h / step + 1e-9)) + 1
+    if n > MAX_DEPARTURES:
+        raise QgsProcessingException(
+            f"DEPART_FROM to DEPART_TO every DEPART_STEP_H = {step:g} h gives {n} departures, more than the "
+            f"limit of {MAX_DEPARTURES}: choose a larger step or a shorter window")
+    with common.input_error("DEPART_FROM/DEPART_TO/DEPART_STEP_H: "):
+        return departure_times(t0, t1, step)
+
+
+def one_leg(alg: SeawayAlgorithm, run: Run) -> Tuple[Any, str]:
+    """(the one route leg, the route's source text); a layer with several lines is refused."""
+    legs, route_src = common.read_route(alg, run.parameters, run.context, run.feedback)
+    if len(legs) > 1:
+        raise QgsProcessingException(
+            f"ROUTE: the departure sweep takes one line (one passage), the layer has {len(legs)} lines or "
+            f"parts ({', '.join(repr(leg.name) for leg in legs[:4])}{', ...' if len(legs) > 4 else ''}): select "
+            "one feature and tick 'Selected features only', or run the sweep once per line")
+    if legs[0].departure_utc is not None:
+        run.feedback.pushInfo(f"The route field depart_utc of {show(legs[0].name)} is not used: the sweep departs "
+                              "at every step from DEPART_FROM to DEPART_TO")
+    return legs[0], route_src
+
+
+def recommended_passages(run: Run, job: SweepJob, rec: Any, sources: List[Any], depth: Any) -> Tuple[Any, ...]:
+    """(label, PassageResult) of the recommended departure and speed, one per source."""
+    from ..core.passage.pipeline import PassageCancelled, compute_passage
+
+    out: List[Tuple[str, Any]] = []
+    for src in sources:
+        if run.feedback.isCanceled():
+            raise PassageCancelled("cancelled")
+        res = compute_passage(
+            job.leg.lon_deg, job.leg.lat_deg, departure_utc=rec.depart_utc, speed_kn=rec.speed_kn,
+            sea_states=[src], leg=len(out), **common.passage_options(job.settings, depth, job.settings.method or "table"))
+        out.append((f"{job.leg.name} [{src.name}]", res))
+    return tuple(out)
+
+
+def provenance_text(job: SweepJob, result: Any) -> str:
+    """The metadata abstract of the outputs: what went in, the recommendation, the caution."""
+    s = job.settings
+    return (
+        f"Seaway Comfort departure sweep. Route: {job.route_source} ({job.leg.name}). Sea-state files: "
+        f"{'; '.join(s.sea_state_paths)} (sources {', '.join(result.source_names)}, each on its own). "
+        f"Bathymetry: {s.depth_path or 'none (deep water)'}. Vessel: {getattr(s.profile, 'name', s.vessel_spec)} "
+        f"({s.vessel_spec}); station: {result.station_name}. Departures: {job.deps.size} from "
+        f"{job.window_text()} UTC; speeds {job.speeds_text()} kn; spacing {s.spacing_nm:g} NM; "
+        f"JONSWAP gamma {s.gamma:g}, {'long-crested' if s.long_crested else f'cos-2s s {s.spread_s:g}'}; "
+        f"best = {job.criterion}, worst acceptable class {job.max_class}. "
+        f"Recommended: {result.recommendation.reason} {CAUTION}"
+    )
+
+
+def report_inputs(job: SweepJob, result: Any) -> Any:
+    """What went in, as the sweep report lists it."""
+    from ..core.reports.passage import ReportInputs
+
+    s = job.settings
+    return ReportInputs(
+        sea_state_files=s.sea_state_paths, source_names=result.source_names,
+        bathymetry=s.depth_path or "", route=f"{job.route_source} ({job.leg.name})",
+        vessel=f"{getattr(s.profile, 'name', s.vessel_spec)} ({s.vessel_spec})", station=result.station_name,
+        departure_utc=f"{job.window_text().replace('T', ' ')} UTC every {job.step_h:g} h",
+        speed_kn=", ".join(f"{v:g} kn" for v in job.speeds), spacing_nm=f"{s.spacing_nm:g} NM",
+        spectrum=common.spectrum_text(s), method=result.method,
+    )

@@ -4,21 +4,20 @@ from __future__ import annotations
 
 import html
 import os
-from typing import Any, Dict, Optional
+from dataclasses import dataclass
+from typing import Any, Dict, List, Optional
 
 from qgis.core import (
-    QgsProcessingContext,
     QgsProcessingException,
-    QgsProcessingFeedback,
     QgsProcessingOutputString,
     QgsProcessingParameterFile,
     QgsProcessingParameterFileDestination,
 )
 
-from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
-from ..core.validation import SeawayInputError, show
+from ..core.validation import show
 from . import common
+from .base import Run, SeawayAlgorithm
 
 INPUT = "INPUT"
 OUTPUT_REPORT = "OUTPUT_REPORT"
@@ -48,8 +47,21 @@ def summary_lines(inv: Any) -> str:
     )
 
 
+@dataclass(frozen=True)
+class DescribeJob:
+    """The file to describe (also the one input no output may overwrite)."""
+
+    path: str
+
+    @property
+    def inputs(self) -> List[Any]:
+        return [("INPUT file", self.path)]
+
+
 class DescribeSeaStateAlgorithm(SeawayAlgorithm):
     """Lists the sea-state variables a file holds and how they were recognised."""
+
+    OUTPUT_FILES = (OUTPUT_REPORT,)
 
     def name(self) -> str:
         return "describeseastate"
@@ -79,32 +91,34 @@ class DescribeSeaStateAlgorithm(SeawayAlgorithm):
         ))
         self.addOutput(QgsProcessingOutputString(DESCRIPTION, self.tr("Description")))
 
-    def processAlgorithm(  # noqa: N802
-        self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback
-    ) -> Dict[str, Any]:
-        from ..core.seastate import describe_file
-
-        path = self.parameterAsFile(parameters, INPUT, context)
+    # hooks of the run skeleton (:meth:`.base.SeawayAlgorithm.processAlgorithm`) ---------------
+    def read_settings(self, run: Run) -> DescribeJob:
+        path = self.parameterAsFile(run.parameters, INPUT, run.context)
         if not path or not os.path.isfile(path):
             raise QgsProcessingException(f"INPUT {show(path)} is not an existing file: choose a forecast file")
-        dest = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
-        if dest:
-            common.check_outputs([(OUTPUT_REPORT, dest)], [("INPUT file", path)])
-        try:
-            inv = describe_file(path)
-        except SeawayInputError as exc:
-            raise QgsProcessingException(f"INPUT {show(path)}: {exc}") from exc
-        except RuntimeError as exc:
-            raise QgsProcessingException(f"INPUT {show(path)} could not be read: {exc}") from exc
+        return DescribeJob(path)
+
+    def compute(self, run: Run, job: DescribeJob) -> str:
+        from ..core.seastate import describe_file
+
+        with common.input_error(f"INPUT {show(job.path)}: "):
+            try:
+                inv = describe_file(job.path)
+            except RuntimeError as exc:
+                raise QgsProcessingException(f"INPUT {show(job.path)} could not be read: {exc}") from exc
         text = summary_lines(inv) + inv.as_text().rstrip() + "\n"
         if CAUTION not in text:
             text += "\nCAUTION: " + CAUTION + "\n"
+        return text
+
+    def write_report(self, run: Run, job: DescribeJob, text: str) -> Dict[str, Any]:
         for line in text.splitlines():
-            feedback.pushInfo(line)
+            run.feedback.pushInfo(line)
         out: Dict[str, Any] = {DESCRIPTION: text}
+        dest = run.file_output(OUTPUT_REPORT)
         if dest:
             body = text if dest.lower().endswith(".txt") else inventory_html(
-                f"Sea-state file: {os.path.basename(path)}", text)
+                f"Sea-state file: {os.path.basename(job.path)}", text)
             try:
                 with open(dest, "w", encoding="utf-8") as fh:
                     fh.write(body)

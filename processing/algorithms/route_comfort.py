@@ -2,15 +2,13 @@
 """Processing algorithm ``seawaycomfort:routecomfort``: comfort and motions along a route."""
 from __future__ import annotations
 
+from dataclasses import dataclass
 from typing import Any, Dict, List, Optional, Tuple
 
 from qgis.core import (
     QgsCoordinateReferenceSystem,
-    QgsFeatureSink,
     QgsProcessing,
-    QgsProcessingContext,
     QgsProcessingException,
-    QgsProcessingFeedback,
     QgsProcessingOutputNumber,
     QgsProcessingOutputString,
     QgsProcessingParameterFeatureSink,
@@ -18,10 +16,10 @@ from qgis.core import (
     QgsWkbTypes,
 )
 
-from .base import SeawayAlgorithm
 from ..core.flags import CAUTION
-from ..core.validation import SeawayInputError, show
+from ..core.validation import show
 from . import common
+from .base import Run, SeawayAlgorithm
 
 OUTPUT_POINTS = "OUTPUT_POINTS"
 OUTPUT_SEGMENTS = "OUTPUT_SEGMENTS"
@@ -46,8 +44,44 @@ def provenance_text(settings: common.PassageSettings, route_source: str) -> str:
     )
 
 
+@dataclass(frozen=True)
+class RouteJob:
+    """The checked settings, the route legs (WGS84) and the route's source text."""
+
+    settings: common.PassageSettings
+    legs: Tuple[Any, ...]
+    route_source: str
+
+    @property
+    def inputs(self) -> List[str]:
+        return common.input_paths(self.settings, self.route_source)
+
+
+@dataclass(frozen=True)
+class Passages:
+    """(label, PassageResult) per leg and source group, and the names of the sources read."""
+
+    results: Tuple[Tuple[str, Any], ...]
+    source_names: Tuple[str, ...]
+
+    @property
+    def n_samples(self) -> int:
+        return sum(r.n for _, r in self.results)
+
+    def flag_lines(self) -> List[str]:
+        """One log line per flag code over every sample."""
+        import numpy as np
+
+        from ..core.flags import flag_counts
+
+        counts = flag_counts(np.concatenate([r.flags for _, r in self.results])) if self.results else {}
+        return common.flag_warning_lines(counts, self.n_samples)
+
+
 class RouteComfortAlgorithm(SeawayAlgorithm):
     """Motions, comfort indices and guidance flags at every sample along a route."""
+
+    OUTPUT_FILES = (OUTPUT_POINTS, OUTPUT_SEGMENTS, OUTPUT_REPORT)
 
     def name(self) -> str:
         return "routecomfort"
@@ -97,148 +131,113 @@ class RouteComfortAlgorithm(SeawayAlgorithm):
         self.addOutput(QgsProcessingOutputString(SUMMARY, self.tr("Summary")))
         self.addOutput(QgsProcessingOutputNumber(N_SAMPLES, self.tr("Number of samples")))
 
-    # -----------------------------------------------------------------------------------------
-    def processAlgorithm(  # noqa: N802
-        self, parameters: Dict[str, Any], context: QgsProcessingContext, feedback: QgsProcessingFeedback
-    ) -> Dict[str, Any]:
-        from .. import adapters, styling
-        from ..core.passage.pipeline import PassageCancelled, compute_passage
-        from ..core.reports.passage import ReportInputs, build_report, text_summary, write_html
+    # hooks of the run skeleton (:meth:`.base.SeawayAlgorithm.processAlgorithm`) ---------------
+    def read_settings(self, run: Run) -> RouteJob:
+        settings = common.parse_passage_settings(self, run.parameters, run.context)
+        legs, route_src = common.read_route(self, run.parameters, run.context, run.feedback)
+        return RouteJob(settings, tuple(legs), route_src)
 
-        feedback = feedback or QgsProcessingFeedback()
-        settings = common.parse_passage_settings(self, parameters, context)
-        legs, route_src = common.read_route(self, parameters, context, feedback)
-
-        points_dest = self.parameterAsOutputLayer(parameters, OUTPUT_POINTS, context)
-        segs_dest = self.parameterAsOutputLayer(parameters, OUTPUT_SEGMENTS, context)
-        report_path = self.parameterAsFileOutput(parameters, OUTPUT_REPORT, context) if parameters.get(OUTPUT_REPORT) else ""
-        inputs = [route_src, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
-        inputs += common.vessel_input_files(settings.vessel_spec, settings.profile)
-        common.check_outputs(
-            [(OUTPUT_POINTS, points_dest), (OUTPUT_SEGMENTS, segs_dest), (OUTPUT_REPORT, report_path)], inputs,
-        )
-        dests = [d for d in (points_dest, segs_dest, report_path) if d and not str(d).startswith(("memory:", "TEMPORARY"))]
-        if len({common.file_part(d) for d in dests}) < len(dests):
-            raise QgsProcessingException(
-                "OUTPUT_POINTS, OUTPUT_SEGMENTS and OUTPUT_REPORT must be different files"
-            )
-
-        sources = common.open_sources(settings, feedback)
-        depth = common.open_depth(settings)
-        groups: List[Tuple[str, List[Any]]]
-        if settings.source_mode == "compare" and len(sources) > 1:
-            groups = [(s.name, [s]) for s in sources]
-        else:
-            groups = [("", sources)]
-        n_jobs = len(legs) * len(groups)
+    def compute(self, run: Run, job: RouteJob) -> Passages:
         results: List[Tuple[str, Any]] = []
-        try:
-            for j, leg in enumerate(legs):
-                departure = leg.departure_utc if leg.departure_utc is not None else settings.departure_utc
-                if departure is None:
-                    raise QgsProcessingException(
-                        f"DEPARTURE: leg {show(leg.name)} has no departure time: set DEPARTURE or fill the "
-                        "route field depart_utc"
-                    )
-                speed = leg.speed_kn if leg.speed_kn is not None else settings.speed_kn
-                for g, (gname, group) in enumerate(groups):
-                    k = j * len(groups) + g
+        with common.opened_sea(job.settings, run.feedback) as (sources, depth):
+            groups = source_groups(job.settings, sources)
+            n_jobs = len(job.legs) * len(groups)
+            for leg in job.legs:
+                departure, speed = leg_plan(job.settings, leg)
+                for gname, group in groups:
+                    k = len(results)
                     label = leg.name if not gname else f"{leg.name} [{gname}]"
-                    feedback.pushInfo(f"Leg {len(results) + 1}: {label}, departing {str(departure)[:16]} UTC at {speed:g} kn")
+                    run.feedback.pushInfo(f"Leg {k + 1}: {label}, departing {str(departure)[:16]} UTC at {speed:g} kn")
+                    progress = run.progress(90.0 * k / n_jobs, 90.0 * (k + 1) / n_jobs)
+                    results.append((label, _passage(job, leg, (departure, speed), group, depth, progress, k)))
+        return Passages(tuple(results), tuple(s.name for s in sources))
 
-                    def progress(fraction: float, k: int = k) -> bool:
-                        feedback.setProgress(100.0 * (k + fraction) / n_jobs * 0.9)
-                        return not feedback.isCanceled()
-
-                    try:
-                        res = compute_passage(
-                            leg.lon_deg, leg.lat_deg, departure_utc=departure, speed_kn=speed,
-                            sea_states=group, profile=settings.profile, station=settings.station,
-                            depth=depth, spacing_nm=settings.spacing_nm, gamma=settings.gamma,
-                            spread_s=settings.spread_s, long_crested=settings.long_crested,
-                            progress=progress, leg=len(results), method=settings.method,
-                        )
-                    except SeawayInputError as exc:
-                        raise QgsProcessingException(f"leg {show(leg.name)}: {exc}") from exc
-                    results.append((label, res))
-        except PassageCancelled as exc:
-            raise QgsProcessingException("Cancelled: no outputs were written") from exc
-        finally:
-            for s in sources:
-                s.close()
-            if depth is not None:
-                depth.close()
+    def write_sinks(self, run: Run, job: RouteJob, passages: Passages) -> Dict[str, Any]:
+        from .. import adapters
+        from ..styling import OutputStyle
 
         fields = adapters.passage_fields()
         crs = QgsCoordinateReferenceSystem(adapters.WGS84)
-        sink, points_id = self.parameterAsSink(parameters, OUTPUT_POINTS, context, fields, QgsWkbTypes.Type.Point, crs)
-        if sink is None:
-            raise QgsProcessingException(f"OUTPUT_POINTS {show(points_dest)} could not be created: check the path")
-        for name, res in results:
-            for f in adapters.point_features(res, fields, name):
-                sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
-        del sink
-        sink, segs_id = self.parameterAsSink(parameters, OUTPUT_SEGMENTS, context, fields, QgsWkbTypes.Type.LineString, crs)
-        if sink is None:
-            raise QgsProcessingException(f"OUTPUT_SEGMENTS {show(segs_dest)} could not be created: check the path")
-        for name, res in results:
-            for f in adapters.segment_features(res, fields, name):
-                sink.addFeature(f, QgsFeatureSink.Flag.FastInsert)
-        del sink
-        feedback.setProgress(92)
+        abstract = provenance_text(job.settings, job.route_source)
+        out: Dict[str, Any] = {}
+        for name, wkb, features, title in (
+            (OUTPUT_POINTS, QgsWkbTypes.Type.Point, adapters.point_features, "Seaway Comfort passage samples"),
+            (OUTPUT_SEGMENTS, QgsWkbTypes.Type.LineString, adapters.segment_features, "Seaway Comfort passage segments"),
+        ):
+            feats = (f for label, res in passages.results for f in features(res, fields, label))
+            out[name] = run.write_sink(name, fields, wkb, crs, feats, OutputStyle(title, abstract))
+        run.feedback.setProgress(92)
+        return out
 
-        abstract = provenance_text(settings, route_src)
-        for dest_id, title in ((points_id, "Seaway Comfort passage samples"), (segs_id, "Seaway Comfort passage segments")):
-            layer_in_context = context.getMapLayer(dest_id) if dest_id else None
-            if layer_in_context is not None and layer_in_context.providerType() == "memory":
-                styling.apply_comfort_style(layer_in_context, title=title, abstract=abstract)
-            elif dest_id:
-                qml, warns = styling.save_output_style(dest_id, title=title, abstract=abstract)
-                for w in warns:
-                    feedback.pushWarning(w)
-            if context.willLoadLayerOnCompletion(dest_id):
-                context.layerToLoadOnCompletionDetails(dest_id).setPostProcessor(
-                    styling.ComfortStylePostProcessor.create(title, abstract)
-                )
+    def write_report(self, run: Run, job: RouteJob, passages: Passages) -> Dict[str, Any]:
+        from ..core.reports.passage import build_report, text_summary, write_html
 
-        vessel_name = getattr(settings.profile, "name", settings.vessel_spec)
-        rinputs = ReportInputs(
-            sea_state_files=settings.sea_state_paths,
-            source_names=tuple(s.name for s in sources),
-            bathymetry=settings.depth_path or "",
-            route=route_src,
-            vessel=vessel_name if str(settings.vessel_spec) == str(vessel_name) else f"{vessel_name} ({settings.vessel_spec})",
-            station=results[0][1].station_name if results else (settings.station or ""),
-            departure_utc=(str(settings.departure_utc.astype("datetime64[m]")).replace("T", " ") + " UTC")
-            if settings.departure_utc is not None else "per route feature",
-            speed_kn=f"{settings.speed_kn:g} kn (route field speed_kn overrides)",
-            spacing_nm=f"{settings.spacing_nm:g} NM",
-            spectrum=f"JONSWAP gamma {settings.gamma:g}, "
-            + ("long-crested" if settings.long_crested else f"cos-2s spreading s = {settings.spread_s:g}"),
-            method=results[0][1].method if results else "",
-            extra=(("Mode with several sources", settings.source_mode),),
-        )
-        all_warnings: List[str] = []
-        n_total = sum(r.n for _, r in results)
-        from ..core.flags import flag_counts
-        import numpy as np
-
-        counts = flag_counts(np.concatenate([r.flags for _, r in results])) if results else {}
-        for line in common.flag_warning_lines(counts, n_total):
-            all_warnings.append(line)
-        report = build_report(results, rinputs, warnings=all_warnings)
-        if all_warnings:
-            feedback.pushWarning("Flagged samples:")
-            for line in all_warnings:
-                feedback.pushWarning("  " + line)
+        warnings = passages.flag_lines()
+        report = build_report(list(passages.results), report_inputs(job, passages), warnings=warnings)
+        if warnings:
+            run.feedback.pushWarning("Flagged samples:")
+            for line in warnings:
+                run.feedback.pushWarning("  " + line)
         summary = text_summary(report)
-        feedback.pushInfo(summary)
-        out: Dict[str, Any] = {OUTPUT_POINTS: points_id, OUTPUT_SEGMENTS: segs_id, SUMMARY: summary, N_SAMPLES: n_total}
+        run.feedback.pushInfo(summary)
+        out: Dict[str, Any] = {SUMMARY: summary, N_SAMPLES: passages.n_samples}
+        report_path = run.file_output(OUTPUT_REPORT)
         if report_path:
             try:
                 write_html(report_path, report)
             except OSError as exc:
                 raise QgsProcessingException(f"OUTPUT_REPORT {show(report_path)} could not be written: {exc}") from exc
             out[OUTPUT_REPORT] = report_path
-        feedback.setProgress(100)
         return out
+
+
+def source_groups(settings: common.PassageSettings, sources: List[Any]) -> List[Tuple[str, List[Any]]]:
+    """(group name, sources) per result: one per file in compare mode, else one for all."""
+    if settings.source_mode == "compare" and len(sources) > 1:
+        return [(s.name, [s]) for s in sources]
+    return [("", sources)]
+
+
+def leg_plan(settings: common.PassageSettings, leg: Any) -> Tuple[Any, float]:
+    """(departure, speed) of a leg: its route fields, else DEPARTURE and SPEED_KN."""
+    departure = leg.departure_utc if leg.departure_utc is not None else settings.departure_utc
+    if departure is None:
+        raise QgsProcessingException(
+            f"DEPARTURE: leg {show(leg.name)} has no departure time: set DEPARTURE or fill the route field depart_utc"
+        )
+    return departure, (leg.speed_kn if leg.speed_kn is not None else settings.speed_kn)
+
+
+def _passage(job: RouteJob, leg: Any, plan: Tuple[Any, float], group: List[Any], depth: Any, progress: Any,
+             index: int) -> Any:
+    """Result ``index``: one leg with its (departure, speed) through one group of sources."""
+    from ..core.passage.pipeline import compute_passage
+
+    with common.input_error(f"leg {show(leg.name)}: "):
+        return compute_passage(
+            leg.lon_deg, leg.lat_deg, departure_utc=plan[0], speed_kn=plan[1], sea_states=group,
+            progress=progress, leg=index, **common.passage_options(job.settings, depth, job.settings.method),
+        )
+
+
+def report_inputs(job: RouteJob, passages: Passages) -> Any:
+    """What went in, as the passage report lists it."""
+    from ..core.reports.passage import ReportInputs
+
+    s = job.settings
+    first = passages.results[0][1] if passages.results else None
+    return ReportInputs(
+        sea_state_files=s.sea_state_paths,
+        source_names=passages.source_names,
+        bathymetry=s.depth_path or "",
+        route=job.route_source,
+        vessel=common.vessel_text(s),
+        station=first.station_name if first is not None else (s.station or ""),
+        departure_utc=(str(s.departure_utc.astype("datetime64[m]")).replace("T", " ") + " UTC")
+        if s.departure_utc is not None else "per route feature",
+        speed_kn=f"{s.speed_kn:g} kn (route field speed_kn overrides)",
+        spacing_nm=f"{s.spacing_nm:g} NM",
+        spectrum=common.spectrum_text(s),
+        method=first.method if first is not None else "",
+        extra=(("Mode with several sources", s.source_mode),),
+    )

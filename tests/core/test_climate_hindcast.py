@@ -194,3 +194,26 @@ def test_samples_off_the_grid_are_flagged_not_zero(tmp_path):
     assert r.departures_known[0] == 0 and np.isnan(r.window_probability[0])
     assert any("outside the hindcast grid" in n for n in r.notes)
     assert "OFFGRID" in r.to_csv()
+
+
+def test_going_to_direction_is_turned_to_coming_from(tmp_path):
+    """CF standard names (CF Standard Name Table): sea_surface_wave_to_direction is the
+    direction the waves travel TOWARDS, sea_surface_wave_from_direction the direction they
+    come FROM, so from = (to + 180) mod 360. A file giving only the "to" variable, 30 deg west of
+    8 W and 70 deg east of it: a sample on a single column reads 210 / 250 deg from; halfway
+    between the columns the unit-vector mean (Mardia & Jupp 2000, s.2.2.1) of 210 and 250 is 230."""
+    t = step_times_utc(2030)[:3]
+    xx, _ = np.meshgrid(LON, LAT)
+    shape = (LAT.size, LON.size)
+    to_dir = np.where(xx < -8.0, 30.0, 70.0)
+    p = write_cf_netcdf(str(tmp_path / "to.nc"), LON, LAT, t, {
+        HS_NAME: lambda i: np.full(shape, 1.5),
+        TP_NAME: lambda i: np.full(shape, 9.0),
+        "sea_surface_wave_to_direction": lambda i: to_dir,
+    })
+    s = C.open_hindcast([p])
+    pw = point_weights(s.grid, [-9.0, -7.0, -8.25], [42.0, 42.0, 42.0])
+    hs, tp, wd = read_point_values(s, pw, 0, 3)
+    np.testing.assert_allclose(hs, 1.5, rtol=1e-6)
+    np.testing.assert_allclose(tp, 9.0, rtol=1e-6)
+    np.testing.assert_allclose(wd, np.tile([210.0, 250.0, 230.0], (3, 1)), atol=1e-6)

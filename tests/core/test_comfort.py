@@ -18,6 +18,7 @@ from seaway_comfort.processing.core.comfort.indices import (
     comfort_class,
     iso2631_wf_weighting,
     iso2631_wf_weighting_squared,
+    mean_abs_from_rms,
     msdv_cumulative,
     msdv_m_s15,
     msi_percent,
@@ -120,3 +121,23 @@ def test_wf_squared_real_form_equals_complex_filter():
     # algebraic identity |b - w^2 + j a w|^2 = (b - w^2)^2 + a^2 w^2 (common practice, no source)
     f = np.geomspace(0.005, 5.0, 200)
     np.testing.assert_allclose(iso2631_wf_weighting_squared(f), iso2631_wf_weighting(f) ** 2, rtol=1e-12)
+
+
+def test_mean_absolute_value_of_a_gaussian_process():
+    """E|x| = sigma sqrt(2/pi) = 0.79788 sigma for zero-mean Gaussian x (Papoulis & Pillai,
+    Probability, Random Variables and Stochastic Processes, 4th ed. 2002, ch. 5, moments of the
+    normal density; chapter from memory). Hand derivation: E|x| = 2 int_0^inf x exp(-x^2/2s^2)
+    dx / (s sqrt(2 pi)) = 2 s^2 / (s sqrt(2 pi)) = s sqrt(2/pi). Checked against
+    scipy.stats.norm.expect(abs) (numerical quadrature) and scipy.stats.halfnorm.mean()."""
+    from scipy.stats import halfnorm
+
+    rms = np.array([0.0, 0.25, 1.0, 3.7])
+    ref = np.array([norm(scale=s).expect(abs) if s > 0 else 0.0 for s in rms])
+    np.testing.assert_allclose(mean_abs_from_rms(rms), ref, rtol=1e-9, atol=0)
+    assert float(mean_abs_from_rms(1.0)) == pytest.approx(halfnorm.mean(), rel=1e-12)
+    # MSI fed with the mean |a| of a Gaussian acceleration of RMS 1 m/s^2 at 1 rad/s: 24.926 %
+    # is the table row (0.79788, 1.0) above, NOT the row of mean |a| = 1.0 (33.299 %).
+    assert float(msi_percent(mean_abs_from_rms(1.0), 1.0)) == pytest.approx(
+        100 * norm.cdf((math.log10(halfnorm.mean() / 9.81) + 0.819) / 0.4), rel=1e-9)
+    with pytest.raises(SeawayInputError, match="rms"):
+        mean_abs_from_rms(-0.1)

@@ -3,11 +3,13 @@
 
 Sources (keys used in the comments):
   [SPM1984]   USACE Shore Protection Manual (1984), Appendix C, Table C-1 (d/L versus d/L0).
-  [Newton-D]  exact solution of omega^2 = g k tanh(kh) computed independently (Python, numpy 2.4,
-              scipy 1.17) for the project's methods notes, sec. 1.4, tag [D]; reproduced here by
-              scipy.optimize.brentq as a second, independent root finder.
-  [mhkit-B]   mhkit 1.1.2 mhkit.wave.resource.wave_number / wave_celerity (g = 9.80665), values
-              recorded in the methods notes sec. 1.4, tag [B] (mhkit is not installed here).
+  [ref]       reference computation in this file (_reference_kinematics): k solving
+              omega^2 = g k tanh(kh) (Dean & Dalrymple, Water Wave Mechanics for Engineers and
+              Scientists, 1991, eq. 4.19) with scipy.optimize.brentq (not the core's Newton
+              solver); L = 2 pi / k, c = omega / k, n = c_g / c = (1 + 2kh / sinh 2kh) / 2
+              (Dean & Dalrymple 1991, group velocity, ch. 4; equation number from memory).
+              The tables below were printed from it; test_tables_follow_from_the_reference
+              recomputes every row, so each number is traceable from this file.
   [Airy]      Airy wave theory limits, SPM 1984 ch. 2; Dean & Dalrymple (1991) ch. 3.
 """
 from __future__ import annotations
@@ -29,9 +31,17 @@ from seaway_comfort.processing.core.waves.dispersion import (
 )
 from seaway_comfort.processing.core.validation import SeawayInputError
 
-G = 9.80665  # standard gravity, the g of every [D]/[B] value below
+G = 9.80665  # standard gravity [m/s^2] (CGPM 1901), the g of every table value below
 
-# d/L0, d/L, tanh(kd), n = c_g/c   -- [Newton-D] exact values (printed to 5 decimal places)
+
+def _reference_kinematics(period_s: float, depth_m: float):
+    """(k, L, c, c_g, n) by the [ref] computation of the module docstring."""
+    w = 2.0 * math.pi / period_s
+    k = brentq(lambda kk: w * w - G * kk * math.tanh(kk * depth_m), 1e-9, 50.0, xtol=1e-15, rtol=1e-14)
+    n = 0.5 * (1.0 + 2.0 * k * depth_m / math.sinh(2.0 * k * depth_m))
+    return k, 2.0 * math.pi / k, w / k, n * w / k, n
+
+# d/L0, d/L, tanh(kd), n = c_g/c   -- [ref] (printed to 5 decimal places)
 RELATIVE_DEPTH_TABLE = [
     (0.001, 0.01263, 0.07918, 0.99791),
     (0.01, 0.04032, 0.24804, 0.97923),
@@ -46,7 +56,7 @@ RELATIVE_DEPTH_TABLE = [
 # [SPM1984] Table C-1 rows as recalled (from memory, tag [C]; the table itself was not read):
 SPM_RECALLED = [(0.01, 0.04032), (0.1, 0.1410), (0.5, 0.5018)]
 
-# T [s], h [m], k [rad/m], L [m], c [m/s], c_g [m/s] -- [Newton-D]; k and c_g also [mhkit-B]
+# T [s], h [m], k [rad/m], L [m], c [m/s], c_g [m/s] -- [ref]; L to 3 decimals, the rest to 5 significant digits
 DIMENSIONAL_CASES = [
     (8.0, 10.0, 0.088641, 70.883, 8.8604, 7.1775),
     (10.0, 20.0, 0.051837, 121.210, 12.1210, 9.2716),
@@ -64,7 +74,7 @@ def _half_unit(value: float, sig: int = 5) -> float:
 
 @pytest.mark.parametrize("d_l0, d_l, tanh_kd, n_ratio", RELATIVE_DEPTH_TABLE)
 def test_relative_depth_table(d_l0: float, d_l: float, tanh_kd: float, n_ratio: float) -> None:
-    """d/L, tanh(kd) and n versus d/L0 [Newton-D], to half a unit of the 5th decimal."""
+    """d/L, tanh(kd) and n versus d/L0 [ref], to half a unit of the 5th decimal."""
     period = 8.0
     l0 = G * period**2 / (2.0 * math.pi)
     depth = d_l0 * l0
@@ -90,7 +100,7 @@ def test_spm_table_c1_recalled_rows(d_l0: float, d_l: float) -> None:
 def test_dimensional_cases(
     period: float, depth: float, k: float, length: float, c: float, cg: float
 ) -> None:
-    """k, L, c, c_g at given T and h [Newton-D], k and c_g also [mhkit-B]; rel. 1e-4."""
+    """k, L, c, c_g at given T and h [ref]; rel. 1e-4."""
     kin = wave_kinematics(period, depth, g_m_s2=G)
     assert float(kin.k_rad_m) == pytest.approx(k, rel=1e-4)
     assert float(kin.wavelength_m) == pytest.approx(length, rel=1e-4)
@@ -103,9 +113,26 @@ def test_dimensional_cases(
 
 
 @pytest.mark.parametrize("period, cg", [(12.0, 8.5947), (10.0, 8.0680)])
-def test_group_speed_mhkit_h10(period: float, cg: float) -> None:
-    """c_g at h = 10 m [mhkit-B] (mhkit 1.1.2 wave_celerity, recorded in the methods notes)."""
+def test_group_speed_h10(period: float, cg: float) -> None:
+    """c_g at h = 10 m, [ref] (printed to 5 significant digits)."""
+    assert _reference_kinematics(period, 10.0)[3] == pytest.approx(cg, abs=_half_unit(cg))
     assert float(group_speed_m_s(period, 10.0, g_m_s2=G)) == pytest.approx(cg, rel=1e-4)
+
+
+@pytest.mark.parametrize("d_l0, d_l, tanh_kd, n_ratio", RELATIVE_DEPTH_TABLE)
+def test_relative_depth_table_follows_from_the_reference(d_l0, d_l, tanh_kd, n_ratio) -> None:  # type: ignore[no-untyped-def]
+    period = 8.0
+    depth = d_l0 * G * period**2 / (2.0 * math.pi)
+    k, length, _, _, n = _reference_kinematics(period, depth)
+    assert (depth / length, math.tanh(k * depth), n) == (
+        pytest.approx(d_l, abs=0.5e-5), pytest.approx(tanh_kd, abs=0.5e-5), pytest.approx(n_ratio, abs=0.5e-5))
+
+
+@pytest.mark.parametrize("period, depth, k, length, c, cg", DIMENSIONAL_CASES)
+def test_dimensional_cases_follow_from_the_reference(period, depth, k, length, c, cg) -> None:  # type: ignore[no-untyped-def]
+    rk, rl, rc, rcg, _ = _reference_kinematics(period, depth)
+    assert (rk, rl, rc, rcg) == (pytest.approx(k, abs=_half_unit(k)), pytest.approx(length, abs=0.5e-3),
+                                 pytest.approx(c, abs=_half_unit(c)), pytest.approx(cg, abs=_half_unit(cg)))
 
 
 def test_against_brentq_reference_root_finder() -> None:

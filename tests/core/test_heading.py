@@ -7,9 +7,13 @@ Sources (keys used in the comments):
   [IMO1228]   IMO MSC.1/Circ.1228 (2007) symbol table: alpha = 0 head sea, 90 sea from starboard.
   [PNA1989]   Lewis (ed.) (1989) Principles of Naval Architecture vol. III ch. 8:
               omega_e = omega - k U cos(mu).
-  [methods-D] values computed independently for the project's methods notes (sec. 0 and 3.3,
-              tag [D], Python 3.11/numpy 2.4, g = 9.80665); quoted with their printed digits.
-  [practice]  practitioner's worked example: common practice, no source.
+  [ref]       reference computation in this file (_reference_encounter): omega = 2 pi / T; k from
+              the Airy dispersion relation omega^2 = g k tanh(k h) (Dean & Dalrymple, Water Wave
+              Mechanics for Engineers and Scientists, 1991, eq. 4.19; deep water k = omega^2 / g)
+              solved with scipy.optimize.brentq, not with the core's solver; c = omega / k;
+              omega_e = omega - k U cos mu [PNA1989]; Te = 2 pi / |omega_e|. The tables below were
+              printed from it and test_tables_follow_from_the_reference recomputes every row.
+  [practice]  practitioner's worked example: common practice, no source (rounded figures).
 """
 from __future__ import annotations
 
@@ -31,9 +35,24 @@ from seaway_comfort.processing.core.waves.encounter import (
 from seaway_comfort.processing.core.units import KNOT_M_S
 from seaway_comfort.processing.core.validation import SeawayInputError
 
-G = 9.80665
+G = 9.80665  # standard gravity [m/s^2] (CGPM 1901)
 
-# course, wave_from, mu (ITTC), alpha (IMO)  -- [methods-D] table of sec. 0, formulas [ITTC]/[IMO1228]
+
+def _reference_encounter(period_s, depth_m, speed_m_s, mu_deg):
+    """(k, c, omega_e, Te) by the [ref] computation of the module docstring."""
+    from scipy.optimize import brentq
+
+    w = 2.0 * math.pi / period_s
+    if depth_m is None:
+        k = w * w / G
+    else:
+        k = brentq(lambda kk: w * w - G * kk * math.tanh(kk * depth_m), 1e-9, 10.0, xtol=1e-15)
+    we = w - k * speed_m_s * math.cos(math.radians(mu_deg))
+    return k, w / k, we, 2.0 * math.pi / abs(we)
+
+# course, wave_from, mu (ITTC), alpha (IMO)  -- by hand from the definitions: waves coming from
+# dead ahead (from == course) are head seas, mu 180 [ITTC], alpha 0 [IMO1228]; a wave direction
+# turned by x deg clockwise from the bow turns mu by -x and alpha by +x.
 HEADING_TABLE = [
     (0.0, 0.0, 180.0, 0.0),      # head seas
     (180.0, 0.0, 0.0, 180.0),    # following seas
@@ -47,7 +66,7 @@ HEADING_TABLE = [
 @pytest.mark.parametrize("course, wave_from, mu, alpha", HEADING_TABLE)
 def test_relative_heading_table(course: float, wave_from: float, mu: float, alpha: float) -> None:
     """mu = (from + 180 - course) mod 360 [ITTC] and alpha = (from - course) mod 360 [IMO1228];
-    rows [methods-D]; mu = (alpha + 180) mod 360 and cos mu = -cos alpha in every row."""
+    rows by hand (table comment); mu = (alpha + 180) mod 360 and cos mu = -cos alpha in every row."""
     got_mu = float(relative_heading_deg(course, wave_from))
     got_alpha = float(imo_angle_of_encounter_deg(course, wave_from))
     assert got_mu == pytest.approx(mu, abs=1e-12)
@@ -80,7 +99,7 @@ def test_cos_deg_exact_quadrants() -> None:
     np.testing.assert_allclose(cos_deg([45.0, 135.0]), [math.sqrt(0.5), -math.sqrt(0.5)], rtol=1e-15)
 
 
-# T, h, U [m/s], mu, k, c, omega_e, Te -- [methods-D] table of sec. 3.3 (formula [PNA1989])
+# T, h, U [m/s], mu, k, c, omega_e, Te -- [ref] (formula [PNA1989]), printed digits
 U10 = 10.0 * KNOT_M_S
 ENCOUNTER_TABLE = [
     (8.0, None, U10, 180.0, 0.062901, 12.4862, 1.10899, 5.6657),
@@ -96,7 +115,8 @@ ENCOUNTER_TABLE = [
 
 @pytest.mark.parametrize("period, depth, speed, mu, k, c, omega_e, te", ENCOUNTER_TABLE)
 def test_encounter_table(period, depth, speed, mu, k, c, omega_e, te) -> None:  # type: ignore[no-untyped-def]
-    """[methods-D] sec. 3.3 rows to half a unit of the last printed digit; Te = L/|c - U cos mu|."""
+    """[ref] rows to half a unit of the last printed digit; Te = L/|c - U cos mu| is the same
+    quantity written with wavelength and celerity (equivalence of the core's two paths)."""
     enc = encounter_period(period, speed, mu, depth, g_m_s2=G)
     kin = wave_kinematics(period, depth, g_m_s2=G)
     assert float(kin.k_rad_m) == pytest.approx(k, abs=0.5e-6)
@@ -125,34 +145,47 @@ def test_encounter_frequency_function_matches_and_deep_form() -> None:
 
 def test_imo_nomogram_formula_close_to_exact() -> None:
     """The IMO practical formula TE = 3 TW^2/(3 TW + V cos alpha) (Circ.1228 Fig. 1, formula from
-    memory [C]) lies within 1.2 % of the exact deep-water period: [methods-D] gives (8 s, 10 kn,
-    alpha 0) 5.6471 vs 5.6657, (alpha 180) 13.7143 vs 13.6057, (10 s, 15 kn, alpha 180) 20.000
-    vs 19.779."""
+    memory [C]) lies within 1.2 % of the exact deep-water period, which [ref] gives as (8 s,
+    10 kn, alpha 0) 5.6657 (nomogram 5.6471), (alpha 180) 13.6057 (13.7143), (10 s, 15 kn,
+    alpha 180) 19.779 (20.000)."""
     for tw, v_kn, alpha, exact in [(8.0, 10.0, 0.0, 5.6657), (8.0, 10.0, 180.0, 13.6057), (10.0, 15.0, 180.0, 19.779)]:
         mu = (alpha + 180.0) % 360.0
         ours = float(encounter_period(tw, v_kn * KNOT_M_S, mu, g_m_s2=G).period_s)
+        assert _reference_encounter(tw, None, v_kn * 1852.0 / 3600.0, mu)[3] == pytest.approx(exact, abs=0.5e-3)
         assert ours == pytest.approx(exact, abs=0.5e-3)
         nomogram = 3 * tw**2 / (3 * tw + v_kn * math.cos(math.radians(alpha)))
         assert ours == pytest.approx(nomogram, rel=1.2e-2)
 
 
 def test_practitioner_worked_example() -> None:
-    """[practice] Deep water, representative period Te ~ 0.86 Tp: Tp 3 s -> L ~ 10.4 m, c ~ 4.03 m/s;
-    Tp 6 s -> L ~ 41.6 m, c ~ 8.05 m/s. Boat 3.25 m/s: head seas on the 3 s sea -> ~1.43 s;
-    following -> ~13.3 s; 6 s sea following -> ~8.66 s; waves travelling 40 deg off the course
-    (mu = 40) -> ~7.44 s. The example's figures are rounded; we compute 13.37 s and 7.47 s for
-    the two most sensitive cases, so the check allows 1 %."""
-    t3, t6 = 0.86 * 3.0, 0.86 * 6.0
-    k3, k6 = wave_kinematics(t3), wave_kinematics(t6)
-    assert float(k3.wavelength_m) == pytest.approx(10.4, abs=0.05)
-    assert float(k3.celerity_m_s) == pytest.approx(4.03, abs=0.005)
-    assert float(k6.wavelength_m) == pytest.approx(41.6, abs=0.05)
-    assert float(k6.celerity_m_s) == pytest.approx(8.05, abs=0.005)
+    """[practice] (common practice, no source; rounded figures) deep water, representative period
+    Te ~ 0.86 Tp: Tp 3 s -> L ~ 10.4 m, c ~ 4.03 m/s; Tp 6 s -> L ~ 41.6 m, c ~ 8.05 m/s. Boat
+    3.25 m/s: head seas on the 3 s sea -> ~1.43 s; following -> ~13.3 s; 6 s sea following ->
+    ~8.66 s; waves travelling 40 deg off the course (mu = 40) -> ~7.44 s. The core must equal
+    the [ref] computation (deep water: k = omega^2/g, L = g T^2 / (2 pi), c = g T / (2 pi);
+    e.g. T 2.58 s: L = 9.80665 * 2.58^2 / 6.28319 = 10.389 m); the example's rounded figures
+    must lie within 1 % of [ref] (it gives 13.37 s and 7.47 s for the two most sensitive)."""
     u = 3.25
-    assert float(encounter_period(t3, u, 180.0).period_s) == pytest.approx(1.43, rel=1e-2)
-    assert float(encounter_period(t3, u, 0.0).period_s) == pytest.approx(13.3, rel=1e-2)
-    assert float(encounter_period(t6, u, 0.0).period_s) == pytest.approx(8.66, rel=1e-2)
-    assert float(encounter_period(t6, u, 40.0).period_s) == pytest.approx(7.44, rel=1e-2)
+    for t, l_ex, c_ex in [(0.86 * 3.0, 10.4, 4.03), (0.86 * 6.0, 41.6, 8.05)]:
+        k, c, _, _ = _reference_encounter(t, None, u, 0.0)
+        kin = wave_kinematics(t, g_m_s2=G)
+        assert float(kin.wavelength_m) == pytest.approx(2 * math.pi / k, rel=1e-9)
+        assert float(kin.celerity_m_s) == pytest.approx(c, rel=1e-9)
+        assert 2 * math.pi / k == pytest.approx(l_ex, abs=0.05)
+        assert c == pytest.approx(c_ex, abs=0.005)
+    for t, mu, te_ex in [(0.86 * 3.0, 180.0, 1.43), (0.86 * 3.0, 0.0, 13.3), (0.86 * 6.0, 0.0, 8.66),
+                         (0.86 * 6.0, 40.0, 7.44)]:
+        te = _reference_encounter(t, None, u, mu)[3]
+        assert float(encounter_period(t, u, mu, g_m_s2=G).period_s) == pytest.approx(te, rel=1e-9)
+        assert te == pytest.approx(te_ex, rel=1e-2)
+
+
+@pytest.mark.parametrize("period, depth, speed, mu, k, c, omega_e, te", ENCOUNTER_TABLE)
+def test_tables_follow_from_the_reference(period, depth, speed, mu, k, c, omega_e, te) -> None:  # type: ignore[no-untyped-def]
+    """Every ENCOUNTER_TABLE row recomputed by [ref], to half a unit of its last printed digit."""
+    rk, rc, rwe, rte = _reference_encounter(period, depth, speed, mu)
+    assert (rk, rc, rwe, rte) == (pytest.approx(k, abs=0.5e-6), pytest.approx(c, abs=0.5e-4),
+                                  pytest.approx(omega_e, abs=0.5e-5), pytest.approx(te, abs=0.5e-4))
 
 
 def test_overtaking_and_zero_encounter() -> None:

@@ -9,8 +9,12 @@ Sources (keys used in the comments):
               (also used verbatim by mhkit 1.1.2 energy_period_to_peak_period, tag [B]).
   [PM-Gamma]  closed-form moments of omega^-5 exp(-B omega^-4) through the Gamma function
               (integral x^(n-5) exp(-B x^-4) dx = Gamma((4-n)/4) B^((n-4)/4) / 4).
-  [methods-D] values computed independently for the project's methods notes with scipy.integrate.quad
-              (Python 3.11, scipy 1.17; tag [D]); quoted with their printed digits.
+  [quad-ref]  reference computation in this file (_reference_jonswap, _reference_ratios): the
+              [DNV2010] eq. 3.5.5 JONSWAP written out anew, S(w) = A_g (5/16) Hs^2 wp^4 w^-5
+              exp(-1.25 (w/wp)^-4) g^exp(-(w-wp)^2 / (2 s^2 wp^2)), A_g = 1 - 0.287 ln g,
+              s = 0.07 (w <= wp) / 0.09, integrated by scipy.integrate.quad (split at wp); the
+              tables below were printed from it and test_integrated_table_follows_from_quad
+              recomputes every row.
   [mhkit-B]   mhkit 1.1.2 results recorded in the methods notes (tag [B]); mhkit not installed here.
   [LH1963]    Longuet-Higgins, Cartwright & Smith (1963): cos-2s normalisation.
   [Kuik1988]  Kuik, van Vledder & Holthuijsen (1988) J. Phys. Oceanogr. 18: sigma_theta = sqrt(2(1-m1)).
@@ -135,13 +139,13 @@ def test_pm_moments_and_period_ratios_closed_form() -> None:
     assert float(tm_minus10_s(s, om)) / TP == pytest.approx(q * gamma_fn(1.25), rel=5e-6)
     assert float(tm01_s(s, om)) / TP == pytest.approx(q / gamma_fn(0.75), rel=5e-6)
     assert float(tm02_s(s, om)) / TP == pytest.approx(q * math.pi**-0.25, rel=5e-6)
-    # printed values [methods-D]
+    # the same closed forms printed to 6 decimals (scipy.special.gamma), typed so a changed q fails
     assert q * gamma_fn(1.25) == pytest.approx(0.857223, abs=0.5e-6)
     assert q / gamma_fn(0.75) == pytest.approx(0.771771, abs=0.5e-6)
     assert q * math.pi**-0.25 == pytest.approx(0.710371, abs=0.5e-6)
 
 
-# gamma, Hm0/Hs with A_gamma, Tz/Tp, T1/Tp, Te/Tp  -- [methods-D] (quad, Hs 2, Tp 8), 4 decimals
+# gamma, Hm0/Hs with A_gamma, Tz/Tp, T1/Tp, Te/Tp  -- [quad-ref] (Hs 2, Tp 8), 4 decimals
 INTEGRATED_TABLE = [
     (1.0, 1.0000, 0.7104, 0.7718, 0.8572),
     (2.0, 0.9989, 0.7464, 0.8063, 0.8835),
@@ -153,7 +157,7 @@ INTEGRATED_TABLE = [
 
 @pytest.mark.parametrize("gam, hm0_ratio, tz, t1, te", INTEGRATED_TABLE)
 def test_integrated_periods_table(gam: float, hm0_ratio: float, tz: float, t1: float, te: float) -> None:
-    """Hm0/Hs (A_gamma accuracy) and period ratios versus gamma [methods-D], half a unit of 1e-4."""
+    """Hm0/Hs (A_gamma accuracy) and period ratios versus gamma [quad-ref], half a unit of 1e-4."""
     om = _fine_grid()
     s = jonswap_s_m2_s_rad(om, HS, TP, gam)
     half = 0.5e-4 + 1e-6  # printed to 4 decimals (+ margin for the grid's 1e-6 truncation)
@@ -177,9 +181,35 @@ def test_period_ratio_fits_versus_integrals(gam: float) -> None:
     assert float(tm_minus10_s(s, om)) / TP == pytest.approx(te_fit, rel=3e-3)
 
 
+def _reference_jonswap(w: float, gam: float) -> float:
+    """[quad-ref] DNV-RP-C205 eq. 3.5.5 at Hs = HS, Tp = TP [m^2 s/rad]."""
+    sig = 0.07 if w <= WP else 0.09
+    pm = (5.0 / 16.0) * HS**2 * WP**4 * w**-5 * math.exp(-1.25 * (w / WP) ** -4)
+    return (1.0 - 0.287 * math.log(gam)) * pm * gam ** math.exp(-((w - WP) ** 2) / (2 * sig**2 * WP**2))
+
+
+def _reference_ratios(gam: float):
+    """(Hm0/Hs, Tz/Tp, T1/Tp, Te/Tp) by quad of _reference_jonswap: Hm0 = 4 sqrt(m0),
+    Tz = 2 pi sqrt(m0/m2), T1 = 2 pi m0/m1, Te = 2 pi m_-1/m0 (DNV-RP-C205 s.3.5.5 definitions)."""
+    def m(n: int) -> float:
+        return sum(integrate.quad(lambda w: w**n * _reference_jonswap(w, gam), a, b, limit=400,
+                                  epsabs=0, epsrel=1e-11)[0] for a, b in ((1e-3 * WP, WP), (WP, 200 * WP)))
+    m0, m1, m2, mm1 = m(0), m(1), m(2), m(-1)
+    return (4 * math.sqrt(m0) / HS, 2 * math.pi * math.sqrt(m0 / m2) / TP, 2 * math.pi * m0 / m1 / TP,
+            2 * math.pi * mm1 / m0 / TP)
+
+
+@pytest.mark.parametrize("gam, hm0_ratio, tz, t1, te", INTEGRATED_TABLE)
+def test_integrated_table_follows_from_quad(gam: float, hm0_ratio: float, tz: float, t1: float, te: float) -> None:
+    """Every INTEGRATED_TABLE row recomputed by [quad-ref], half a unit of 1e-4 (+ the m2 tail
+    beyond 200 wp, < 1e-5 relative)."""
+    got = _reference_ratios(gam)
+    assert got == tuple(pytest.approx(v, abs=0.5e-4 + 1e-5) for v in (hm0_ratio, tz, t1, te))
+
+
 def test_independent_quad_check() -> None:
     """m0, m1, m_-1 of JONSWAP (gamma 3.3) by scipy.integrate.quad (reference library) on the
-    spectrum function versus our trapezoid moments; quad split at wp as in [methods-D]."""
+    spectrum function versus our trapezoid moments; quad split at wp as in [quad-ref]."""
     om = _fine_grid()
     s = jonswap_s_m2_s_rad(om, HS, TP, 3.3)
 
@@ -191,7 +221,7 @@ def test_independent_quad_check() -> None:
         ref = sum(integrate.quad(lambda w: w**n * spec(w), a, b, limit=200, epsabs=0, epsrel=1e-11)[0]
                   for a, b in pieces)
         assert float(spectral_moment(s, om, n)) == pytest.approx(ref, rel=2e-6)
-    # quad's own Hm0 reproduces the A_gamma error of the table: 1.0012 [methods-D]
+    # quad's own Hm0 reproduces the A_gamma error of the table: 1.0012 [quad-ref]
     m0 = sum(integrate.quad(spec, a, b, limit=200)[0] for a, b in [(1e-6 * WP, WP), (WP, np.inf)])
     assert 4 * math.sqrt(m0) / HS == pytest.approx(1.0012, abs=0.5e-4)
 
@@ -380,7 +410,8 @@ def test_cos2s_bad_input() -> None:
 
 
 def test_spread_s_from_sigma() -> None:
-    """[Kuik1988] s = 2/sigma^2 - 1: sigma 30 deg -> s = 6.295 [methods-D]; round trip."""
+    """[Kuik1988] s = 2/sigma^2 - 1: sigma 30 deg = pi/6 rad -> s = 2/0.274156 - 1 = 6.2951
+    (by hand); round trip."""
     assert float(spread_s_from_sigma_deg(30.0)) == pytest.approx(6.295, abs=0.5e-3)
     s = np.array([0.5, 2.0, 6.0, 40.0])
     np.testing.assert_allclose(spread_s_from_sigma_deg(sigma_deg_from_spread_s(s)), s, rtol=1e-12)

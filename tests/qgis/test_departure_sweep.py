@@ -6,9 +6,6 @@ against hand storm timing and compute_passage in tests/core/test_sweep.py) calle
 the same inputs; the storm pick by hand as there (geographiclib distance / speed); the saved QML
 with Python's xml.etree; the layers with QGIS's OGR provider. Each bad input must give a
 QgsProcessingException whose text names the input and says what to fix.
-
-Until the project lead adds DepartureSweepAlgorithm to ALGORITHM_CLASSES, the fixture below
-adds it to the session's provider for these tests only (and removes it afterwards).
 """
 from __future__ import annotations
 
@@ -60,22 +57,12 @@ def seas(tmp_path_factory):
 
 @pytest.fixture(scope="module")
 def sweep_registered(seaway_provider):
+    """The algorithm as the provider itself registers it (never added by the test: a provider
+    that drops it from ALGORITHM_CLASSES must fail here)."""
     from qgis.core import QgsApplication
 
-    from seaway_comfort.processing import provider as prov_mod
-    from seaway_comfort.processing.algorithms.departure_sweep import DepartureSweepAlgorithm
-
-    reg = QgsApplication.processingRegistry()
-    if reg.algorithmById(ALG) is not None:
-        yield
-        return
-    original = prov_mod.algorithm_classes
-    prov_mod.algorithm_classes = lambda: [*original(), DepartureSweepAlgorithm]
-    seaway_provider.refreshAlgorithms()
-    assert reg.algorithmById(ALG) is not None
-    yield
-    prov_mod.algorithm_classes = original
-    seaway_provider.refreshAlgorithms()
+    assert ALG.split(":")[1] in [a.name() for a in seaway_provider.algorithms()], "provider lacks " + ALG
+    assert QgsApplication.processingRegistry().algorithmById(ALG) is not None, ALG
 
 
 def _geojson(path, features):

@@ -49,6 +49,9 @@ def files(tmp_path):
     os.symlink(tmp_path / "boat_rao.csv", tmp_path / "rao_link.html")
     os.link(vessel, tmp_path / "boat_hard.html")
     os.symlink(sea, tmp_path / "sea_link.html")
+    (tmp_path / "barriers.geojson").write_text(json.dumps({"type": "FeatureCollection", "features": [{
+        "type": "Feature", "properties": {},
+        "geometry": {"type": "Polygon", "coordinates": [[[5, 5], [6, 5], [6, 6], [5, 5]]]}}]}))
     return tmp_path
 
 
@@ -65,6 +68,9 @@ CASES = {
         ROUTE=str(f / "route.geojson"), SEA_STATE=[str(f / "sea.nc")], VESSEL=str(f / "boat_link.json"),
         SPEED_KN=8.0, SPACING_NM=2.0, DEPART_FROM="2030-06-01T01:00:00Z", DEPART_TO="2030-06-01T04:00:00Z",
         DEPART_STEP_H=1.0, OUTPUT_TABLE=str(f / "t.gpkg")),
+    "seawaycomfort:comforttrack": lambda f: dict(
+        PASSAGE, ROUTE=str(f / "route.geojson"), SEA_STATE=[str(f / "sea.nc")], VESSEL=str(f / "boat_link.json"),
+        BARRIERS=str(f / "barriers.geojson"), OUTPUT_TRACKS=str(f / "k.gpkg")),
     "seawaycomfort:seasonalclimate": lambda f: dict(
         ROUTE=str(f / "route.geojson"), HINDCAST=[str(f / "sea.nc")], VESSEL=str(f / "boat_link.json"),
         SPEED_KN=8.0, MONTHS="6", MAX_CLASS=1, WORKERS=1, OUTPUT_SEGMENTS=str(f / "g.gpkg")),
@@ -117,6 +123,17 @@ def test_route_as_output_and_stored_profiles(seaway_provider, files):
         stored.unlink()
         if made:
             shutil.rmtree(folder)
+    assert _snapshot(files) == before
+
+
+def test_comfort_track_protects_its_barriers(seaway_provider, files):
+    import processing
+    from qgis.core import QgsProcessingException
+
+    params = CASES["seawaycomfort:comforttrack"](files)
+    before = _snapshot(files)
+    with pytest.raises(QgsProcessingException, match="OUTPUT_REPORT .*also an input.*BARRIERS layer"):
+        processing.run("seawaycomfort:comforttrack", dict(params, OUTPUT_REPORT=str(files / "barriers.geojson")))
     assert _snapshot(files) == before
 
 

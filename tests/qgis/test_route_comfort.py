@@ -145,25 +145,38 @@ def test_end_to_end_matches_core(seaway_provider, route, sea, tmp_path):
 
 
 def test_nulls_where_not_computed(seaway_provider, sea, tmp_path):
-    """Samples outside the grid (east of 10.25 E) and overtaking samples get NULL, not 0."""
-    from qgis.PyQt.QtCore import QVariant
-
+    """Samples outside the grid (east of 10.25 E) and overtaking samples get NULL, not 0, as QGIS
+    reads the layer back. The features are turned into plain values and the layer dropped
+    before any assertion: a failing assertion's traceback must not keep a QgsVectorLayer alive
+    past exitQgis() (freed afterwards by the garbage collector, it crashed the process with
+    exit 139 instead of reporting the failure)."""
+    fields = ("hs_m", "heave_rms_m", "msi_pct", "comfort_class", "comfort_label", "enc_period_s")
     rt = _geojson(tmp_path / "r.geojson", [({"name": "off east"}, [[9.5, 0.0], [11.0, 0.0]]),
                                             ({"name": "fast south", "speed_kn": 30.0}, [[0.0, 1.0], [0.0, 0.5]])])
     res = _run(_params(rt, sea, tmp_path))
-    _, feats = _features(res["OUTPUT_POINTS"])
-    off = [f for f in feats if f.geometry().asPoint().x() > 10.3]
+    layer, feats = _features(res["OUTPUT_POINTS"])
+    rows = [dict({n: _plain(f[n]) for n in fields + ("flags", "leg")}, x=f.geometry().asPoint().x())
+            for f in feats]
+    del layer, feats
+    off = [r for r in rows if r["x"] > 10.3]
     assert off
-    for f in off:
-        for field in ("hs_m", "heave_rms_m", "msi_pct", "comfort_class", "comfort_label", "enc_period_s"):
-            v = f[field]
-            assert v is None or (isinstance(v, QVariant) and v.isNull()), (field, v)
-        assert "OFFGRID" in f["flags"]
-    fast = [f for f in feats if int(f["leg"]) == 1]
-    for f in fast:  # 30 kn in following seas outruns 8 s crests (c0 = 12.5 m/s)
-        assert "OUTRUN" in f["flags"]
-        assert _num(f["enc_period_s"]) is None
-        assert _num(f["heave_rms_m"]) is not None
+    for r in off:
+        assert [r[n] for n in fields] == [None] * len(fields), r
+        assert "OFFGRID" in r["flags"]
+    fast = [r for r in rows if int(r["leg"]) == 1]
+    for r in fast:  # 30 kn in following seas outruns 8 s crests (c0 = 12.5 m/s)
+        assert "OUTRUN" in r["flags"]
+        assert r["enc_period_s"] is None
+        assert r["heave_rms_m"] is not None
+
+
+def _plain(v):
+    """A QGIS attribute value as a plain Python value, NULL as None."""
+    from qgis.PyQt.QtCore import QVariant
+
+    if v is None or (isinstance(v, QVariant) and v.isNull()):
+        return None
+    return v if isinstance(v, (int, float, str)) else str(v)
 
 
 def test_styles_and_time_saved_beside_outputs(seaway_provider, route, sea, tmp_path):
@@ -418,3 +431,51 @@ def test_datetimes_stored_as_utc_on_every_qgis(seaway_provider, route, sea, tmp_
         con.close()
         assert etas and all(e.endswith("Z") for e in etas), etas[:3]
         assert etas[0] == "2030-06-01T01:00:00.000Z"
+
+
+def _gpkg_rows(path, columns):
+    """Rows of the single feature table of a GeoPackage read with Python's sqlite3 (OGC
+    GeoPackage 1.3, OGC 12-128r18, s.1.1.3: feature tables are SQLite tables listed in
+    gpkg_contents), as plain Python values; SQL NULL comes back as None. Reads outside QGIS, so
+    a failure holds no QGIS object alive in its traceback."""
+    import sqlite3
+    from contextlib import closing
+
+    with closing(sqlite3.connect(f"file:{path}?mode=ro", uri=True)) as con:
+        (table,), = con.execute("SELECT table_name FROM gpkg_contents WHERE data_type = 'features'").fetchall()
+        sql = "SELECT " + ", ".join(f'"{c}"' for c in columns) + f' FROM "{table}" ORDER BY leg, seq'
+        return [dict(zip(columns, row)) for row in con.execute(sql)]
+
+
+def test_null_stays_null_in_the_written_geopackage(seaway_provider, sea, tmp_path):
+    """Leg 0 runs east along the equator from 9.5 E to 11 E; the sea grid's last cell centre is
+    10 E, its edge 10.25 E, so samples farther than s(9.5 -> 10.25 E) = 45.0 nm (geographiclib,
+    WGS84) from the start have no sea state: hs_m, heave_rms_m, msi_pct, enc_period_s and
+    comfort_class must be SQL NULL, not 0. Leg 1 runs south at 30 kn with waves from the north
+    (following seas): the deep-water crest speed c = g T / (2 pi) = 9.80665 * 8 / (2 pi) =
+    12.49 m/s (Airy; Dean & Dalrymple 1991 eq. 4.19 with tanh -> 1) is below 30 kn =
+    15.43 m/s, so the vessel outruns the crests and the encounter period is undefined (NULL)
+    while the motions are computed (not NULL). On-grid values are the field's Hs 2.0 m."""
+    import math
+
+    rt = _geojson(tmp_path / "r.geojson", [({"name": "off east"}, [[9.5, 0.0], [11.0, 0.0]]),
+                                            ({"name": "fast south", "speed_kn": 30.0}, [[0.0, 1.0], [0.0, 0.5]])])
+    res = _run(_params(rt, sea, tmp_path))
+    cols = ["leg", "seq", "dist_nm", "hs_m", "heave_rms_m", "msi_pct", "enc_period_s", "comfort_class", "flags"]
+    rows = _gpkg_rows(res["OUTPUT_POINTS"], cols)
+    edge_nm = Geodesic.WGS84.Inverse(0.0, 9.5, 0.0, 10.25)["s12"] / 1852.0
+    assert edge_nm == pytest.approx(45.0, abs=0.2)
+    assert 9.80665 * 8.0 / (2 * math.pi) < 30.0 * 1852.0 / 3600.0
+    leg0 = [r for r in rows if r["leg"] == 0]
+    off = [r for r in leg0 if r["dist_nm"] > edge_nm + 1.0]
+    on = [r for r in leg0 if r["dist_nm"] < edge_nm - 1.0]
+    fast = [r for r in rows if r["leg"] == 1]
+    assert off and on and fast, (len(off), len(on), len(fast))
+    for r in off:
+        assert [r[c] for c in ("hs_m", "heave_rms_m", "msi_pct", "enc_period_s", "comfort_class")] \
+            == [None] * 5, r
+    for r in on:
+        assert r["hs_m"] == pytest.approx(2.0, rel=1e-6), r
+    for r in fast:
+        assert r["enc_period_s"] is None, r
+        assert r["heave_rms_m"] is not None and r["heave_rms_m"] > 0.0, r

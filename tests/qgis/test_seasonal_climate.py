@@ -35,22 +35,12 @@ VESSEL = "coastal_survey_35m"
 
 @pytest.fixture(scope="module")
 def registered(seaway_provider):
+    """The algorithm as the provider itself registers it (never added by the test: a provider
+    that drops it from ALGORITHM_CLASSES must fail here)."""
     from qgis.core import QgsApplication
 
-    from seaway_comfort.processing import provider as prov_mod
-    from seaway_comfort.processing.algorithms.seasonal_climate import SeasonalClimateAlgorithm
-
-    reg = QgsApplication.processingRegistry()
-    if reg.algorithmById(ALG) is not None:
-        yield
-        return
-    original = prov_mod.algorithm_classes
-    prov_mod.algorithm_classes = lambda: [*original(), SeasonalClimateAlgorithm]
-    seaway_provider.refreshAlgorithms()
-    assert reg.algorithmById(ALG) is not None
-    yield
-    prov_mod.algorithm_classes = original
-    seaway_provider.refreshAlgorithms()
+    assert ALG.split(":")[1] in [a.name() for a in seaway_provider.algorithms()], "provider lacks " + ALG
+    assert QgsApplication.processingRegistry().algorithmById(ALG) is not None, ALG
 
 
 @pytest.fixture(scope="module")
