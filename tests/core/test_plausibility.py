@@ -152,7 +152,9 @@ def test_passage_leaves_impossible_seas_uncomputed_and_flags_them(tmp_path):
 
 
 def test_depth_under_the_draught_is_flagged(tmp_path):
-    """0.5 m of water under a 2.7 m draught: DRYDEPTH and SHALLOW on every sample."""
+    """0.5 m of water under a 2.7 m draught: DRYDEPTH (depth <= draught) on every sample, and
+    SHALLOW by its own rule (Tp 8 s at 0.5 m: Airy L = 17.6 m, L/20 = 0.88 m > 0.5 m); at 2.0 m,
+    still under the draught but not below L/20 (0.5 * 34.69 / 10 = 1.73 m), DRYDEPTH alone."""
     src, lon, lat = _sea(tmp_path, 8.0)
     tif = str(tmp_path / "depth.tif")
     write_bathymetry_geotiff(tif, lon, lat, np.full((lat.size, lon.size), 0.5), convention="depth_positive_down")
@@ -162,3 +164,8 @@ def test_depth_under_the_draught_is_flagged(tmp_path):
                                 depth=open_bathymetry(tif, convention="depth_positive_down"))
     want = int(SampleFlag.DEPTH_ON_LAND | SampleFlag.SHALLOW_WATER)
     assert np.all((r.flags & want) == want)
+    write_bathymetry_geotiff(tif, lon, lat, np.full((lat.size, lon.size), 2.0), convention="depth_positive_down")
+    r2 = passage.compute_passage([-1.0, -0.5], [0.0, 0.0], departure_utc=T0, speed_kn=10.0, sea_states=[src],
+                                 profile=prof, spacing_nm=5.0,
+                                 depth=open_bathymetry(tif, convention="depth_positive_down"))
+    assert np.all(r2.flags & int(SampleFlag.DEPTH_ON_LAND)) and not np.any(r2.flags & int(SampleFlag.SHALLOW_WATER))

@@ -143,12 +143,13 @@ def _chosen_method(method: Optional[str], n_computed: int) -> str:
 
 
 def _aground_flags(depth_m: FloatArray, profile: object) -> NDArray[np.int64]:
-    """DRYDEPTH and SHALLOW where the charted depth is no more than the vessel's draught (the
-    vessel would touch bottom there; common practice, no source: no under-keel margin assumed)."""
+    """DRYDEPTH where the charted depth is no more than the vessel's draught (the vessel would
+    touch bottom there; common practice, no source: no under-keel margin assumed). SHALLOW keeps
+    its own rule (depth < L/20, :func:`_kinematics`)."""
     draught = float(getattr(profile, "draught_m", 0.0) or 0.0)
     with np.errstate(invalid="ignore"):
         under = np.isfinite(depth_m) & (depth_m <= draught)
-    return np.where(under, int(SampleFlag.DEPTH_ON_LAND | SampleFlag.SHALLOW_WATER), 0).astype(np.int64)
+    return np.where(under, int(SampleFlag.DEPTH_ON_LAND), 0).astype(np.int64)
 
 
 def respond_motions(track: Track, sea: SeaAtSamples, profile: object, *, station: Optional[str] = None,
