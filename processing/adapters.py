@@ -26,6 +26,7 @@ from qgis.PyQt.QtCore import QDate, QDateTime, Qt, QTime, QVariant
 from .core.flags import flag_codes_array
 from .core.passage.fields import ENSEMBLE_OUTPUTS, MOTION_OUTPUTS
 from .core.passage.pipeline import NOT_COMPUTED_CLASS, PassageResult
+from .core.plausibility import SPEED_KN
 from .core.validation import show
 
 WGS84 = "EPSG:4326"
@@ -168,6 +169,11 @@ def _leg_speed(raw: Any, speed_field: str, label: str) -> Optional[float]:
         ) from None
     if not (math.isfinite(speed) and speed > 0):
         raise QgsProcessingException(f"ROUTE: field {speed_field} of {show(label)} must be > 0 kn, got {show(raw)}")
+    if speed > SPEED_KN.high:
+        raise QgsProcessingException(
+            f"ROUTE: field {speed_field} of {show(label)} = {show(raw)} is not a plausible speed "
+            f"(allowed {SPEED_KN.text()}: {SPEED_KN.reason})"
+        )
     return speed
 
 
@@ -177,6 +183,12 @@ def _part_to_wgs84(pts: Sequence[Any], k: int, label: str, crs: Any, xform: Any)
     ys = [p.y() for p in pts]
     if len(xs) < 2:
         raise QgsProcessingException(f"ROUTE: part {k + 1} of {show(label)} has fewer than 2 vertices")
+    nan = [i for i, (x, y) in enumerate(zip(xs, ys)) if not (math.isfinite(x) and math.isfinite(y))]
+    if nan:
+        raise QgsProcessingException(
+            f"ROUTE: vertex {nan[0] + 1} of part {k + 1} of {show(label)} has a coordinate that is not a "
+            f"number ({xs[nan[0]]}, {ys[nan[0]]}): fix or delete that vertex"
+        )
     if crs.isGeographic() and not _looks_like_degrees(xs, ys):
         raise QgsProcessingException(
             f"ROUTE: {show(label)} has coordinates like ({xs[0]:.1f}, {ys[0]:.1f}) that are not degrees, but "

@@ -45,10 +45,11 @@ class TrackJob:
     barrier_rings: Tuple[Any, ...]
     min_depth_m: float
     max_detour_pct: float
+    barrier_source: str = ""
 
     @property
-    def inputs(self) -> List[str]:
-        return common.input_paths(self.settings, self.route_source)
+    def inputs(self) -> List[Any]:
+        return common.input_paths(self.settings, self.route_source) + [("BARRIERS layer", self.barrier_source)]
 
 
 def barrier_rings(alg: Any, run: Run) -> Tuple[Any, ...]:
@@ -123,8 +124,10 @@ class ComfortTrackAlgorithm(SeawayAlgorithm):
         raw = run.parameters.get(MIN_DEPTH_M)
         depth_min = (2.0 * float(settings.profile.draught_m) if raw in (None, "")
                      else self.parameterAsDouble(run.parameters, MIN_DEPTH_M, run.context))
+        barriers = self.parameterAsVectorLayer(run.parameters, BARRIERS, run.context)
         return TrackJob(settings, legs[0], route_src, barrier_rings(self, run), depth_min,
-                        self.parameterAsDouble(run.parameters, MAX_DETOUR_PCT, run.context))
+                        self.parameterAsDouble(run.parameters, MAX_DETOUR_PCT, run.context),
+                        barriers.source() if barriers is not None else "")
 
     def compute(self, run: Run, job: TrackJob) -> Any:
         from ..core.routing.barriers import barriers_from_rings

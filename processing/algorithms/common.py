@@ -32,6 +32,7 @@ from qgis.core import (
 from qgis.PyQt.QtCore import QCoreApplication, QDateTime
 
 from ..core.validation import SeawayInputError, show
+from ..protected_inputs import file_part
 
 ROUTE = "ROUTE"
 SEA_STATE = "SEA_STATE"
@@ -245,8 +246,14 @@ def resolve_vessel_spec(spec: str) -> Any:
     user = user_vessel_dir() / f"{text}.json"
     try:
         if text not in builtin_profile_names() and user.is_file():
-            return load_vessel_profile(user)
-        return resolve_vessel(text)
+            profile = load_vessel_profile(user)
+        else:
+            profile = resolve_vessel(text)
+        if profile.rao_table_path() is not None:  # read now, before any work
+            from ..core.motions.rao_table import load_rao_table
+
+            load_rao_table(profile.rao_table_path())
+        return profile
     except SeawayInputError as exc:
         stored = sorted(p.stem for p in user_vessel_dir().glob("*.json")) if user_vessel_dir().is_dir() else []
         extra = f"; profiles in your QGIS profile folder: {', '.join(stored)}" if stored else ""
@@ -300,7 +307,32 @@ def _source_names(
     return names or default_source_names(paths)
 
 
+def _probe(path: str, param: str) -> None:
+    """Refuse a raster file that kills GDAL (probed in a child process, see core.seastate.probe)."""
+    from ..core.seastate.probe import probe_raster_file
+
+    try:
+        probe_raster_file(path, what=f"{param} file")
+    except SeawayInputError as exc:
+        raise QgsProcessingException(str(exc)) from exc
+
+
+def checked_speed_kn(speed: float, what: str = SPEED_KN) -> float:
+    """A plausible speed through the water (core.plausibility.SPEED_KN) or a message naming ``what``."""
+    from ..core.plausibility import SPEED_KN as SPEED_RANGE, check_range
+
+    if not speed > 0:
+        raise QgsProcessingException(f"{what} must be > 0 kn, got {speed:g}: give the planned speed through the water")
+    try:
+        return float(check_range(SPEED_RANGE, what, speed))
+    except SeawayInputError as exc:
+        raise QgsProcessingException(f"{exc}: give the planned speed through the water") from None
+
+
 def _depth_path(alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], context: QgsProcessingContext) -> Optional[str]:
+    raw = parameters.get(DEPTH)
+    if isinstance(raw, str) and os.path.isfile(raw):
+        _probe(raw, DEPTH)  # before QGIS opens it as a layer
     layer = alg.parameterAsRasterLayer(parameters, DEPTH, context)
     if layer is not None:
         return layer.source()
@@ -403,7 +435,7 @@ def parse_passage_settings(
     names = _source_names(alg, parameters, context, paths)
     depth_path = _depth_path(alg, parameters, context)
     departure = parse_datetime(alg, parameters, DEPARTURE, context)
-    speed = positive(alg, parameters, SPEED_KN, context, "kn", ": give the planned speed through the water")
+    speed = checked_speed_kn(alg.parameterAsDouble(parameters, SPEED_KN, context))
     spacing = positive(alg, parameters, SPACING_NM, context, "NM")
     gamma, spread = spectrum_shape(alg, parameters, context)
     vessel_spec, profile, station = vessel_and_station(alg, parameters, context)
@@ -426,34 +458,41 @@ def parse_passage_settings(
     )
 
 
-def _norm(path: str) -> str:
-    return os.path.normcase(os.path.realpath(os.path.abspath(path)))
+def vessel_input_files(spec: str, profile: Any) -> List[Tuple[str, str]]:
+    """(label, path) of every file the VESSEL choice reads: the profile JSON (built-in, stored or
+    given), the RAO table / hull sections it names, and every stored profile."""
+    from ..core.vessel.profile import BUILTIN_DIR, builtin_profile_names
+    from ..protected_inputs import profile_files
+
+    text = (spec or "").strip()
+    user = user_vessel_dir() / f"{text}.json" if text else None
+    if text in builtin_profile_names():
+        loaded: Optional[str] = str(BUILTIN_DIR / f"{text}.json")
+    elif user is not None and user.is_file():
+        loaded = str(user)
+    else:
+        loaded = text if text and os.path.isfile(text) else None
+    return profile_files(text, profile, loaded, stored_dirs=[user_vessel_dir()])
 
 
-def file_part(source_or_uri: str) -> str:
-    """The file path of an OGR/GDAL source string (before '|' options, without ogr: prefixes)."""
-    text = str(source_or_uri or "")
-    if text.startswith("ogr:"):
-        text = text[4:]
-        if "dbname=" in text:
-            text = text.split("dbname=", 1)[1].strip().split(" ")[0].strip("'\"")
-    return text.split("|", 1)[0]
-
-
-def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[str]) -> None:
-    """Refuse outputs that would overwrite an input, or that cannot be written.
+def check_outputs(outputs: Sequence[Tuple[str, str]], inputs: Sequence[Any]) -> None:
+    """Refuse outputs that would overwrite an input (also through links), or that cannot be written.
 
     ``outputs``: (parameter name, destination path or URI); memory/temporary outputs pass.
+    ``inputs``: paths or (label, path) pairs of every file the run reads.
     """
-    ins = {_norm(file_part(p)): p for p in inputs if p and os.path.exists(file_part(p))}
+    from ..protected_inputs import find_clash, protect
+
+    protected = protect(inputs)
     for name, dest in outputs:
         if not dest or str(dest).startswith(("memory:", "TEMPORARY_OUTPUT")):
             continue
         path = file_part(dest)
-        if _norm(path) in ins:
+        clash = find_clash(path, protected)
+        if clash is not None:
             raise QgsProcessingException(
-                f"{name} {show(path)} is also an input ({show(ins[_norm(path)])}): choose another output "
-                "file; inputs are never overwritten"
+                f"{name} {show(path)} is also an input of this run ({clash.label} {show(clash.path)}): choose "
+                "another output file; inputs are never overwritten"
             )
         folder = os.path.dirname(os.path.abspath(path)) or "."
         if not os.path.isdir(folder):
@@ -604,9 +643,10 @@ def passage_options(settings: PassageSettings, depth: Any, method: Optional[str]
                 gamma=settings.gamma, spread_s=settings.spread_s, long_crested=settings.long_crested, method=method)
 
 
-def input_paths(settings: PassageSettings, route_source: str) -> List[str]:
-    """Every input file of a passage run (no output may overwrite one)."""
-    return [route_source, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
+def input_paths(settings: PassageSettings, route_source: str) -> List[Any]:
+    """Every input file of a passage run (no output may overwrite one): paths and (label, path)."""
+    return ([route_source, *settings.sea_state_paths] + ([settings.depth_path] if settings.depth_path else [])
+            + vessel_input_files(settings.vessel_spec, settings.profile))
 
 
 def spectrum_text(settings: PassageSettings) -> str:

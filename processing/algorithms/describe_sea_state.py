@@ -55,8 +55,8 @@ class DescribeJob:
     path: str
 
     @property
-    def inputs(self) -> List[str]:
-        return [self.path]
+    def inputs(self) -> List[Any]:
+        return [("INPUT file", self.path)]
 
 
 class DescribeSeaStateAlgorithm(SeawayAlgorithm):

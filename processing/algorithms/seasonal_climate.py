@@ -133,10 +133,11 @@ class ClimateJob:
     leg: Any = None
     route_source: str = ""
     route_text: str = ""
+    vessel_spec: str = ""
 
     @property
-    def inputs(self) -> List[str]:
-        return [self.route_source, *self.paths]
+    def inputs(self) -> List[Any]:
+        return [self.route_source, *self.paths, *common.vessel_input_files(self.vessel_spec, self.profile)]
 
 
 class SeasonalClimateAlgorithm(SeawayAlgorithm):
@@ -219,7 +220,7 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         common.use_settings_cache_dir()
         p, ctx = run.parameters, run.context
         paths = common.existing_files(self, p, HINDCAST, ctx, "hindcast file (NetCDF-CF or GRIB2)")
-        speed = common.positive(self, p, common.SPEED_KN, ctx, "kn", ": give the planned speed through the water")
+        speed = common.checked_speed_kn(self.parameterAsDouble(p, common.SPEED_KN, ctx))
         max_class = common.parse_max_class(self, p, ctx)
         with common.input_error("MONTHS: "):
             months = parse_months(self.parameterAsString(p, MONTHS, ctx))
@@ -228,14 +229,15 @@ class SeasonalClimateAlgorithm(SeawayAlgorithm):
         if workers < 1:
             raise QgsProcessingException(f"WORKERS must be >= 1, got {workers}")
         scheduler = (self.parameterAsString(p, SCHEDULER, ctx) or "").strip() or None
-        _, profile, station = common.vessel_and_station(self, p, ctx)
+        vessel_spec, profile, station = common.vessel_and_station(self, p, ctx)
         with common.input_error("SCHEDULER/WORKERS: "):
             backend = make_backend("local", workers=workers, scheduler=scheduler,
                                    fallback_local=self.parameterAsBoolean(p, FALLBACK_LOCAL, ctx))
         legs, route_src = common.read_route(self, p, ctx, run.feedback)
         leg = common.join_route(legs, run.feedback)
         return ClimateJob(tuple(paths), speed, max_class, months, gamma, spread, backend, scheduler, profile,
-                          station, leg, route_src, common.route_layer_and_text(p.get(common.ROUTE), ctx)[1])
+                          station, leg, route_src, common.route_layer_and_text(p.get(common.ROUTE), ctx)[1],
+                          vessel_spec)
 
     def compute(self, run: Run, job: ClimateJob) -> Any:
         from ..core.climate import ClimateCancelled, compute_climate

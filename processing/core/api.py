@@ -49,6 +49,10 @@ from .comfort.guidance import circ1228_flags
 from .motions.table_cache import cached_table_set, is_cached
 from .motions.tables import ResponseTableSet
 from .motions.closed_form import ClosedFormTransfer
+from .plausibility import (
+    DEPTH_M, EXPOSURE_H, GAMMA, HS_M, SPEED_M_S, SPREAD_S, STEEPNESS_DOUBT, TP_S,
+    check_range, doubtful, sea_steepness,
+)
 from .units import G_STANDARD_M_S2, FloatArray
 from .validation import (
     SeawayInputError,
@@ -94,6 +98,7 @@ class SeaPartitions:
 
     def __post_init__(self) -> None:
         hs, tp, wf = prepare_sea(self.hs_m, self.tp_s, self.wave_from_deg)
+        _check_sea("partitions.hs_m", hs, "partitions.tp_s", tp)
         p = hs.shape[1]
         gam = np.atleast_1d(as_float_array("gamma", self.gamma)).astype(float)
         spr = np.atleast_1d(require_nonnegative("spread_s", self.spread_s)).astype(float)
@@ -323,7 +328,10 @@ def assess_motions(
         coefficients from memory).
 
     NaN or inf anywhere in the inputs raises SeawayInputError naming the argument: mask samples
-    without sea data before calling. Unknown station: SeawayInputError listing the stations.
+    without sea data before calling. Every argument has a plausibility range
+    (:mod:`.plausibility`, with its reason): an impossible value (Tp 0.01 s, Hs over 30 m, over
+    80 kn) raises SeawayInputError naming the argument, the value and its index; a doubtful one
+    (a sea steeper than Hs/Lp0 = 1/15 included) sets IMPLAUSIBLE_VALUE (ODDVALUE) on its sample. Unknown station: SeawayInputError listing the stations.
     """
     if not isinstance(profile, VesselProfile):
         raise SeawayInputError(f"profile must be a VesselProfile, got {type(profile).__name__}")
@@ -331,10 +339,16 @@ def assess_motions(
     hs, tp, wf, gam, spr = _sea_inputs(partitions, hs_m, tp_s, wave_from_deg, course_deg, speed_m_s, gamma, spread_s)
     n = hs.shape[0]
     course = _vec("course_deg", course_deg, n)
-    speed = _vec("speed_m_s", speed_m_s, n, nonneg=True)
+    speed = _vec("speed_m_s", check_range(SPEED_M_S, "speed_m_s", speed_m_s), n)
     depth = None
     if depth_m is not None:
-        depth = _vec("depth_m", require_positive("depth_m", depth_m, allow_inf=True), n)
+        d = require_positive("depth_m", depth_m, allow_inf=True)
+        check_range(DEPTH_M, "depth_m", np.where(np.isinf(d), 1.0, d))
+        depth = _vec("depth_m", d, n)
+    check_range(EXPOSURE_H, "exposure_h", exposure_h)
+    for name, v, lo, hi in (("n_freq", n_freq, 8, 4096), ("n_dir", n_dir, 1, 720)):
+        if isinstance(v, bool) or not isinstance(v, (int, np.integer)) or not lo <= v <= hi:
+            raise SeawayInputError(f"{name} must be a whole number in [{lo}, {hi}], got {show(v)}")
     if method is None or method == "auto":
         method = choose_method(profile, n, speed_m_s=speed, station=st.name, gamma=gam, spread_s=spr,
                                long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
@@ -381,11 +395,29 @@ def _sea_inputs(partitions: Optional[SeaPartitions], hs_m: Optional[ArrayLike], 
     for name, v in (("hs_m", hs_m), ("tp_s", tp_s), ("wave_from_deg", wave_from_deg)):
         if v is None:
             raise SeawayInputError(f"{name} is required when partitions is not given")
-    hs = np.atleast_1d(require_nonnegative("hs_m", hs_m)).reshape(-1)
-    n0 = max(hs.size, np.size(tp_s), np.size(wave_from_deg), np.size(course_deg), np.size(speed_m_s))
-    return (_vec("hs_m", hs, n0, nonneg=True)[:, None], _vec("tp_s", require_positive("tp_s", tp_s), n0)[:, None],
-            _vec("wave_from_deg", wave_from_deg, n0)[:, None], np.array([float(as_float_array("gamma", gamma))]),
-            np.array([float(require_nonnegative("spread_s", spread_s))]))
+    hs = np.atleast_1d(check_range(HS_M, "hs_m", hs_m)).reshape(-1)
+    tp = np.atleast_1d(check_range(TP_S, "tp_s", tp_s)).reshape(-1)
+    n0 = max(hs.size, tp.size, np.size(wave_from_deg), np.size(course_deg), np.size(speed_m_s))
+    hs2, tp2 = _vec("hs_m", hs, n0)[:, None], _vec("tp_s", tp, n0)[:, None]
+    _check_sea("hs_m", hs2, "tp_s", tp2)
+    return (hs2, tp2, _vec("wave_from_deg", wave_from_deg, n0)[:, None],
+            np.array([float(check_range(GAMMA, "gamma", gamma))]),
+            np.array([float(check_range(SPREAD_S, "spread_s", spread_s))]))
+
+
+def _check_sea(hs_name: str, hs: FloatArray, tp_name: str, tp: FloatArray) -> None:
+    """Hs and Tp within their :mod:`.plausibility` ranges (steepness is judged per sample)."""
+    check_range(HS_M, hs_name, hs)
+    check_range(TP_S, tp_name, tp)
+
+
+def _doubt_flags(sea: "_Sea") -> NDArray[np.int64]:
+    """IMPLAUSIBLE_VALUE where a sea value or the speed is possible but doubtful (plausibility)."""
+    live = sea.hs > 0
+    odd = (doubtful(HS_M, sea.hs) | (live & doubtful(TP_S, sea.tp))
+           | (live & (sea_steepness(sea.hs, sea.tp) > STEEPNESS_DOUBT))).any(axis=1)
+    odd |= doubtful(SPEED_M_S, sea.speed)
+    return np.where(odd, int(SampleFlag.IMPLAUSIBLE_VALUE), 0).astype(np.int64)
 
 
 def _exact(transfer: Any, st: Station, sea: _Sea, grid: Tuple[bool, int, int],
@@ -432,7 +464,7 @@ def _assessment(profile: VesselProfile, st: Station, sea: _Sea, r: MotionRespons
                             gamma=sea.gam)
     vacc, lacc = r.vacc_rms_m_s2[:, 0], r.lacc_rms_m_s2[:, 0]
     v = comfort_verdict(st.task, vacc, r.vacc_omega_rad_s[:, 0], lacc, r.roll_rms_deg, exposure_h=exposure_h)
-    flags = r.flags | safety.mask
+    flags = r.flags | safety.mask | _doubt_flags(sea)
     flags = flags | np.where(v.criteria.exceeded, int(SampleFlag.CRITERIA_EXCEEDED), 0).astype(np.int64)
     return MotionAssessment(
         heave_rms_m=r.heave_rms_m, pitch_rms_deg=r.pitch_rms_deg, roll_rms_deg=r.roll_rms_deg,

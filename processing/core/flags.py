@@ -76,7 +76,7 @@ FLAG_EXPLANATIONS: Dict[SampleFlag, str] = {
     SampleFlag.PARTIAL_VARIABLES: "Some sea-state variables are missing here; the stated fallback was used.",
     SampleFlag.IMPLAUSIBLE_VALUE: "A sea-state value is outside the plausible range; check the file's units.",
     SampleFlag.DEPTH_ASSUMED_DEEP: "No depth available here; deep water assumed.",
-    SampleFlag.DEPTH_ON_LAND: "Bathymetry reports land or zero depth at this sea point; deep water assumed.",
+    SampleFlag.DEPTH_ON_LAND: "Bathymetry reports land, zero depth or less water than the vessel's draught at this sea point (deep water assumed where it reports land).",
     SampleFlag.OVERTAKING: "The vessel outruns the peak-period wave crests; the regular encounter period is undefined.",
     SampleFlag.OUTSIDE_VALIDITY: "Sea state or speed outside the response method's validity range; results indicative only.",
     SampleFlag.SHALLOW_WATER: "Shallow water at the peak period (depth < 1/20 wavelength); waves may steepen or break.",

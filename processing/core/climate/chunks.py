@@ -122,5 +122,5 @@ def run_chunk(task: ChunkTask) -> ChunkResult:
         index=task.index, a=task.a, b=task.b, class_counts=cc,
         exceed_counts=_count(months, sc.exceeded[own]), limit_counts=_count(months, sc.method_limit[own]),
         implausible_counts=_count(months, sc.implausible[own]), steps=st, dep_ok=ok, dep_known=kn,
-        dep_unknown=st - kn, dep_past_end=pe, wait=waiting_partial(ds.acceptable, months, task.a),
+        dep_unknown=st - kn, dep_past_end=pe, wait=waiting_partial(ds.acceptable, months, task.a, known=ds.known),
     )

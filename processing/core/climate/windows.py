@@ -22,9 +22,10 @@ Definitions used (our choices, stated in every output):
   unacceptable departures) among the departure steps in month m (all years pooled).
 * Waiting time: a start time uniformly distributed over the hindcast steps of month m (the
   discrete analogue of a random start in the month); the wait is the time to the next
-  ACCEPTABLE departure at or after it (0 when the start itself is acceptable). UNKNOWN
-  departures count as not acceptable for waiting. A start with no acceptable departure before
-  the data end is CENSORED: it is not in the mean and its count is reported.
+  ACCEPTABLE departure at or after it (0 when the start itself is acceptable). A start whose
+  wait reaches an UNKNOWN departure (missing data, or the data end) before an acceptable one is
+  CENSORED: the missing data may have held a window, so the wait is not known; censored starts
+  are not in the mean and their count is reported. A month without data thus has no mean wait.
 
 Chunked evaluation: departures are processed in chunks of steps; a chunk needs the classes
 of its own steps plus the passage length after them (the overlap). Waiting times that run past
@@ -34,8 +35,8 @@ all sums are integers, so the result does not depend on how the steps were chunk
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
-from typing import Iterable
+from dataclasses import dataclass, field
+from typing import Iterable, Optional
 
 import numpy as np
 from numpy.typing import NDArray
@@ -120,28 +121,41 @@ class WaitPartial:
     resolved_count: NDArray[np.int64]
     pending_count: NDArray[np.int64]
     pending_sum_j: NDArray[np.int64]
+    censored_count: NDArray[np.int64] = field(default_factory=lambda: np.zeros(N_MONTHS, dtype=np.int64))
+    first_unknown: int = -1
 
 
-def waiting_partial(acceptable: NDArray[np.bool_], month_index: NDArray[np.int64], j0: int) -> WaitPartial:
-    """Waits of the start steps j0.. j0+len-1 inside one chunk (module docstring)."""
+def waiting_partial(acceptable: NDArray[np.bool_], month_index: NDArray[np.int64], j0: int,
+                    known: Optional[NDArray[np.bool_]] = None) -> WaitPartial:
+    """Waits of the start steps j0.. j0+len-1 inside one chunk (module docstring); ``known``
+    False marks UNKNOWN departures (None: all known)."""
     ok = np.asarray(acceptable, dtype=bool)
     m = np.asarray(month_index, dtype=np.int64)
-    if ok.shape != m.shape:
-        raise SeawayInputError(f"acceptable {ok.shape} and month_index {m.shape} differ in shape")
-    n = ok.size
-    pos = int(j0) + np.arange(n, dtype=np.int64)
-    big = np.iinfo(np.int64).max
-    nxt = np.minimum.accumulate(np.where(ok, pos, big)[::-1])[::-1] if n else pos
-    res = nxt != big
-    wait = np.where(res, nxt - pos, 0)
+    unk = np.zeros(ok.shape, dtype=bool) if known is None else ~np.asarray(known, dtype=bool)
+    if ok.shape != m.shape or unk.shape != ok.shape:
+        raise SeawayInputError(f"acceptable {ok.shape}, month_index {m.shape} and known {unk.shape} differ in shape")
+    ok = ok & ~unk
+    pos = int(j0) + np.arange(ok.size, dtype=np.int64)
+    nxt, nxu = _next_true(ok, pos), _next_true(unk, pos)
+    res = nxt < nxu                       # an acceptable departure comes before any unknown one
+    cen = nxu < nxt                       # the wait reaches missing data first
+    pend = ~res & ~cen                    # neither within the chunk
     z = np.zeros(N_MONTHS, dtype=np.int64)
-    rs, rc, pc, pj = z.copy(), z.copy(), z.copy(), z.copy()
-    np.add.at(rs, m[res], wait[res])
+    rs, rc, pc, pj, cc = z.copy(), z.copy(), z.copy(), z.copy(), z.copy()
+    np.add.at(rs, m[res], (nxt - pos)[res])
     np.add.at(rc, m[res], 1)
-    np.add.at(pc, m[~res], 1)
-    np.add.at(pj, m[~res], pos[~res])
+    np.add.at(cc, m[cen], 1)
+    np.add.at(pc, m[pend], 1)
+    np.add.at(pj, m[pend], pos[pend])
     first = int(pos[ok][0]) if ok.any() else -1
-    return WaitPartial(first, rs, rc, pc, pj)
+    first_unk = int(pos[unk][0]) if unk.any() else -1
+    return WaitPartial(first, rs, rc, pc, pj, cc, first_unk)
+
+
+def _next_true(flags: NDArray[np.bool_], pos: NDArray[np.int64]) -> NDArray[np.int64]:
+    """Position of the first True at or after each position (int64 max when none)."""
+    big = np.iinfo(np.int64).max
+    return np.minimum.accumulate(np.where(flags, pos, big)[::-1])[::-1] if pos.size else pos
 
 
 @dataclass(frozen=True)
@@ -160,14 +174,20 @@ def merge_waits(parts: Iterable[WaitPartial]) -> WaitTotals:
     c = np.zeros(N_MONTHS, dtype=np.int64)
     pc = np.zeros(N_MONTHS, dtype=np.int64)
     pj = np.zeros(N_MONTHS, dtype=np.int64)
+    cens = np.zeros(N_MONTHS, dtype=np.int64)
     for p in parts:
-        if p.first_ok >= 0:
+        if p.first_unknown >= 0 and (p.first_ok < 0 or p.first_unknown < p.first_ok):
+            cens += pc             # the pending waits reach missing data first
+            pc[:] = 0
+            pj[:] = 0
+        elif p.first_ok >= 0:
             s += pc * p.first_ok - pj
             c += pc
             pc[:] = 0
             pj[:] = 0
         s += p.resolved_steps
         c += p.resolved_count
+        cens += p.censored_count
         pc += p.pending_count
         pj += p.pending_sum_j
-    return WaitTotals(sum_steps=s, count=c, censored=pc)
+    return WaitTotals(sum_steps=s, count=c, censored=pc + cens)

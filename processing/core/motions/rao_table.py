@@ -26,6 +26,7 @@ from __future__ import annotations
 
 import csv
 import math
+import re
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Dict, List, Optional, Sequence, Union
@@ -90,11 +91,27 @@ def _err(source: str, msg: str) -> SeawayInputError:
     return SeawayInputError(f"{source}: {msg}")
 
 
+AMPLITUDE_MAX: Dict[str, float] = {"heave_m_per_m": 10.0, "pitch_deg_per_m": 90.0, "roll_deg_per_m": 90.0}
+"""Impossible above (common practice, no source): heave RAOs of ships peak at about 1-3 m/m; a
+unit-amplitude wave cannot pitch or roll a hull by a right angle."""
+FREQ_RANGE: Dict[str, tuple] = {"period_s": (0.1, 1000.0), "freq_hz": (0.001, 10.0), "omega_rad_s": (0.006, 63.0)}
+"""Impossible outside (common practice, no source): tables may reach far into the long-wave
+limit, but a period beyond 1000 s or below 0.1 s is a unit mix-up (milliseconds, say)."""
+_NAME_LIKE = re.compile(r"^[A-Za-z][A-Za-z0-9_]{0,39}$")
+
+
 def _frequency_column(cols: List[str], source: str) -> str:
-    """Check the header's column names; the one frequency column's name."""
+    """Check the header's column names; the one frequency column's name. A header without any
+    known column is not a RAO table: its text is not repeated (the file may be anything)."""
     unknown = [c for c in cols if c not in _ALLOWED]
+    if len(unknown) == len(cols):
+        raise _err(source, f"is not a RAO table: its first line is not a header of the columns "
+                           f"{', '.join(_ALLOWED)}")
     if unknown:
-        raise _err(source, f"unknown column(s) {', '.join(map(repr, unknown))}; allowed: {', '.join(_ALLOWED)}")
+        names = [repr(c) for c in unknown if _NAME_LIKE.match(c)]
+        other = len(unknown) - len(names)
+        listed = ", ".join(names + ([f"{other} more"] if other else []))
+        raise _err(source, f"unknown column(s) {listed}; allowed: {', '.join(_ALLOWED)}")
     if len(set(cols)) != len(cols):
         raise _err(source, f"duplicate column names in header {show(cols)}")
     fcols = [c for c in cols if c in FREQ_COLUMNS]
@@ -122,7 +139,7 @@ def _parse_cells(cols: List[str], rows: Sequence[Sequence[str]], ln: List[int],
             try:
                 v = float(s)
             except ValueError:
-                raise _err(source, f"line {line} column {c} is not a number: {show(s)}") from None
+                raise _err(source, f"line {line} column {c} is not a number: {show(s[:20])}") from None
             if not math.isfinite(v):
                 raise _err(source, f"line {line} column {c} must be finite, got {show(s)}")
             data[c].append(v)
@@ -140,11 +157,20 @@ def _check_ranges(data: Dict[str, FloatArray], fcol: str, ln: List[int], source:
     bad = np.flatnonzero((h < 0) | (h >= 360))
     if bad.size:
         raise _err(source, f"line {ln[bad[0]]} column heading_deg must lie in [0, 360), got {show(h[bad[0]])}")
+    lo, hi = FREQ_RANGE[fcol]
+    bad = np.flatnonzero((f < lo) | (f > hi))
+    if bad.size:
+        raise _err(source, f"line {ln[bad[0]]} column {fcol} = {show(f[bad[0]])} is not a plausible ocean wave "
+                           f"(allowed {lo:g} to {hi:g}; wrong unit?)")
     for c in AMPLITUDE_COLUMNS:
         a = data[c]
         bad = np.flatnonzero(a < 0)
         if bad.size:
             raise _err(source, f"line {ln[bad[0]]} column {c} is a negative amplitude: {show(a[bad[0]])}")
+        bad = np.flatnonzero(a > AMPLITUDE_MAX[c])
+        if bad.size:
+            raise _err(source, f"line {ln[bad[0]]} column {c} = {show(a[bad[0]])} is not a plausible amplitude "
+                               f"per metre of wave (allowed 0 to {AMPLITUDE_MAX[c]:g}; wrong unit?)")
 
 
 def _check_order(f: FloatArray, h: FloatArray, fcol: str, ln: List[int], source: str) -> None:
@@ -217,7 +243,9 @@ def load_rao_table(path: Union[str, Path]) -> RaoTable:
     try:
         text = p.read_text(encoding="utf-8")
     except OSError as exc:
-        raise SeawayInputError(f"cannot read RAO table {show(str(p))}: {exc}") from None
+        raise SeawayInputError(f"cannot read RAO table {show(str(p))}: {exc.strerror}") from None
+    except UnicodeDecodeError:
+        raise SeawayInputError(f"RAO table {show(str(p))} is not UTF-8 text: not a RAO table CSV") from None
     lines = text.splitlines()
     rows: List[List[str]] = []
     numbers: List[int] = []

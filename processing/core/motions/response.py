@@ -52,6 +52,7 @@ from ..waves.dispersion import wavenumber_rad_m
 from ..flags import SampleFlag
 from ..waves.encounter import cos_deg, relative_heading_deg
 from ..waves.spectra import FrequencyGrid, direction_grid, frequency_grid_rad_s, jonswap_s_m2_s_rad
+from ..plausibility import HS_M, TP_S, check_range
 from ..units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray
 from ..validation import (
     SeawayInputError,
@@ -162,11 +163,12 @@ def prepare_sea(
 ) -> Tuple[FloatArray, FloatArray, FloatArray]:
     """Validate partition arrays and return them as (n, p) float arrays.
 
-    1-D input (n,) means one partition; scalars broadcast. hs >= 0 (0 = absent), tp > 0,
-    directions finite. Errors name the argument and the first bad value.
+    1-D input (n,) means one partition; scalars broadcast. hs >= 0 (0 = absent) and tp within
+    their plausibility ranges (:mod:`..plausibility`), directions finite. Errors name the
+    argument and the first bad value.
     """
-    hs = require_nonnegative("hs_m", hs_m)
-    tp = require_positive("tp_s", tp_s)
+    hs = check_range(HS_M, "hs_m", require_nonnegative("hs_m", hs_m))
+    tp = check_range(TP_S, "tp_s", require_positive("tp_s", tp_s))
     wf = as_float_array("wave_from_deg", wave_from_deg)
     arrs = [np.atleast_1d(a) for a in (hs, tp, wf)]
     arrs = [a[:, None] if a.ndim == 1 else a for a in arrs]

@@ -16,6 +16,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
+from ..plausibility import SPEED_KN, check_range
 from ..units import FloatArray
 from ..validation import SeawayInputError, as_float_array, require_in_range, require_positive, show
 
@@ -137,7 +138,7 @@ def plan_passage(
     from .route import arrival_times_utc, densify_route
 
     lon, lat = _leg_vertices(route_lon_deg, route_lat_deg)
-    speed = require_positive("speed_kn", speed_kn)
+    speed = check_range(SPEED_KN, "speed_kn", speed_kn)
     if speed.ndim != 0:
         raise SeawayInputError(f"speed_kn must be one number per leg, got shape {speed.shape}")
     require_positive("spacing_nm", spacing_nm)

@@ -25,6 +25,7 @@ from numpy.typing import NDArray
 
 from ..comfort.exposure import NOT_COMPUTED_CLASS, dose_intervals, dwell_s
 from ..flags import UNCLASSED_FLAGS, SampleFlag
+from ..plausibility import HS_M, TP_S
 from ..units import FloatArray, m_s_from_kn, nm_from_m
 from ..validation import SeawayInputError, require_positive
 from .fields import MOTION_OUTPUT_NAMES
@@ -86,7 +87,19 @@ def _computable(sea: SeaAtSamples) -> NDArray[np.bool_]:
     """
     comp = sea.valid & np.isfinite(sea.hs_m) & np.isfinite(sea.tp_s) & np.isfinite(sea.wave_from_deg)
     comp &= (sea.flags & int(UNCLASSED_FLAGS)) == 0
-    return comp & (sea.tp_s > 0) & (sea.hs_m >= 0)
+    comp &= _possible(sea.hs_m, sea.tp_s)
+    if sea.partition_names:  # a partition with an impossible value spoils its sample (NaN = absent)
+        p_hs, p_tp = sea.partition_hs_m, sea.partition_tp_s
+        given = np.isfinite(p_hs) & np.isfinite(p_tp)
+        comp &= ~(given & ~_possible(np.where(given, p_hs, 0.0), np.where(given, p_tp, TP_S.low))).any(axis=1)
+    return comp
+
+
+def _possible(hs: FloatArray, tp: FloatArray) -> NDArray[np.bool_]:
+    """Hs and Tp inside the hard bounds of :mod:`..plausibility` (outside: left uncomputed, the
+    sampler's IMPLAUSIBLE_VALUE flag says why)."""
+    with np.errstate(invalid="ignore"):
+        return (hs >= HS_M.low) & (hs <= HS_M.high) & (tp >= TP_S.low) & (tp <= TP_S.high)
 
 
 def _kinematics(track: Track, sea: SeaAtSamples, idx: NDArray[np.int64], depth_arg: FloatArray,
@@ -150,6 +163,16 @@ def _chosen_method(method: Optional[str], track: Track, idx: NDArray[np.int64], 
                          gamma=np.full(p, gamma), spread_s=np.full(p, spread_s), long_crested=long_crested)
 
 
+def _aground_flags(depth_m: FloatArray, profile: object) -> NDArray[np.int64]:
+    """DRYDEPTH where the charted depth is no more than the vessel's draught (the vessel would
+    touch bottom there; common practice, no source: no under-keel margin assumed). SHALLOW keeps
+    its own rule (depth < L/20, :func:`_kinematics`)."""
+    draught = float(getattr(profile, "draught_m", 0.0) or 0.0)
+    with np.errstate(invalid="ignore"):
+        under = np.isfinite(depth_m) & (depth_m <= draught)
+    return np.where(under, int(SampleFlag.DEPTH_ON_LAND), 0).astype(np.int64)
+
+
 def respond_motions(track: Track, sea: SeaAtSamples, profile: object, *, station: Optional[str] = None,
                     gamma: float = 3.3, spread_s: float = 4.0, long_crested: bool = False,
                     method: Optional[str] = None, progress: Optional[Progress] = None) -> SampleMotions:
@@ -166,6 +189,7 @@ def respond_motions(track: Track, sea: SeaAtSamples, profile: object, *, station
         raise SeawayInputError(f"sea has {sea.hs_m.size} samples but the plan has {n}")
     gamma_v, spread_v = float(require_positive("gamma", gamma)), float(require_positive("spread_s", spread_s))
     flags, comp = sea.flags.copy(), _computable(sea)
+    flags |= _aground_flags(sea.depth_m, profile)
     idx = np.flatnonzero(comp)
     depth_arg = np.where(np.isfinite(sea.depth_m), sea.depth_m, np.inf)
     kin = _kinematics(track, sea, idx, depth_arg, flags)

@@ -6,6 +6,7 @@ only (see :data:`..flags.CAUTION`).
 """
 from __future__ import annotations
 
+from . import probe
 from .bathymetry import Bathymetry, DepthSample, open_bathymetry
 from .inventory import GridDescription, IgnoredEntry, Inventory, VariableEntry
 from .source import (

@@ -29,6 +29,7 @@ from ..units import FloatArray
 from ..validation import SeawayInputError, as_float_array, require_in_range, show
 from .grid import bilinear_corners, read_window_for
 from .layer import gdal_call, grid_from_dataset, open_gdal
+from .probe import probe_raster_file
 from .variables import HEIGHT, unit_conversion
 
 CONVENTIONS = ("auto", "depth_positive_down", "elevation_positive_up")
@@ -189,6 +190,7 @@ def open_bathymetry(path: str, *, convention: str = "auto") -> Bathymetry:
     """Open a bathymetry raster; ``convention`` "auto", "depth_positive_down" or "elevation_positive_up"."""
     if convention not in CONVENTIONS:
         raise SeawayInputError(f"convention must be one of {', '.join(CONVENTIONS)}, got {show(convention)}")
+    probe_raster_file(str(path), what="bathymetry file")
     name, md = _pick_dataset(str(path))
     ds = open_gdal(name, what="bathymetry file")
     units = ds.GetRasterBand(1).GetUnitType() or md.get("units", "")

@@ -29,6 +29,7 @@ from .layer import DatasetCache, VariableLayer, open_gdal
 from .layer_choice import choose_by_member
 from .members import member_text
 from .netcdf import discover_netcdf
+from .probe import probe_raster_file
 from .sampler import LayerSample, sample_layer
 from .timeaxis import as_utc_seconds, to_datetime64
 from .variables import PARTITIONS
@@ -45,6 +46,7 @@ class SamplingCancelled(Exception):
 
 def _discover(path: str, inverse_map: Dict[str, str], direction_convention: str,
               times_utc: Optional[Sequence], strict: bool) -> Discovery:
+    probe_raster_file(path, what="forecast file")  # a file that kills GDAL never reaches this process
     ds = open_gdal(path, what="forecast file")
     driver = ds.GetDriver().ShortName
     del ds

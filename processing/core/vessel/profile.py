@@ -65,6 +65,22 @@ _KNOWN_TASKS = (
 CB_MIN, CB_MAX = 0.35, 1.0
 """Accepted block-coefficient range (the closed-form motion model is built for this range)."""
 
+FIELD_RANGES: Dict[str, Tuple[float, float, str]] = {
+    "length_wl_m": (1.0, 500.0, "the longest ships ever built measure about 460 m (from memory)"),
+    "beam_m": (0.3, 80.0, "the widest ships measure about 60-70 m (from memory)"),
+    "draught_m": (0.1, 30.0, "the deepest-draught tankers draw about 25-30 m (from memory)"),
+    "roll_period_s": (1.0, 60.0, "small craft roll in about 2-4 s, large ships in 10-30 s "
+                                 "(common practice, no source)"),
+    "service_speed_kn": (0.0, 80.0, "the fastest craft in commercial service make about 40-60 kn "
+                                    "(common practice, no source)"),
+}
+"""Impossible outside [low, high] (low excluded for the speed): field -> (low, high, reason)."""
+GM_DOUBT_LOW_M = 0.15
+"""Doubtful below: the IMO 2008 IS Code, Part A 2.2.4, asks initial GM >= 0.15 m (from memory)."""
+FROUDE_DOUBT = 0.6
+"""Doubtful above: a service Froude number U / sqrt(g L) beyond about 0.6 is planing, outside
+the displacement-hull motion models (common practice, no source)."""
+
 
 def estimate_waterplane_coeff(block_coeff: float) -> float:
     """Waterplane-area coefficient estimated from the block coefficient.
@@ -168,10 +184,40 @@ class VesselProfile:
                 object.__setattr__(self, fname, _num(src, fname, v))
         self._check_hull(src)
         self._check_stability(src)
+        self._check_ranges(src)
         object.__setattr__(self, "stations", tuple(self.stations))
         self._check_stations(src)
         if self.rao_table is not None and (not isinstance(self.rao_table, str) or not self.rao_table):
             raise _err(src, f"rao_table must be a non-empty path string or null, got {show(self.rao_table)}")
+
+    def _check_ranges(self, src: str) -> None:
+        """FIELD_RANGES, and GM no larger than the hydrostatic bound KB + BM with KG >= 0:
+        GM <= T + B^2 / (12 Cb T), since KB <= T and BM = I_T / V <= (L B^3 / 12) / (Cb L B T)
+        (the waterplane's transverse inertia is at most that of its L x B rectangle; textbook
+        hydrostatics, e.g. Rawson & Tupper, Basic Ship Theory, ch. 3, from memory) [m]."""
+        for fname, (lo, hi, why) in FIELD_RANGES.items():
+            v = getattr(self, fname)
+            if v is not None and (v > hi or v < lo or (fname == "service_speed_kn" and v <= lo)):
+                raise _err(src, f"{fname} = {show(v)} is not plausible (allowed {lo:g} to {hi:g}: {why})")
+        if self.gm_m is not None and self.draught_m > 0 and self.block_coeff > 0:
+            gm_max = self.draught_m + self.beam_m ** 2 / (12.0 * self.block_coeff * self.draught_m)
+            if self.gm_m > gm_max:
+                raise _err(src, f"gm_m = {show(self.gm_m)} is impossible for this hull: GM cannot exceed "
+                                f"T + B^2 / (12 Cb T) = {gm_max:.3g} m (KB + BM with G above the keel)")
+
+    def doubts(self) -> List[str]:
+        """Possible but doubtful values, one line each (shown as warnings; none refuse the profile)."""
+        out = []
+        if self.gm_m is not None and self.gm_m < GM_DOUBT_LOW_M:
+            out.append(f"gm_m = {self.gm_m:g} m is below the IMO 2008 IS Code minimum of {GM_DOUBT_LOW_M:g} m")
+        fn = self.service_speed_kn * 1852.0 / 3600.0 / math.sqrt(9.80665 * self.length_wl_m)
+        if fn > FROUDE_DOUBT:
+            out.append(f"service speed {self.service_speed_kn:g} kn is a Froude number of {fn:.2f} "
+                       f"(> {FROUDE_DOUBT:g}: planing, outside the motion models)")
+        if not 2.0 <= self.length_wl_m / self.beam_m <= 12.0:
+            out.append(f"L/B = {self.length_wl_m / self.beam_m:.2f} is outside 2-12, common for monohulls "
+                       "(common practice, no source)")
+        return out
 
     def _check_hull(self, src: str) -> None:
         """L > 0, 0 < B <= L, 0 < T <= B, Cb in [CB_MIN, CB_MAX], Cwp in [Cb, 1]."""
