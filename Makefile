@@ -30,7 +30,7 @@ pkgroot:
 	@mkdir -p $(PKGROOT) && ln -sfn ../.. $(PKGROOT)/seaway_comfort
 
 test: setup
-	SEAWAY_REQUIRE_QGIS=1 QT_QPA_PLATFORM=offscreen PROJ_DATA=/usr/share/proj $(PY) -P -m pytest -q
+	SEAWAY_REQUIRE_QGIS=1 QT_QPA_PLATFORM=offscreen PROJ_DATA=/usr/share/proj $(PY) -P -m pytest -q $(PYTEST_ARGS)
 
 # Debian 13 and unstable in a debootstrap chroot under .build/chroot-SUITE (built once, reused).
 test-trixie:
