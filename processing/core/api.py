@@ -340,15 +340,8 @@ def assess_motions(
     n = hs.shape[0]
     course = _vec("course_deg", course_deg, n)
     speed = _vec("speed_m_s", check_range(SPEED_M_S, "speed_m_s", speed_m_s), n)
-    depth = None
-    if depth_m is not None:
-        d = require_positive("depth_m", depth_m, allow_inf=True)
-        check_range(DEPTH_M, "depth_m", np.where(np.isinf(d), 1.0, d))
-        depth = _vec("depth_m", d, n)
-    check_range(EXPOSURE_H, "exposure_h", exposure_h)
-    for name, v, lo, hi in (("n_freq", n_freq, 8, 4096), ("n_dir", n_dir, 1, 720)):
-        if isinstance(v, bool) or not isinstance(v, (int, np.integer)) or not lo <= v <= hi:
-            raise SeawayInputError(f"{name} must be a whole number in [{lo}, {hi}], got {show(v)}")
+    depth = _checked_depth(depth_m, n)
+    _check_options(exposure_h, n_freq, n_dir)
     if method is None or method == "auto":
         method = choose_method(profile, n, speed_m_s=speed, station=st.name, gamma=gam, spread_s=spr,
                                long_crested=long_crested, n_freq=n_freq, n_dir=n_dir)
@@ -358,6 +351,23 @@ def assess_motions(
     grid = (bool(long_crested), n_freq, n_dir)
     r = (_exact(transfer, st, sea, grid) if method == "exact" else _tabled(profile, transfer, st, sea, grid))
     return _assessment(profile, st, sea, r, method, exposure_h)
+
+
+def _checked_depth(depth_m: Optional[ArrayLike], n: int) -> Optional[FloatArray]:
+    """(n,) depth [m] (inf = deep) inside its plausible range, or None for deep water."""
+    if depth_m is None:
+        return None
+    d = require_positive("depth_m", depth_m, allow_inf=True)
+    check_range(DEPTH_M, "depth_m", np.where(np.isinf(d), 1.0, d))
+    return _vec("depth_m", d, n)
+
+
+def _check_options(exposure_h: float, n_freq: int, n_dir: int) -> None:
+    """The MSI exposure and the spectral grid sizes inside their ranges (:mod:`.plausibility`)."""
+    check_range(EXPOSURE_H, "exposure_h", exposure_h)
+    for name, v, lo, hi in (("n_freq", n_freq, 8, 4096), ("n_dir", n_dir, 1, 720)):
+        if isinstance(v, bool) or not isinstance(v, (int, np.integer)) or not lo <= v <= hi:
+            raise SeawayInputError(f"{name} must be a whole number in [{lo}, {hi}], got {show(v)}")
 
 
 def _checked_method(method: Optional[str], gam: FloatArray) -> str:

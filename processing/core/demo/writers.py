@@ -160,6 +160,21 @@ def _write_cf_steps(v: Any, path: str, std: str, name: str, data: ArrayOrStep, s
                   array_start_idx=list(lead) + [i, 0, 0])
 
 
+def _write_cf_data(v: object, path: str, std: str, name: str, data: ArrayOrStep, shape: tuple, order: object,
+                   packing: tuple, mem: Optional[np.ndarray]) -> None:
+    """All steps of one variable; with ensemble ``mem`` labels, every member's steps in turn."""
+    sf, ao, fill = packing
+    if mem is None:
+        _write_cf_steps(v, path, std, name, data, shape, order, sf, ao, fill)
+        return
+    full = np.asarray(data, dtype=float)
+    if full.shape != (mem.size,) + shape:
+        raise SeawayInputError(f"variables[{show(std)}] has shape {full.shape}, expected "
+                               f"{(mem.size,) + shape} (member, time, lat, lon)")
+    for k in range(mem.size):
+        _write_cf_steps(v, path, std, name, full[k], shape, order, sf, ao, fill, lead=(k,))
+
+
 def write_cf_netcdf(
     path: str,
     lon_deg: ArrayLike,
@@ -210,16 +225,7 @@ def write_cf_netcdf(
         v = _create_cf_variable(rg, path, dims, std, name, sf=sf, ao=ao, fill=fill,
                                 units=(units or {}).get(std),
                                 extra=(extra_attributes or {}).get(std) or {})
-        shape = (t_s.size, lat.size, lon.size)
-        if mem is None:
-            _write_cf_steps(v, path, std, name, data, shape, order, sf, ao, fill)
-        else:
-            full = np.asarray(data, dtype=float)
-            if full.shape != (mem.size,) + shape:
-                raise SeawayInputError(f"variables[{show(std)}] has shape {full.shape}, expected "
-                                       f"{(mem.size,) + shape} (member, time, lat, lon)")
-            for k in range(mem.size):
-                _write_cf_steps(v, path, std, name, full[k], shape, order, sf, ao, fill, lead=(k,))
+        _write_cf_data(v, path, std, name, data, (t_s.size, lat.size, lon.size), order, (sf, ao, fill), mem)
         del v
     del rg, ds
     return path
