@@ -53,13 +53,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from ..waves.encounter import cos_deg
 from ..units import G_STANDARD_M_S2, FloatArray
-from ..validation import (
-    SeawayInputError,
-    as_float_array,
-    require_nonnegative,
-    require_positive,
-    show,
-)
+from ..validation import SeawayInputError, show
+from ..validation import as_float_array, require_nonnegative, require_positive
 
 __all__ = [
     "HeavePitchTransfer",

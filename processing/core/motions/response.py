@@ -54,13 +54,8 @@ from ..waves.encounter import cos_deg, relative_heading_deg
 from ..waves.spectra import FrequencyGrid, direction_grid, frequency_grid_rad_s, jonswap_s_m2_s_rad
 from ..plausibility import HS_M, TP_S, check_range
 from ..units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray
-from ..validation import (
-    SeawayInputError,
-    as_float_array,
-    require_nonnegative,
-    require_positive,
-    show,
-)
+from ..validation import SeawayInputError, show
+from ..validation import as_float_array, require_nonnegative, require_positive
 from ..vessel.profile import Station
 
 __all__ = [

@@ -52,13 +52,8 @@ from .response import (
 from .response import _chunk_moments, _wave_energy
 from ..units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray, wrap_deg
 from ..waves.spectra import direction_grid
-from ..validation import (
-    SeawayInputError,
-    as_float_array,
-    require_nonnegative,
-    require_positive,
-    show,
-)
+from ..validation import SeawayInputError, show
+from ..validation import as_float_array, require_nonnegative, require_positive
 from ..vessel.profile import Station
 
 __all__ = [

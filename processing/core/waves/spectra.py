@@ -38,13 +38,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from ..numerics import log_gamma, trapezoid_weights
 from ..units import DEG_PER_RAD, RAD_PER_DEG, FloatArray
-from ..validation import (
-    SeawayInputError,
-    as_float_array,
-    require_nonnegative,
-    require_positive,
-    show,
-)
+from ..validation import SeawayInputError, show
+from ..validation import as_float_array, require_nonnegative, require_positive
 
 __all__ = [
     "jonswap_s_m2_s_rad",
