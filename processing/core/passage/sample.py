@@ -13,6 +13,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from ..flags import SampleFlag
+from ..seastate.sampled_sea_state import SeaArrays
 from ..units import FloatArray
 from ..validation import SeawayInputError
 from .plan import PassagePlan, Track, as_utc_datetime64
@@ -33,7 +34,7 @@ _CANCELLED = "passage computation cancelled while sampling the sea state"
 
 
 @dataclass(frozen=True)
-class SeaAtSamples:
+class SeaAtSamples(SeaArrays):
     """Sea state and depth at each sample (NaN where not available; see ``flags``).
 
     ``hs_m`` significant wave height [m], ``tp_s`` peak period [s], ``wave_from_deg`` direction
@@ -43,13 +44,6 @@ class SeaAtSamples:
     the source used per sample ('' where none); ``flags`` SampleFlag bit masks; ``notes``.
     """
 
-    hs_m: FloatArray
-    tp_s: FloatArray
-    wave_from_deg: FloatArray
-    partition_names: Tuple[str, ...]
-    partition_hs_m: FloatArray
-    partition_tp_s: FloatArray
-    partition_from_deg: FloatArray
     depth_m: FloatArray
     valid: NDArray[np.bool_]
     source: Tuple[str, ...]

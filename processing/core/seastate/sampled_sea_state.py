@@ -30,12 +30,9 @@ from ..validation import show
 
 
 @dataclass(frozen=True)
-class SampledSeaState:
-    """Sea state at n route samples. NaN + a flag where not computable, never 0.
-
-    ``wave_from_deg`` is degrees true, coming from. Partition arrays are (n, p) in the order of
-    ``partition_names``; NaN where a partition is absent at a sample.
-    """
+class SeaArrays:
+    """The sea at n samples: combined Hs [m], Tp [s], direction the waves come FROM [deg true],
+    and the partitions as (n, p) arrays in the order of ``partition_names`` (NaN = absent)."""
 
     hs_m: FloatArray
     tp_s: FloatArray
@@ -44,6 +41,12 @@ class SampledSeaState:
     partition_hs_m: FloatArray
     partition_tp_s: FloatArray
     partition_from_deg: FloatArray
+
+
+@dataclass(frozen=True)
+class SampledSeaState(SeaArrays):
+    """Sea state at n route samples of one source. NaN + a flag where not computable, never 0."""
+
     tm01_s: FloatArray
     flags: NDArray[np.int64]
     source_name: str
