@@ -151,7 +151,11 @@ def respond_members(plan: PassagePlan, seas: Sequence[SeaAtSamples], profile: ob
     """Every member's :class:`.result.PassageResult` from ONE response call on the stacked
     samples; ``method`` None chooses from one member's samples (module docstring)."""
     n, m = plan.n, len(seas)
-    chosen = _chosen_method(method, max(int(np.count_nonzero(_computable(s))) for s in seas))
+    busiest = max(seas, key=lambda s: int(np.count_nonzero(_computable(s))))
+    chosen = _chosen_method(method, plan, np.flatnonzero(_computable(busiest)), profile,
+                            response.get("station"), float(response.get("gamma", 3.3)),  # type: ignore[arg-type]
+                            float(response.get("spread_s", 4.0)), bool(response.get("long_crested", False)),  # type: ignore[arg-type]
+                            len(busiest.partition_names))
     track = plan.take(np.tile(np.arange(n), m), np.tile(plan.eta_utc, m))
     mot = respond_motions(track, _stack_seas(seas), profile, method=chosen, progress=progress,
                           **response)  # type: ignore[arg-type]
