@@ -174,7 +174,8 @@ def _fig(flags):
     n = len(flags)
     return dict(msdv_arrival=np.ones((1, 1, n)), hours_class=np.zeros((1, 1, n, 5)),
                 flags=np.array(flags, dtype=np.int64).reshape(1, 1, n), n_missing=np.zeros((1, 1, n), dtype=np.int64),
-                comfort_class=np.zeros((1, 1, n, 3), dtype=np.int8), worst_msi_pct=np.ones((1, 1, n)))
+                comfort_class=np.zeros((1, 1, n, 3), dtype=np.int8), worst_msi_pct=np.ones((1, 1, n)),
+                prob_taxing_pct=np.zeros((1, 1, n)))
 
 
 def test_advisories_do_not_veto_danger_and_criteria_do():

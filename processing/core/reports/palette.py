@@ -33,7 +33,7 @@ tests/core/test_palette.py."""
 NOT_COMPUTED_COLOUR: str = "#9a9a9a"
 """Colour of samples without results (no sea data, outside the grid or the time range)."""
 
-SHARE_PALETTE: Tuple[str, ...] = ("#f2f2c4", "#c8e0a0", "#8cbd62", "#4a8a3a", "#1c4f24")
+SHARE_PALETTE: Tuple[str, ...] = ("#e6f2e8", "#c8e0a0", "#8cbd62", "#4a8a3a", "#1c4f24")
 """Fill colours for shares of acceptable time in [0, .2), [.2, .4), [.4, .6), [.6, .8), [.8, 1];
 CIE L* about 94, 86, 71, 52, 29 (light = low share, dark = high share)."""
 
