@@ -53,16 +53,20 @@ def ens_grib(tmp_path_factory):
 
 @pytest.mark.parametrize("fixture", ["ens_nc", "ens_grib"])
 def test_members_read_back_as_written(request, fixture):
-    """Each member samples the values GDAL wrote for it (cell centres, exact time steps)."""
+    """Each member samples the values GDAL wrote for it (cell centres, exact time steps).
+
+    Tolerance: one step of GRIB2 simple packing with decimal scale factor 2 (0.01; WMO GRIB2
+    template 5.0), plus rounding: GDAL 3.6 rounds to the nearest step, GDAL 3.10 was seen to
+    land one step below (7.19 for 7.2)."""
     path = request.getfixturevalue(fixture)
     with open_sea_state(path) as src:
         assert src.members == tuple(range(M))
         for m in src.members:
             got = src.member_source(m).sample([2.0, 4.0], [52.0, 51.0], ["2031-05-04T06", "2031-05-04T12"])
             f = _fields(m)
-            np.testing.assert_allclose(got.hs_m, [f["hs"][1, 2, 2], f["hs"][2, 1, 4]], atol=0.006)
-            np.testing.assert_allclose(got.tp_s, f["tp"][0, 0, 0], atol=0.006)
-            np.testing.assert_allclose(got.wave_from_deg, f["dir"][0, 0, 0], atol=0.006)
+            np.testing.assert_allclose(got.hs_m, [f["hs"][1, 2, 2], f["hs"][2, 1, 4]], atol=0.0101)
+            np.testing.assert_allclose(got.tp_s, f["tp"][0, 0, 0], atol=0.0101)
+            np.testing.assert_allclose(got.wave_from_deg, f["dir"][0, 0, 0], atol=0.0101)
 
 
 def test_describe_lists_members(ens_nc, ens_grib):
