@@ -114,3 +114,28 @@ def release_before_exit_qgis(request):  # type: ignore[no-untyped-def]
         QgsProject.instance().clear()
     gc.collect()
     gc.collect()
+    _delete_python_owned_qgis_objects()
+
+
+def _delete_python_owned_qgis_objects() -> None:
+    """Destroy, before exitQgis(), the layers, projects and processing contexts Python still owns.
+
+    A failing test's traceback (kept by pytest for its report) holds the test's frames and with
+    them any layer it made; freed only at interpreter shutdown, after exitQgis(), the layer's
+    OGR dataset is closed into torn-down state (SIGSEGV in QgsOgrProviderUtils::GDALCloseWrapper
+    during Py_FinalizeEx, seen under gdb). Python-owned wrappers are deleted here instead.
+    """
+    if "qgis.core" not in sys.modules:
+        return
+    import gc
+
+    from qgis.core import QgsMapLayer, QgsProcessingContext, QgsProject
+    from qgis.PyQt import sip
+
+    kinds = (QgsMapLayer, QgsProcessingContext, QgsProject)
+    for obj in gc.get_objects():
+        try:
+            if isinstance(obj, kinds) and not sip.isdeleted(obj) and sip.ispyowned(obj):
+                sip.delete(obj)
+        except (RuntimeError, TypeError, ReferenceError):  # half-destroyed wrappers: leave them
+            continue

@@ -63,7 +63,7 @@ def _route(files, sea, tag, **over):
     layer = QgsVectorLayer(out["OUTPUT_POINTS"], "x", "ogr")
     assert layer.isValid()
     feats = list(layer.getFeatures())
-    text = ("comfort_label", "flags", "leg_name", "source", "eta_utc", "fid")
+    text = ("comfort_label", "class_reason", "flags", "leg_name", "source", "eta_utc", "fid")
     return {name: np.array([np.nan if f[name] is None or f[name] == qgis.core.NULL else f[name] for f in feats],
                            dtype=object if name in text else float)
             for name in layer.fields().names()}, out
