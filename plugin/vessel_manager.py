@@ -83,7 +83,7 @@ _SPIN_SPECS: Dict[str, Tuple[float, float, int, float, bool]] = {
     "waterplane_coeff": (0.0, 1.0, 4, 0.01, True),
     "gm_m": (0.0, 20.0, 3, 0.05, True),
     "roll_period_s": (0.0, 60.0, 3, 0.1, True),
-    "roll_damping_ratio": (0.0, 1.0, 4, 0.01, False),
+    "roll_damping_ratio": (0.0, 1.0, 4, 0.01, True),
     "service_speed_kn": (0.0, 60.0, 2, 0.5, False),
 }
 _OPTIONAL_SPINS = {k for k, spec in _SPIN_SPECS.items() if spec[4]}
@@ -117,6 +117,8 @@ class VesselManagerDialog(QDialog):
         self._kind = KIND_NEW
         self._current_path: Optional[Path] = None
         self._rao_table: Optional[str] = None
+        # profile keys kept as they are (not edited in the form): file and mass keys
+        self._kept: Dict[str, Any] = {}
         self._base_dir: Optional[str] = None
         self.setObjectName("SeawayComfortVesselManager")
         self.setWindowTitle(self.tr("Seaway Comfort: vessel profiles"))
@@ -150,6 +152,7 @@ class VesselManagerDialog(QDialog):
             "waterplane_coeff": self.tr("estimate from Cb"),
             "gm_m": self.tr("not given"),
             "roll_period_s": self.tr("estimate from GM"),
+            "roll_damping_ratio": self.tr("Ikeda estimate (strip model)"),
         }
 
     def _station_headers(self) -> List[str]:
@@ -243,6 +246,14 @@ class VesselManagerDialog(QDialog):
         self.rao_label = QLabel(hull_box)
         self.rao_label.setWordWrap(True)
         form.addRow(self.tr("Response table (CSV)"), self.rao_label)
+        self.model_combo = QComboBox(hull_box)
+        for key, label in (("strip", self.tr("strip theory (default)")),
+                           ("closed_form", self.tr("closed form (quick fallback)"))):
+            self.model_combo.addItem(label, key)
+        form.addRow(self.tr("Motion model"), self.model_combo)
+        self.sections_label = QLabel(hull_box)
+        self.sections_label.setWordWrap(True)
+        form.addRow(self.tr("Hull sections (CSV)"), self.sections_label)
         return hull_box
 
     def _build_station_box(self, right: QWidget) -> QGroupBox:
@@ -383,7 +394,10 @@ class VesselManagerDialog(QDialog):
         for key, spin in self.spins.items():
             value = getattr(profile, key)
             spin.setValue(spin.minimum() if value is None else float(value))
-        self.rao_label.setText(profile.rao_table or self.tr("none (closed-form hull model)"))
+        self.rao_label.setText(profile.rao_table or self.tr("none"))
+        self._kept = {k: getattr(profile, k) for k in ("hull_sections", "roll_gyradius_m", "pitch_gyradius_m")}
+        self.model_combo.setCurrentIndex(max(self.model_combo.findData(profile.motion_model), 0))
+        self.sections_label.setText(profile.hull_sections or self.tr("none (from main dimensions and form coefficients)"))
         self.station_table.setRowCount(0)
         for station in profile.stations:
             self.add_station_row(station)
@@ -514,6 +528,8 @@ class VesselManagerDialog(QDialog):
             value = float(spin.value())
             data[key] = None if key in _OPTIONAL_SPINS and value <= spin.minimum() else value
         data["rao_table"] = self._rao_table
+        data.update(self._kept)
+        data["motion_model"] = self.model_combo.currentData() or "strip"
         headers = self._station_headers()
         stations: List[Dict[str, Any]] = []
         for row in range(self.station_table.rowCount()):
@@ -608,7 +624,12 @@ class VesselManagerDialog(QDialog):
             self.show_error(str(exc))
             return None
         try:
-            roll = self.tr("natural roll period {0:.2f} s").format(profile.natural_roll_period_s)
+            if profile.motion_model == "strip" and profile.rao_table is None:
+                from ..processing.core.motions.strip_transfer import roll_summary
+
+                roll = roll_summary(profile)  # computed roll period and damping (about 1 s)
+            else:
+                roll = self.tr("natural roll period {0:.2f} s").format(profile.natural_roll_period_s)
         except SeawayInputError as exc:  # the estimate has its own range of validity
             self.show_error(str(exc))
             return None

@@ -311,7 +311,7 @@ def _chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatA
     rows = buf.shape[0] - 5
     q, w = buf[:rows], buf[rows:]
     if rows == 12:
-        _complex_rows(transfer.evaluate_complex(om4, mu, speed_m_s[:, None, None, None]), e, q)
+        _complex_rows(transfer.evaluate_parts(om4, mu, speed_m_s[:, None, None, None]), e, q)
     else:
         smu = np.abs(cos_deg(mu - 90.0))
         tr = transfer.evaluate_grid(om4, k4, mu, cmu, smu, we)
@@ -335,14 +335,16 @@ _CROSS = ((0, 1), (0, 2), (1, 2), (3, 4), (3, 2), (4, 2))
 """Cross terms of :data:`ROWS_COMPLEX` as index pairs into (heave, pitch, roll, sway, yaw)."""
 
 
-def _complex_rows(tr: Any, e: FloatArray, q: FloatArray) -> None:
-    """The 12 rows of :data:`ROWS_COMPLEX` times the wave energy e, written into q."""
-    z = (tr.heave_m_per_m, tr.pitch_rad_per_m, tr.roll_rad_per_m, tr.sway_m_per_m, tr.yaw_rad_per_m)
+def _complex_rows(parts: FloatArray, e: FloatArray, q: FloatArray) -> None:
+    """The 12 rows of :data:`ROWS_COMPLEX` times the wave energy e, written into q; ``parts``
+    (10, ...) real and imaginary parts of heave, pitch, roll, sway, yaw
+    (:meth:`.strip_transfer.StripTransfer.evaluate_parts`)."""
+    re, im = parts[0::2], parts[1::2]  # modes heave, pitch, roll, sway, yaw
     for i, r in ((0, 0), (1, 1), (2, 2), (4, 3), (5, 4)):
-        np.multiply(z[r].real ** 2 + z[r].imag ** 2, e, out=q[i])
+        np.multiply(re[r] * re[r] + im[r] * im[r], e, out=q[i])
     q[3] = e
     for i, (a, b) in enumerate(_CROSS):
-        np.multiply(z[a].real * z[b].real + z[a].imag * z[b].imag, e, out=q[6 + i])
+        np.multiply(re[a] * re[b] + im[a] * im[b], e, out=q[6 + i])
 
 
 def _ratio_period(m0: FloatArray, m2: FloatArray, fb0: FloatArray, fb2: FloatArray) -> FloatArray:

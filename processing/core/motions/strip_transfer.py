@@ -66,7 +66,8 @@ from .strip.sections import HullSections, read_sections_csv, sections_from_form
 from .strip.validity import strip_validity
 
 __all__ = ["ENGINE_VERSION", "RHO_SEA_KG_M3", "StripTransfer", "ComplexMotionTransfer",
-           "hull_sections_for", "build_strip_transfer", "StripSetup", "strip_setup"]
+           "hull_sections_for", "build_strip_transfer", "StripSetup", "strip_setup", "roll_summary",
+           "transfer_summary"]
 
 ENGINE_VERSION = "strip-2"
 """Part of the on-disk cache key: change it whenever the RAOs of the same profile change."""
@@ -245,54 +246,78 @@ class StripTransfer:
         """Every frequency is covered (module docstring: edge values below, zero above)."""
         return None
 
-    def evaluate_complex(self, omega_rad_s: FloatArray, rel_heading_deg: FloatArray,
-                         speed_m_s: FloatArray) -> ComplexMotionTransfer:
+    def evaluate_complex(self, omega_rad_s: ArrayLike, rel_heading_deg: ArrayLike,
+                         speed_m_s: ArrayLike) -> ComplexMotionTransfer:
         """Interpolated RAOs (module docstring) for broadcasting omega, mu [deg] and speed."""
-        shape = np.broadcast_shapes(np.shape(omega_rad_s), np.shape(rel_heading_deg), np.shape(speed_m_s))
-        su = np.broadcast_to(speed_m_s, shape).reshape(-1)
-        out = np.zeros((su.size, len(MODES)), dtype=complex)
-        om = np.broadcast_to(omega_rad_s, shape).reshape(-1)
-        mu = np.broadcast_to(rel_heading_deg, shape).reshape(-1)
+        om, mu, su = (np.asarray(v, dtype=float) for v in (omega_rad_s, rel_heading_deg, speed_m_s))
+        shape = np.broadcast_shapes(om.shape, mu.shape, su.shape)
+        parts = self.evaluate_parts(*(np.broadcast_to(v, shape).reshape(-1, 1, 1) for v in (om, mu, su)))
+        z = parts[0::2] + 1j * parts[1::2]
+        return ComplexMotionTransfer(*(z[i].reshape(shape) for i in range(len(MODES))))
+
+    def evaluate_parts(self, omega_rad_s: FloatArray, rel_heading_deg: FloatArray,
+                       speed_m_s: FloatArray) -> FloatArray:
+        """Real and imaginary parts (10, ...) of the interpolated RAOs (re, im of each of
+        :data:`MODES`) for omega (c, ..., nf, 1), mu (c, ..., 1, nd) and speed (c, 1, ..., 1):
+        the fast path of :mod:`.response` (samples grouped by speed, separable indices)."""
+        shape = np.broadcast_shapes(omega_rad_s.shape, rel_heading_deg.shape, speed_m_s.shape)
+        out = np.empty((2 * len(MODES),) + shape)
+        su = speed_m_s.reshape(speed_m_s.shape[0], -1)[:, 0]
         for u in np.unique(su):
-            sel = su == u
-            val = self._at_speed(float(u), om[sel], mu[sel])
-            val[:, 2:] /= self.resonance(om[sel], mu[sel], float(u))[:, None]
-            out[sel] = val
-        out = out.reshape(shape + (len(MODES),))
-        return ComplexMotionTransfer(*(out[..., i] for i in range(len(MODES))))
+            rows = np.flatnonzero(su == u)
+            sel = slice(rows[0], rows[-1] + 1) if rows.size == rows[-1] - rows[0] + 1 else rows
+            om = np.broadcast_to(omega_rad_s, (su.size,) + omega_rad_s.shape[1:])[sel]
+            mu = np.broadcast_to(rel_heading_deg, (su.size,) + rel_heading_deg.shape[1:])[sel]
+            out[:, sel] = self._at_speed(float(u), om, mu)
+        return out
 
     def resonance(self, omega_rad_s: FloatArray, mu_deg: FloatArray, u: float) -> NDArray[np.complex128]:
         """Roll resonance factor D (module docstring) at speed u [m/s], zeta interpolated."""
+        re, im = self._resonance_parts(omega_rad_s, mu_deg, u)
+        return re + 1j * im
+
+    def _resonance_parts(self, omega_rad_s: FloatArray, mu_deg: FloatArray, u: float) -> Tuple[FloatArray, FloatArray]:
         wn = 2.0 * math.pi / self.roll_period_s
         zeta = float(np.interp(u, self.speeds_m_s, self.zeta_per_speed))
-        we = (omega_rad_s - omega_rad_s ** 2 / self.g_m_s2 * u * np.cos(np.radians(mu_deg))) / wn
-        return 1.0 - we * we + 2j * zeta * we
+        we = (omega_rad_s - omega_rad_s ** 2 * (u / self.g_m_s2) * np.cos(np.radians(mu_deg))) * (1.0 / wn)
+        return 1.0 - we * we, (2.0 * zeta) * we
 
-    def _speed_slice(self, u: float) -> NDArray[np.complex128]:
-        """RAOs (omega * heading, 5) blended linearly between the two speed nodes around u."""
+    def _speed_slice(self, u: float) -> FloatArray:
+        """RAO parts (10, omega * heading) blended linearly between the speed nodes around u."""
         sp = self.speeds_m_s
         i = int(np.clip(np.searchsorted(sp, u, side="right") - 1, 0, sp.size - 2))
         t = float(np.clip((u - sp[i]) / (sp[i + 1] - sp[i]), 0.0, 1.0))
         r = self.rao[i] * (1.0 - t) + self.rao[i + 1] * t if t > 0 else self.rao[i]
-        return r.reshape(-1, r.shape[-1])
+        r = r.reshape(-1, r.shape[-1])
+        # single precision for the gather (memory traffic); RAOs need ~1e-4 relative at most
+        return np.ascontiguousarray(np.stack([r.real, r.imag], axis=-1).reshape(r.shape[0], -1).T,
+                                    dtype=np.float32)
 
-    def _at_speed(self, u: float, om: FloatArray, mu: FloatArray) -> NDArray[np.complex128]:
-        """Bilinear (log omega, heading) interpolation at one speed; zero above the grid."""
+    def _at_speed(self, u: float, om: FloatArray, mu: FloatArray) -> FloatArray:
+        """Bilinear (log omega, heading) interpolation at one speed, divided by the resonance
+        factor for sway, roll and yaw; zero above the frequency grid. om (..., nf, 1) and
+        mu (..., 1, nd) keep their own axes so the indices are computed once per axis."""
         flat = self._speed_slice(u)
         lw = np.log(self.omega_rad_s)
-        x = (np.log(om) - lw[0]) / (lw[1] - lw[0])
+        x = (np.log(om) - lw[0]) * (1.0 / (lw[1] - lw[0]))
         i = np.clip(np.floor(x), 0, lw.size - 2).astype(np.int64)
-        tf = np.clip(x - i, 0.0, 1.0)[:, None]
-        h = np.mod(mu, 360.0) / HEADING_STEP_DEG
+        inside = x <= lw.size - 1
+        tf = (np.clip(x - i, 0.0, 1.0) * inside).astype(np.float32)  # zero weight above the grid
+        t0 = ((1.0 - np.clip(x - i, 0.0, 1.0)) * inside).astype(np.float32)  # on both corners
+        h = np.mod(mu, 360.0) * (1.0 / HEADING_STEP_DEG)
         j = np.clip(np.floor(h), 0, self.heading_deg.size - 2).astype(np.int64)
-        th = np.clip(h - j, 0.0, 1.0)[:, None]
+        th = np.clip(h - j, 0.0, 1.0).astype(np.float32)
         nh = self.heading_deg.size
         base = i * nh + j
-        val = np.take(flat, base, axis=0) * ((1 - tf) * (1 - th))
-        val += np.take(flat, base + 1, axis=0) * ((1 - tf) * th)
-        val += np.take(flat, base + nh, axis=0) * (tf * (1 - th))
-        val += np.take(flat, base + nh + 1, axis=0) * (tf * th)
-        val[x > lw.size - 1] = 0.0
+        val = np.take(flat, base, axis=1) * (t0 * (1 - th))
+        for off, w in ((1, t0 * th), (nh, tf * (1 - th)), (nh + 1, tf * th)):
+            val += np.take(flat, base + off, axis=1) * w
+        dre, dim = (a.astype(np.float32) for a in self._resonance_parts(om, mu, u))
+        den = 1.0 / (dre * dre + dim * dim)
+        for m in range(2, len(MODES)):
+            a, b = val[2 * m].copy(), val[2 * m + 1]
+            val[2 * m] = (a * dre + b * dim) * den
+            val[2 * m + 1] = (b * dre - a * dim) * den
         return val
 
 
@@ -328,6 +353,18 @@ def build_strip_transfer(profile: VesselProfile, g_m_s2: float = G_STANDARD_M_S2
         roll_inertia_source=setup.roll_inertia_source, damping_source=damping_source,
         hull_ok=bool(val.slender_ok and val.section_ok), length_m=float(hull.length_m),
         zeta_per_speed=zetas, g_m_s2=g_m_s2)
+
+
+def roll_summary(profile: VesselProfile, g_m_s2: float = G_STANDARD_M_S2) -> str:
+    """The strip model's natural roll period and zero-speed roll damping ratio of ``profile``
+    with their sources, without the RAO set (about 1 s: the 2-D tables)."""
+    setup = strip_setup(profile, g_m_s2)
+    extra = _damping_per_speed(setup, profile, np.zeros(1))[0]
+    nat = roll_natural(setup.hull, setup.body)
+    zeta = (nat.wave_damping_n_m_s + extra) / nat.critical_damping_n_m_s
+    damping = "ratio" if profile.roll_damping_ratio is not None else "Ikeda (friction, lift; eddy left out)"
+    return (f"strip theory: natural roll period {setup.roll_period_s:.2f} s ({setup.roll_inertia_source}), "
+            f"roll damping {100 * zeta:.1f} % of critical at zero speed ({damping})")
 
 
 def transfer_summary(t: Any) -> Optional[str]:
