@@ -85,7 +85,7 @@ _SPIN_SPECS: Dict[str, Tuple[float, float, int, float, bool]] = {
     "waterplane_coeff": (0.0, 1.0, 4, 0.01, True),
     "gm_m": (0.0, 20.0, 3, 0.05, True),
     "roll_period_s": (0.0, 60.0, 3, 0.1, True),
-    "roll_damping_ratio": (0.0, 1.0, 4, 0.01, False),
+    "roll_damping_ratio": (0.0, 1.0, 4, 0.01, True),
     "service_speed_kn": (0.0, 60.0, 2, 0.5, False),
 }
 _OPTIONAL_SPINS = {k for k, spec in _SPIN_SPECS.items() if spec[4]}
@@ -121,6 +121,8 @@ class VesselManagerDialog(QDialog):
         self._kind = KIND_NEW
         self._current_path: Optional[Path] = None
         self._rao_table: Optional[str] = None
+        # profile keys kept as they are (not edited in the form): file and mass keys
+        self._kept: Dict[str, Any] = {}
         self._base_dir: Optional[str] = None
         self.setObjectName("SeawayComfortVesselManager")
         self.setWindowTitle(self.tr("Seaway Comfort: vessel profiles"))
@@ -154,6 +156,7 @@ class VesselManagerDialog(QDialog):
             "waterplane_coeff": self.tr("estimate from Cb"),
             "gm_m": self.tr("not given"),
             "roll_period_s": self.tr("estimate from GM"),
+            "roll_damping_ratio": self.tr("Ikeda estimate (strip model)"),
         }
 
     def _station_headers(self) -> List[str]:
@@ -256,6 +259,11 @@ class VesselManagerDialog(QDialog):
             self.files[key] = picker
             form.addRow(label, picker)
         form.addRow("", self.rao_label)
+        self.model_combo = QComboBox(hull_box)
+        for key, label in (("strip", self.tr("strip theory (default)")),
+                           ("closed_form", self.tr("closed form (quick fallback)"))):
+            self.model_combo.addItem(label, key)
+        form.addRow(self.tr("Motion model"), self.model_combo)
         return hull_box
 
     def _build_station_box(self, right: QWidget) -> QGroupBox:
@@ -400,6 +408,8 @@ class VesselManagerDialog(QDialog):
             picker.setFilePath(str(getattr(profile, key, None) or ""))
             picker.setDefaultRoot(str(profile.base_dir or ""))
         self.rao_label.setText("" if profile.rao_table else self.tr("no response table: the hull model is used"))
+        self._kept = {k: getattr(profile, k) for k in ("roll_gyradius_m", "pitch_gyradius_m")}
+        self.model_combo.setCurrentIndex(max(self.model_combo.findData(profile.motion_model), 0))
         self.station_table.setRowCount(0)
         for station in profile.stations:
             self.add_station_row(station)
@@ -536,6 +546,8 @@ class VesselManagerDialog(QDialog):
             text = picker.filePath().strip()
             if text or key in _PROFILE_KEYS:  # a key the core does not know yet stays out when empty
                 data[key] = text or None
+        data.update(self._kept)
+        data["motion_model"] = self.model_combo.currentData() or "strip"
         headers = self._station_headers()
         stations: List[Dict[str, Any]] = []
         for row in range(self.station_table.rowCount()):
@@ -638,7 +650,12 @@ class VesselManagerDialog(QDialog):
             self.show_error(str(exc))
             return None
         try:
-            roll = self.tr("natural roll period {0:.2f} s").format(profile.natural_roll_period_s)
+            if profile.motion_model == "strip" and profile.rao_table is None:
+                from ..processing.core.motions.strip_transfer import roll_summary
+
+                roll = roll_summary(profile)  # computed roll period and damping (about 1 s)
+            else:
+                roll = self.tr("natural roll period {0:.2f} s").format(profile.natural_roll_period_s)
         except SeawayInputError as exc:  # the estimate has its own range of validity
             self.show_error(str(exc))
             return None

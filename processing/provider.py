@@ -35,6 +35,12 @@ class SeawayComfortProvider(QgsProcessingProvider):
         return QIcon(str(ICON_PATH))
 
     def loadAlgorithms(self) -> None:  # noqa: N802
+        from qgis.core import QgsApplication
+
+        from .core.motions.rao_cache import set_default_cache_folder
+
+        # strip-theory RAO sets are cached in the QGIS settings folder for QGIS runs
+        set_default_cache_folder(Path(QgsApplication.qgisSettingsDirPath()) / "seaway_comfort" / "rao_cache")
         for cls in algorithm_classes():
             alg: QgsProcessingAlgorithm = cls()
             self.addAlgorithm(alg)

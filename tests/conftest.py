@@ -24,6 +24,8 @@ PACKAGE_NAME = "seaway_comfort"
 _PKG_PARENT = Path(tempfile.mkdtemp(prefix="seaway_pkg_"))
 os.symlink(REPO_ROOT, _PKG_PARENT / PACKAGE_NAME, target_is_directory=True)
 atexit.register(shutil.rmtree, _PKG_PARENT, True)
+# strip-theory RAO sets of the test run go to a temporary folder, never the user's cache
+os.environ.setdefault("SEAWAY_COMFORT_RAO_CACHE", str(_PKG_PARENT / "rao_cache"))
 sys.path.insert(0, str(_PKG_PARENT))
 # The repository root must never be importable as a top-level folder.
 sys.path[:] = [p for p in sys.path if Path(p or ".").resolve() != REPO_ROOT]

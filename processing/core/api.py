@@ -53,6 +53,7 @@ from .plausibility import (
     DEPTH_M, EXPOSURE_H, GAMMA, HS_M, SPEED_M_S, SPREAD_S, STEEPNESS_DOUBT, TP_S,
     check_range, doubtful, sea_steepness,
 )
+from .motions.rao_cache import cached_strip_transfer
 from .units import G_STANDARD_M_S2, FloatArray
 from .validation import (
     SeawayInputError,
@@ -126,7 +127,9 @@ class MotionAssessment:
     msi_pct: motion sickness incidence for ``exposure_h``; comfort_class: int64 0..4
     (:data:`.comfort.COMFORT_CLASS_LABELS`; always from the 2 h MSI and the criteria usage, so
     classes do not depend on ``exposure_h``); flags: int64 SampleFlag mask; criteria_margin:
-    criterion -> 1 - value/limit; roll_period_s: natural roll period used; station, task,
+    criterion -> 1 - value/limit; sway_rms_m, yaw_rms_deg: RMS sway at midships and yaw (NaN
+    for a model without them: closed form, RAO table); roll_period_s: natural roll period
+    used (the strip model's own from GM and the roll inertia); station, task,
     method ("exact" or "table"); caution: the planning-aid caution text.
     """
 
@@ -145,6 +148,8 @@ class MotionAssessment:
     flags: NDArray[np.int64]
     criteria_margin: Dict[str, FloatArray]
     roll_period_s: float
+    sway_rms_m: FloatArray
+    yaw_rms_deg: FloatArray
     station: str
     method: str
     task: str = ""
@@ -152,12 +157,18 @@ class MotionAssessment:
     caution: str = field(default=CAUTION)
 
 
-def transfer_model(profile: VesselProfile, *, g_m_s2: float = G_STANDARD_M_S2) -> Any:
-    """The profile's transfer model: its RAO table when one is set, else the closed form."""
+def transfer_model(profile: VesselProfile, *, g_m_s2: float = G_STANDARD_M_S2,
+                   cache_folder: Optional[str] = None) -> Any:
+    """The profile's transfer model: its RAO table when one is set; else by ``motion_model``:
+    "strip" (default) the strip-theory RAO set (:mod:`.motions.strip_transfer`, cached on disk
+    in ``cache_folder`` or the default of :func:`.motions.rao_cache.cache_folder`), or
+    "closed_form" (:mod:`.motions.closed_form`)."""
     path = profile.rao_table_path()
     if path is not None:
         return TableTransfer(load_rao_table(path))
-    return ClosedFormTransfer.from_profile(profile, g_m_s2=g_m_s2)
+    if profile.motion_model == "closed_form":
+        return ClosedFormTransfer.from_profile(profile, g_m_s2=g_m_s2)
+    return cached_strip_transfer(profile, folder=cache_folder, g_m_s2=g_m_s2)
 
 
 def _vec(name: str, v: ArrayLike, n: int, *, nonneg: bool = False) -> FloatArray:
@@ -168,16 +179,20 @@ def _vec(name: str, v: ArrayLike, n: int, *, nonneg: bool = False) -> FloatArray
     return np.ascontiguousarray(np.broadcast_to(a, (n,)), dtype=float)
 
 
+def _file_key(path: Any) -> Any:
+    """(path, modification time) of an input file so that an edited file is re-read; None."""
+    if path is None:
+        return None
+    try:
+        return (str(path), path.stat().st_mtime_ns)
+    except OSError:
+        return (str(path), None)
+
+
 def _table_set_key(profile: VesselProfile, station: Station, speeds: FloatArray, depths: Optional[FloatArray],
                    gamma: float, spread: float, long_crested: bool, n_freq: int, n_dir: int) -> Any:
-    """Key of a table set in the in-memory cache (an edited RAO table file is re-read)."""
-    rao = profile.rao_table_path()
-    rao_key = None
-    if rao is not None:
-        try:
-            rao_key = (str(rao), rao.stat().st_mtime_ns)
-        except OSError:
-            rao_key = (str(rao), None)
+    """Key of a table set in the in-memory cache (an edited RAO table or section file is re-read)."""
+    rao_key = tuple(_file_key(f) for f in (profile.rao_table_path(), profile.hull_sections_path()))
     return (profile, rao_key, station, tuple(np.round(speeds, 6)), None if depths is None else tuple(np.round(depths, 6)),
             gamma, spread, long_crested, n_freq, n_dir)
 
@@ -350,7 +365,7 @@ def assess_motions(
     sea = _Sea(hs, tp, wf, course, speed, depth, gam, spr)
     grid = (bool(long_crested), n_freq, n_dir)
     r = (_exact(transfer, st, sea, grid) if method == "exact" else _tabled(profile, transfer, st, sea, grid))
-    return _assessment(profile, st, sea, r, method, exposure_h)
+    return _assessment(profile, st, sea, r, method, exposure_h, getattr(transfer, "roll_period_s", None))
 
 
 def _checked_depth(depth_m: Optional[ArrayLike], n: int) -> Optional[FloatArray]:
@@ -467,9 +482,10 @@ def _tabled(profile: VesselProfile, transfer: Any, st: Station, sea: _Sea, grid:
 
 
 def _assessment(profile: VesselProfile, st: Station, sea: _Sea, r: MotionResponse, method: str,
-                exposure_h: float) -> MotionAssessment:
-    """Comfort verdict and guidance flags on top of the station's motions."""
-    tr_s = profile.natural_roll_period_s
+                exposure_h: float, model_roll_period_s: Optional[float] = None) -> MotionAssessment:
+    """Comfort verdict and guidance flags on top of the station's motions; the natural roll
+    period is the transfer model's own when it has one (strip), else the profile's."""
+    tr_s = profile.natural_roll_period_s if model_roll_period_s is None else float(model_roll_period_s)
     safety = circ1228_flags(profile.length_wl_m, tr_s, sea.speed, sea.course, sea.hs, sea.tp, sea.wf, sea.depth,
                             gamma=sea.gam)
     vacc, lacc = r.vacc_rms_m_s2[:, 0], r.lacc_rms_m_s2[:, 0]
@@ -482,6 +498,7 @@ def _assessment(profile: VesselProfile, st: Station, sea: _Sea, r: MotionRespons
         vacc_rms_m_s2=vacc, lacc_rms_m_s2=lacc, vacc_wf_rms_m_s2=r.vacc_wf_rms_m_s2[:, 0],
         vacc_omega_rad_s=r.vacc_omega_rad_s[:, 0], msi_pct=v.msi_pct, comfort_class=v.comfort_class,
         flags=flags.astype(np.int64), criteria_margin=v.criteria.margins, roll_period_s=float(tr_s),
+        sway_rms_m=r.sway_rms_m, yaw_rms_deg=r.yaw_rms_deg,
         station=st.name, method=method, task=st.task, exposure_h=float(exposure_h),
     )
 

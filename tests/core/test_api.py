@@ -6,6 +6,8 @@ Tags beside checks: [A] printed in the named source; [C] from memory (soft expec
 project (the source itself does not print the number)."""
 from __future__ import annotations
 
+import dataclasses
+
 import numpy as np
 import pytest
 
@@ -22,6 +24,7 @@ from seaway_comfort.processing.core.validation import SeawayInputError
 from seaway_comfort.processing.core.vessel.profile import builtin_profile
 
 BOAT = builtin_profile("harbour_workboat_12m")
+BOAT_CF = dataclasses.replace(BOAT, motion_model="closed_form")  # checks calibrated on the closed form
 
 
 def test_docstring_example_runs_and_carries_the_caution():
@@ -40,7 +43,7 @@ def test_docstring_example_runs_and_carries_the_caution():
 
 def test_msi_and_class_are_composed_from_the_motions():
     # MSI of the Lloyd (1989) form fed with mean|a| = sqrt(2/pi) sigma_a (comfort.py docstring).
-    res = assess_motions(BOAT, hs_m=[0.5, 1.5, 3.0], tp_s=5.0, wave_from_deg=90.0, course_deg=270.0, speed_m_s=3.0)
+    res = assess_motions(BOAT_CF, hs_m=[0.5, 1.5, 3.0], tp_s=5.0, wave_from_deg=90.0, course_deg=270.0, speed_m_s=3.0)
     m = msi_percent(mean_abs_from_rms(res.vacc_rms_m_s2), res.vacc_omega_rad_s)
     np.testing.assert_allclose(res.msi_pct, m, rtol=1e-12)
     lim = NORDFORSK_TASKS[BOAT.stations[0].task]
@@ -95,19 +98,21 @@ def test_partitions_with_an_absent_partition_equal_the_single_sea():
         SeaPartitions(np.ones((2, 2)), np.ones((2, 2)) * 5, np.zeros((2, 2)), [3.3], [4.0, 4.0], ("a", "b"))
 
 
-def test_table_method_agrees_with_exact():
-    # brief's check through the facade: constant speed, two partition shapes, 1 %.
+@pytest.mark.parametrize("boat,tol", [(BOAT_CF, 0.01), (BOAT, 0.02)], ids=["closed_form", "strip"])
+def test_table_method_agrees_with_exact(boat, tol):
+    # brief's check through the facade: constant speed, two partition shapes, 1 % (closed
+    # form); 2 % for the strip model (full-circle tables of complex motions, tables.py docstring)
     rng = np.random.default_rng(11)
     n = 120
     parts = SeaPartitions(rng.uniform(0.2, 2.5, (n, 2)), rng.uniform(3.0, 13.0, (n, 2)), rng.uniform(0, 360, (n, 2)),
                           [3.3, 5.0], [4.0, 12.0], ("wind", "swell"))
     co = rng.uniform(0, 360, n)
-    a = assess_motions(BOAT, partitions=parts, course_deg=co, speed_m_s=3.0, method="exact")
-    b = assess_motions(BOAT, partitions=parts, course_deg=co, speed_m_s=3.0, method="table")
+    a = assess_motions(boat, partitions=parts, course_deg=co, speed_m_s=3.0, method="exact")
+    b = assess_motions(boat, partitions=parts, course_deg=co, speed_m_s=3.0, method="table")
     assert b.method == "table"
     for f in ("heave_rms_m", "roll_rms_deg", "vacc_rms_m_s2", "lacc_rms_m_s2", "vacc_wf_rms_m_s2", "msi_pct"):
         x, y = getattr(a, f), getattr(b, f)
-        assert np.max(np.abs(y - x) / (np.abs(x) + 0.01 * np.abs(x).max())) < 0.01, f
+        assert np.max(np.abs(y - x) / (np.abs(x) + 0.01 * np.abs(x).max())) < tol, f
     np.testing.assert_array_equal(a.flags, b.flags)
 
 
@@ -220,7 +225,9 @@ def test_chosen_table_cases_agree_with_exact(cold_tables):
     from seaway_comfort.processing.core import api
 
     parts, co = _route_sea(2400, seed=9)
-    for boat in (BOAT, builtin_profile("coastal_survey_35m")):
+    # the closed-form model, whose tables the stated 1 % / 3 % hold for; the strip model's own
+    # table-vs-exact agreement (2 %, tables.py) is checked in test_table_method_agrees_with_exact
+    for boat in (BOAT_CF, dataclasses.replace(builtin_profile("coastal_survey_35m"), motion_model="closed_form")):
         assert api.choose_method(boat, 2400, speed_m_s=4.0, gamma=parts.gamma, spread_s=parts.spread_s) == "table"
         a = assess_motions(boat, partitions=parts, course_deg=co, speed_m_s=4.0)
         b = assess_motions(boat, partitions=parts, course_deg=co, speed_m_s=4.0, method="exact")

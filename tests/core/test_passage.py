@@ -323,7 +323,8 @@ def test_summary_helpers(uniform_source, profile):
 
 def test_partitions_reach_the_response(tmp_path, profile):
     """Wind sea + swell partitions go to the response as SeaPartitions (api called directly
-    gives the same numbers); a partition missing at a cell counts as absent (Hs 0, the api's
+    gives the same numbers; the swell with the swell spreading s = 13 of DNV-RP-C205's
+    n >= 6, waves.spectra.SWELL_SPREAD_S); a partition missing at a cell counts as absent (Hs 0, the api's
     convention), never as a NaN sample."""
     from seaway_comfort.processing.core.api import SeaPartitions, assess_motions
 
@@ -359,7 +360,7 @@ def test_partitions_reach_the_response(tmp_path, profile):
     keep = east | west  # leave out samples whose interpolation cells straddle the wind-sea edge
     parts = SeaPartitions(hs_m=p_hs[keep], tp_s=np.column_stack([np.full(n, 5.0), np.full(n, 11.0)])[keep],
                           wave_from_deg=np.column_stack([np.full(n, 90.0), np.zeros(n)])[keep],
-                          gamma=np.array([2.0, 2.0]), spread_s=np.array([5.0, 5.0]), names=("wind", "swell1"))
+                          gamma=np.array([2.0, 2.0]), spread_s=np.array([5.0, 13.0]), names=("wind", "swell1"))
     direct = assess_motions(profile, course_deg=r.course_deg[keep], speed_m_s=np.full(keep.sum(), 8.0 * KNOT_M_S),
                             partitions=parts)
     for field in ("heave_rms_m", "roll_rms_deg", "vacc_rms_m_s2", "msi_pct"):

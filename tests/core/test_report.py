@@ -80,7 +80,7 @@ def _result(n: int = 6, *, source: str = "model A") -> PassageResult:
         comfort_label=tuple(labels[c] if c >= 0 else "" for c in cls), flags=flags,
         source=tuple(source if c else "" for c in comp), lon_deg=np.linspace(-21, -20, n),
         lat_deg=np.linspace(-24.5, -25, n), speed_kn=np.full(n, 9.0), heave_tz_s=vals(8.0),
-        roll_tz_s=vals(6.0), vacc_wf_rms_m_s2=vals(0.15), vomit_pct=vals(3.3), dwell_s=dwell,
+        roll_tz_s=vals(6.0), vacc_wf_rms_m_s2=vals(0.15), sway_rms_m=vals(0.1), yaw_rms_deg=vals(0.5), vomit_pct=vals(3.3), dwell_s=dwell,
         is_vertex=np.isin(np.arange(n), [0, n - 1]), computed=comp, vessel_name="test vessel",
         station_name="bridge", method="table", roll_period_s=6.0, departure_utc=t0,
         notes=("a note with <b>markup</b> & ampersand",),

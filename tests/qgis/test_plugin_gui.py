@@ -310,7 +310,7 @@ def _editable(dialog) -> None:
     [
         (lambda d: d.spins["beam_m"].setValue(0.0), ["Beam B (m)", "beam_m", "0.0"]),
         (lambda d: d.spins["block_coeff"].setValue(0.2), ["Block coefficient Cb", "block_coeff", "0.2"]),
-        (lambda d: d.spins["roll_damping_ratio"].setValue(0.0), ["Roll damping", "0.0"]),
+        (lambda d: d.spins["roll_damping_ratio"].setValue(1.0), ["Roll damping", "1.0"]),  # 0 = Ikeda estimate
         (lambda d: d.spins["service_speed_kn"].setValue(0.0), ["Service speed (kn)", "0.0"]),
         (lambda d: (d.spins["gm_m"].setValue(0.0), d.spins["roll_period_s"].setValue(0.0)),
          ["gm_m", "roll_period_s"]),

@@ -305,7 +305,7 @@ class ClosedFormTransfer:
         return cls(
             length_m=p.length_wl_m, beam_m=p.beam_m, draught_m=p.draught_m,  # type: ignore[attr-defined]
             block_coeff=p.block_coeff, roll_period_s=p.natural_roll_period_s,  # type: ignore[attr-defined]
-            roll_damping_ratio=p.roll_damping_ratio, kappa=kappa, breadth=breadth,  # type: ignore[attr-defined]
+            roll_damping_ratio=p.closed_form_damping_ratio, kappa=kappa, breadth=breadth,  # type: ignore[attr-defined]
             slope_reduction=slope_reduction, g_m_s2=g_m_s2,
         )
 

@@ -13,8 +13,27 @@ Dynamics"; never through a Jacobian, which is singular in following seas)::
 
 Variances of the partitions add (linear superposition of independent seas).
 
-Station motions, ship axes x forward, y to starboard, z up from the waterline (roll and pitch
-axes taken through midships on the waterline; sway, surge and yaw are not modelled):
+Two kinds of transfer model. A COMPLEX model (``transfer.complex_motions``, the strip theory of
+:mod:`.strip_transfer`) gives heave, pitch, roll, sway and yaw with their phases at O (midships,
+waterline; x forward, y to starboard, z up; roll positive lifting the starboard side, pitch bow
+down, sway to starboard, yaw bow to starboard). The moment array then has 12 rows: the auto
+terms of heave, pitch, roll, wave, sway, yaw and the cross terms Re(a conj(b)) of (heave,
+pitch), (heave, roll), (pitch, roll), (sway, yaw), (sway, roll), (yaw, roll) (:data:`ROWS_COMPLEX`),
+and a station (x, y, z) gets, with its complex motions (Lewis (ed.) 1989, PNA vol. III ch. 8,
+rigid-body kinematics, small angles)::
+
+    vertical displacement  V = heave - x pitch + y roll
+    lateral displacement   Y = sway + x yaw - z roll
+    lateral specific force f = -omega_e**2 Y + g roll          (gravity component g*roll)
+    |V|**2 = hh + x**2 pp + y**2 rr - 2x hp + 2y hr - 2xy pr
+    |f|**2 = omega_e**4 |Y|**2 - 2 g omega_e**2 Re(Y conj(roll)) + g**2 rr
+
+each a linear map of the moments (so partitions and tables still add up linearly).
+A MAGNITUDE model (the closed form, RAO tables) keeps the 4-row path described next, unchanged.
+
+Station motions of a magnitude model, ship axes x forward, y to starboard, z up from the
+waterline (roll and pitch axes taken through midships on the waterline; sway, surge and yaw
+are not modelled, their RMS values are NaN):
 
 * vertical displacement amplitude |z(x, y)| = sqrt(heave**2 + x**2 pitch**2 + y**2 roll**2): we
   ASSUME heave, pitch and roll in quadrature (phase-incoherent sum). For heave and pitch this
@@ -60,6 +79,7 @@ from ..vessel.profile import Station
 
 __all__ = [
     "ROWS",
+    "ROWS_COMPLEX",
     "WEIGHTS",
     "UnitMoments",
     "MotionResponse",
@@ -76,6 +96,9 @@ __all__ = [
 
 ROWS: Tuple[str, ...] = ("heave", "pitch", "roll", "wave")
 """Rows of the moment array: heave [m], pitch [rad], roll [rad], wave elevation [m]."""
+ROWS_COMPLEX: Tuple[str, ...] = ROWS + ("sway", "yaw", "heave.pitch", "heave.roll", "pitch.roll",
+                                        "sway.yaw", "sway.roll", "yaw.roll")
+"""Rows for a complex transfer model: auto terms, then cross terms Re(a conj(b))."""
 WEIGHTS: Tuple[str, ...] = ("1", "we2", "we4", "we6", "we4_wf2")
 """Columns: integrand factors |omega_e|**0, **2, **4, **6 and omega_e**4 |Wf|**2."""
 OUTSIDE_COVERAGE_LIMIT: float = 0.01
@@ -88,7 +111,7 @@ _CHUNK_ELEMENTS = 150_000
 class UnitMoments:
     """Response moments per unit Hs**2 for n samples and p partitions.
 
-    ``m`` (n, p, 4, 5): rows :data:`ROWS`, columns :data:`WEIGHTS` (units: row unit squared
+    ``m`` (n, p, R, 5): rows :data:`ROWS` (R = 4) or :data:`ROWS_COMPLEX` (R = 12), columns :data:`WEIGHTS` (units: row unit squared
     times (rad/s)**n per m**2 of Hs**2); ``outside_fraction`` (n, p): share of the wave variance
     at frequencies the transfer model does not cover (0 for the closed form).
     """
@@ -119,6 +142,8 @@ class MotionResponse:
     lacc_rms_m_s2: FloatArray
     vacc_wf_rms_m_s2: FloatArray
     flags: NDArray[np.int64]
+    sway_rms_m: FloatArray
+    yaw_rms_deg: FloatArray
     method: str = "exact"
 
     @property
@@ -222,12 +247,13 @@ def unit_moments(
     theta_deg = dgs[0].theta_rel_rad * DEG_PER_RAD  # (nd,)
     wd = np.stack([d.weights for d in dgs])  # (p, nd)
     energy = _wave_energy(gamma, n_freq, frequency_grid, normalise_spectrum)
-    m_out = np.empty((n, p, 4, 5))
+    rows = 12 if getattr(transfer, "complex_motions", False) else 4
+    m_out = np.empty((n, p, rows, 5))
     outside = np.zeros((n, p))
     n_f = n_freq if frequency_grid is None else frequency_grid.omega_rad_s.size
     chunk = max(1, _CHUNK_ELEMENTS // (p * n_f * theta_deg.size))
     # integrand buffers reused by every chunk (fresh large arrays per chunk cost page faults)
-    buf = np.empty((9, min(n, chunk), p, n_f, theta_deg.size))
+    buf = np.empty((rows + 5, min(n, chunk), p, n_f, theta_deg.size))
     for a in range(0, n, chunk):
         b = min(n, a + chunk)
         omega, e_f = energy(tp_s[a:b])
@@ -270,32 +296,52 @@ def _wave_energy(gamma: FloatArray, n_freq: int, frequency_grid: Optional[Freque
 
 def _chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatArray, mu: FloatArray,
                    speed_m_s: FloatArray, depth: Optional[FloatArray], g_m_s2: float, buf: FloatArray) -> FloatArray:
-    """Moments (c, p, 4, 5) of one chunk (module docstring): omega, e_f (c, p, nf) absolute
+    """Moments (c, p, R, 5) of one chunk (module docstring): omega, e_f (c, p, nf) absolute
     frequencies and wave energy S d omega, wd (p, nd) direction weights, mu (c, p, 1, nd);
-    ``buf`` (9, c, p, nf, nd) scratch space for the integrand factors."""
+    ``buf`` (R + 5, c, p, nf, nd) scratch space for the integrand factors."""
     c, p = omega.shape[:2]
     k = wavenumber_rad_m(omega, depth, g_m_s2=g_m_s2)  # (c, p, nf)
     cmu = cos_deg(mu)
-    smu = np.abs(cos_deg(mu - 90.0))
     om4, k4 = omega[..., None], k[..., None]
     we = om4 - k4 * speed_m_s[:, None, None, None] * cmu  # (c, p, nf, nd)
-    tr = transfer.evaluate_grid(om4, k4, mu, cmu, smu, we)
     e = e_f[..., None] * wd[None, :, None, :]  # (c, p, nf, nd)
+    rows = buf.shape[0] - 5
+    q, w = buf[:rows], buf[rows:]
+    if rows == 12:
+        _complex_rows(transfer.evaluate_parts(om4, mu, speed_m_s[:, None, None, None]), e, q)
+    else:
+        smu = np.abs(cos_deg(mu - 90.0))
+        tr = transfer.evaluate_grid(om4, k4, mu, cmu, smu, we)
+        q[0] = tr.heave_m_per_m**2 * e
+        q[1] = tr.pitch_rad_per_m**2 * e
+        q[2] = tr.roll_rad_per_m**2 * e
+        q[3] = e
     we2 = we * we
     we4 = we2 * we2
-    q, w = buf[:4], buf[4:]
-    q[0] = tr.heave_m_per_m**2 * e
-    q[1] = tr.pitch_rad_per_m**2 * e
-    q[2] = tr.roll_rad_per_m**2 * e
-    q[3] = e
     w[0] = 1.0
     w[1] = we2
     w[2] = we4
     w[3] = we4 * we2
     w[4] = we4 * _wf2_unchecked(np.abs(we))
-    qf = q.reshape(4, c * p, -1).transpose(1, 0, 2)  # (cp, 4, F)
+    qf = q.reshape(rows, c * p, -1).transpose(1, 0, 2)  # (cp, R, F)
     wf = w.reshape(5, c * p, -1).transpose(1, 2, 0)  # (cp, F, 5)
-    return np.matmul(qf, wf).reshape(c, p, 4, 5)
+    return np.matmul(qf, wf).reshape(c, p, rows, 5)
+
+
+_CROSS = ((0, 1), (0, 2), (1, 2), (3, 4), (3, 2), (4, 2))
+"""Cross terms of :data:`ROWS_COMPLEX` as index pairs into (heave, pitch, roll, sway, yaw)."""
+
+
+def _complex_rows(parts: FloatArray, e: FloatArray, q: FloatArray) -> None:
+    """The 12 rows of :data:`ROWS_COMPLEX` times the wave energy e, written into q; ``parts``
+    (10, ...) real and imaginary parts of heave, pitch, roll, sway, yaw
+    (:meth:`.strip_transfer.StripTransfer.evaluate_parts`)."""
+    re, im = parts[0::2], parts[1::2]  # modes heave, pitch, roll, sway, yaw
+    for i, r in ((0, 0), (1, 1), (2, 2), (4, 3), (5, 4)):
+        np.multiply(re[r] * re[r] + im[r] * im[r], e, out=q[i])
+    q[3] = e
+    for i, (a, b) in enumerate(_CROSS):
+        np.multiply(re[a] * re[b] + im[a] * im[b], e, out=q[6 + i])
 
 
 def _ratio_period(m0: FloatArray, m2: FloatArray, fb0: FloatArray, fb2: FloatArray) -> FloatArray:
@@ -307,17 +353,20 @@ def _ratio_period(m0: FloatArray, m2: FloatArray, fb0: FloatArray, fb2: FloatArr
 
 
 N_BASE = 8
-"""Leading columns of the station-quantity array: m0, m2 of heave, pitch, roll, wave."""
+"""Leading columns of the station-quantity array: m0, m2 of heave, pitch, roll, wave (a
+complex model adds m0, m2 of sway and yaw: N_BASE + 4 columns)."""
 
 
 def station_quantities(m: FloatArray, stations: Sequence[Station], g_m_s2: float = G_STANDARD_M_S2) -> FloatArray:
-    """Linear map of moments (..., 4, 5) to the quantities the statistics need (..., 8 + 4 ns).
+    """Linear map of moments (..., R, 5) to the quantities the statistics need.
 
-    Columns: m0, m2 of heave, pitch, roll and wave elevation; then per station
-    m0 and m2 of the vertical acceleration, m0 of the Wf-weighted vertical acceleration and m0 of
-    the lateral specific force (module docstring). Linear in ``m``, so partitions may be summed
-    before or after this map and tables may interpolate its output.
+    Columns: m0, m2 of heave, pitch, roll and wave elevation (and of sway and yaw when R = 12);
+    then per station m0 and m2 of the vertical acceleration, m0 of the Wf-weighted vertical
+    acceleration and m0 of the lateral specific force (module docstring). Linear in ``m``, so
+    partitions may be summed before or after this map and tables may interpolate its output.
     """
+    if m.shape[-2] == len(ROWS_COMPLEX):
+        return _complex_station_quantities(m, stations, g_m_s2)
     cols = [m[..., 0, 0], m[..., 0, 1], m[..., 1, 0], m[..., 1, 1],
             m[..., 2, 0], m[..., 2, 1], m[..., 3, 0], m[..., 3, 1]]
     g = g_m_s2
@@ -327,6 +376,21 @@ def station_quantities(m: FloatArray, stations: Sequence[Station], g_m_s2: float
         cols.append(m[..., 0, 3] + x2 * m[..., 1, 3] + y2 * m[..., 2, 3])
         cols.append(m[..., 0, 4] + x2 * m[..., 1, 4] + y2 * m[..., 2, 4])
         cols.append(g * g * m[..., 2, 0] + 2.0 * g * z * m[..., 2, 1] + z * z * m[..., 2, 2])
+    return np.stack(cols, axis=-1)
+
+
+def _complex_station_quantities(m: FloatArray, stations: Sequence[Station], g: float) -> FloatArray:
+    """:func:`station_quantities` for the 12 rows of :data:`ROWS_COMPLEX` (module docstring:
+    |V|**2 and |f|**2 from auto and cross moments)."""
+    cols = [m[..., r, c] for r in (0, 1, 2, 3, 4, 5) for c in (0, 1)]
+    for st in stations:
+        x, y, z = st.x_m, st.y_m, st.z_m
+        v = (m[..., 0, :] + x * x * m[..., 1, :] + y * y * m[..., 2, :] - 2.0 * x * m[..., 6, :]
+             + 2.0 * y * m[..., 7, :] - 2.0 * x * y * m[..., 8, :])
+        lat2 = (m[..., 4, 2] + x * x * m[..., 5, 2] + z * z * m[..., 2, 2] + 2.0 * x * m[..., 9, 2]
+                - 2.0 * z * m[..., 10, 2] - 2.0 * x * z * m[..., 11, 2])
+        lat_roll = m[..., 10, 1] + x * m[..., 11, 1] - z * m[..., 2, 1]
+        cols += [v[..., 2], v[..., 3], v[..., 4], lat2 - 2.0 * g * lat_roll + g * g * m[..., 2, 0]]
     return np.stack(cols, axis=-1)
 
 
@@ -348,13 +412,18 @@ def combine_quantities(
     tz = [_ratio_period(qp[:, 2 * i], qp[:, 2 * i + 1], w0, w2) for i in range(3)]
     rms = [np.sqrt(np.maximum(q[:, 2 * i], 0.0)) for i in range(3)]
     ns = len(station_names)
-    st = q[:, N_BASE:].reshape(-1, ns, 4)
-    stp = qp[:, N_BASE:].reshape(-1, ns, 4)
+    base = q.shape[1] - 4 * ns
+    st = q[:, base:].reshape(-1, ns, 4)
+    stp = qp[:, base:].reshape(-1, ns, 4)
+    n = hs_m.shape[0]
+    if base > N_BASE:
+        sway, yaw = np.sqrt(np.maximum(q[:, 8], 0.0)), np.sqrt(np.maximum(q[:, 10], 0.0)) * DEG_PER_RAD
+    else:
+        sway, yaw = np.full(n, np.nan), np.full(n, np.nan)
     a0p, a2p = stp[..., 0], stp[..., 1]
     ok = (a0p > 0) & (a2p > 0)
     fb = (w2 / np.where(w0 > 0, w0, 1.0))[:, None]
     vomega = np.sqrt(np.where(ok, a2p / np.where(ok, a0p, 1.0), fb))
-    n = hs_m.shape[0]
     return MotionResponse(
         station_names=tuple(station_names),
         heave_rms_m=rms[0],
@@ -368,7 +437,7 @@ def combine_quantities(
         lacc_rms_m_s2=np.sqrt(np.maximum(st[..., 3], 0.0)),
         vacc_wf_rms_m_s2=np.sqrt(np.maximum(st[..., 2], 0.0)),
         flags=np.zeros(n, dtype=np.int64) if flags is None else np.asarray(flags, dtype=np.int64),
-        method=method,
+        sway_rms_m=sway, yaw_rms_deg=yaw, method=method,
     )
 
 
@@ -411,8 +480,8 @@ def motion_response(
 
     Parameters
     ----------
-    transfer : a transfer model (:class:`.transfer.ClosedFormTransfer` or
-        :class:`.rao_table.TableTransfer`).
+    transfer : a transfer model (:class:`.closed_form.ClosedFormTransfer`,
+        :class:`.rao_table.TableTransfer` or the complex :class:`.strip_transfer.StripTransfer`).
     stations : stations where accelerations are computed.
     hs_m, tp_s, wave_from_deg : (n,) or (n, p) partitions [m, s, deg true "from"]; hs 0 = absent.
     course_deg, speed_m_s : (n,) or scalars [deg true, m/s through the water].

@@ -121,7 +121,7 @@ def _load(key: str, n_stations: int) -> Optional[ResponseTable]:
                 return None
             arrs = {k: np.array(z[k], dtype=float) for k in _ARRAYS}
         nt, nh = arrs["tp_grid_s"].size, arrs["heading_grid_deg"].size
-        if arrs["q"].shape != (nt, nh, 8 + 4 * n_stations) or arrs["outside"].shape != (nt, nh):
+        if arrs["q"].shape not in ((nt, nh, 8 + 4 * n_stations), (nt, nh, 12 + 4 * n_stations)) or arrs["outside"].shape != (nt, nh):
             return None
         if not all(np.all(np.isfinite(a)) for a in arrs.values()):
             return None

@@ -41,10 +41,13 @@ MOTION_OUTPUTS: Tuple[MotionOutput, ...] = (
     MotionOutput("lacc_rms_m_s2", "m/s^2", "l.acc m/s2"),
     MotionOutput("vacc_wf_rms_m_s2", "m/s^2", "v.acc Wf m/s2"),
     MotionOutput("msi_pct", "%", "MSI %", 1),
+    MotionOutput("sway_rms_m", "m", "sway m"),
+    MotionOutput("yaw_rms_deg", "deg", "yaw deg"),
 )
 """RMS motions, mean zero-crossing encounter periods, RMS vertical acceleration, lateral
-specific force and ISO 2631-1 Wf-weighted vertical acceleration at the station, and the
-motion sickness incidence (2 h); see :class:`.api.MotionAssessment`."""
+specific force and ISO 2631-1 Wf-weighted vertical acceleration at the station, the
+motion sickness incidence (2 h), and RMS sway (midships) and yaw (strip model; NULL for the
+closed form, which has neither); see :class:`.api.MotionAssessment`."""
 
 MOTION_OUTPUT_NAMES: Tuple[str, ...] = tuple(o.name for o in MOTION_OUTPUTS)
 

@@ -126,8 +126,10 @@ def _kinematics(track: Track, sea: SeaAtSamples, idx: NDArray[np.int64], depth_a
 
 
 def _partitions(sea: SeaAtSamples, chunk: NDArray[np.int64], gamma: float, spread_s: float) -> object:
-    """The sea's partitions at ``chunk`` as :class:`..api.SeaPartitions` (None without)."""
+    """The sea's partitions at ``chunk`` as :class:`..api.SeaPartitions` (None without); swell
+    partitions get the narrower swell spreading (:func:`..waves.spectra.partition_spread_s`)."""
     from ..api import SeaPartitions
+    from ..waves.spectra import partition_spread_s
 
     if not sea.partition_names:
         return None
@@ -145,7 +147,8 @@ def _partitions(sea: SeaAtSamples, chunk: NDArray[np.int64], gamma: float, sprea
         p_hs[empty, 0], p_tp[empty, 0], p_dir[empty, 0] = hs[empty], tp[empty], wdir[empty]
     p = p_hs.shape[1]
     return SeaPartitions(hs_m=p_hs, tp_s=p_tp, wave_from_deg=p_dir, gamma=np.full(p, gamma),
-                         spread_s=np.full(p, spread_s), names=tuple(sea.partition_names))
+                         spread_s=partition_spread_s(sea.partition_names, spread_s),
+                         names=tuple(sea.partition_names))
 
 
 def _chosen_method(method: Optional[str], track: Track, idx: NDArray[np.int64], profile: object,
@@ -272,6 +275,9 @@ def passage_result(plan: PassagePlan, sea: SeaAtSamples, mot: SampleMotions, pro
     from ..comfort.indices import COMFORT_CLASS_LABELS
 
     t_s, notes = plan.elapsed_s, list(sea.notes)
+    if mot.computed.any() and not np.isfinite(mot.outputs["sway_rms_m"][mot.computed]).any():
+        notes.append("sway_rms_m and yaw_rms_deg are not computed by this motion model (closed form or "
+                     "RAO table): left empty")
     msdv, vomit = _passage_dose(t_s, mot.outputs["vacc_wf_rms_m_s2"], mot.computed, notes)
     n = plan.n
     return PassageResult(

@@ -11,7 +11,7 @@ and at least one flag saying why (never a silent zero).
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Dict, List, Tuple
+from typing import Dict, List, Optional, Tuple
 
 import numpy as np
 from numpy.typing import NDArray
@@ -77,15 +77,26 @@ def _implausible_flags(s: Dict[str, LayerSample], layers: Dict[str, VariableLaye
     return flags
 
 
-def _partition_arrays(s: Dict[str, LayerSample], parts: Tuple[str, ...], n: int
+def _partition_arrays(s: Dict[str, LayerSample], parts: Tuple[str, ...], n: int,
+                      layers: Optional[Dict[str, VariableLayer]] = None, notes: Optional[List[str]] = None
                       ) -> Tuple[FloatArray, FloatArray, FloatArray]:
-    """(n, p) Hs, Tp and direction of the partitions, NaN where a partition lacks one."""
+    """(n, p) Hs, Tp and direction of the partitions, NaN where a partition lacks one.
+
+    A partition period recognised by a CF "..._mean_period" standard name is a mean period, not
+    Tp: it is taken as Tm01 (the moment Copernicus-style partition products give; from memory)
+    and converted with the JONSWAP ratio Tp = Tm01 / TM01_OVER_TP of :mod:`.derived` (noted)."""
     nan2 = np.full((n, len(parts)), np.nan)
     p_hs, p_tp, p_dir = nan2.copy(), nan2.copy(), nan2.copy()
     for j, p in enumerate(parts):
         for arr, q in ((p_hs, "hs"), (p_tp, "tp"), (p_dir, "dir")):
             if f"{p}_{q}" in s:
                 arr[:, j] = s[f"{p}_{q}"].values
+        lay = (layers or {}).get(f"{p}_tp")
+        if lay is not None and "_mean_period" in str(lay.recognised_by) and f"{p}_tp" in s:
+            p_tp[:, j] = tp_s_from_mean_period(p_tp[:, j], "tm01")
+            if notes is not None:
+                notes.append(f"{p} period is a mean period in the file: Tp = Tm01 / "
+                             f"{MEAN_PERIOD_RATIOS['tm01']} (JONSWAP gamma 3.3)")
     return p_hs, p_tp, p_dir
 
 
@@ -177,7 +188,7 @@ def sea_state_from_layer_samples(s: Dict[str, LayerSample], n: int, layers: Dict
     flags = _implausible_flags(s, layers, n, notes, warnings)
     nc = int(NOT_COMPUTED_FLAGS)
     parts = partitions
-    p_hs, p_tp, p_dir = _partition_arrays(s, parts, n)
+    p_hs, p_tp, p_dir = _partition_arrays(s, parts, n, layers, notes)
     partial = np.zeros(n, dtype=bool)
     consulted: Dict[str, List[str]] = {"hs": [], "tp": [], "dir": []}
     hs = _combined_hs(s, p_hs, parts, partial, notes, consulted["hs"])

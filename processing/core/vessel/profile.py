@@ -14,13 +14,20 @@ File format (our own, versioned JSON; read with :func:`json.load` only, no code 
      "name": "...", "length_wl_m": 12.0, "beam_m": 4.2, "draught_m": 1.1,
      "block_coeff": 0.46, "waterplane_coeff": 0.72, "gm_m": 0.9, "roll_period_s": null,
      "roll_damping_ratio": 0.1, "service_speed_kn": 9.0, "description": "...",
-     "rao_table": null,
+     "rao_table": null, "hull_sections": null, "motion_model": "strip",
+     "roll_gyradius_m": null, "pitch_gyradius_m": null,
      "stations": [{"name": "helm", "x_m": 1.0, "y_m": 0.0, "z_m": 2.0,
                    "task": "light_manual_work"}]}
 
 ``rao_table`` is an optional path to a response-table CSV (see :mod:`.rao_table`), relative to
 the JSON file. ``task`` (optional) selects the default seakeeping criterion of a station
-(:mod:`.criteria`).
+(:mod:`.criteria`). Keys added later, all optional (files without them read as before):
+``hull_sections`` a CSV of hull sections (columns x_m, beam_m, draught_m, area_m2, >= 11 rows
+sorted by x_m; relative to the JSON file; read by :mod:`..motions.strip.sections`);
+``motion_model`` "strip" (default, strip theory) or "closed_form" (the quick fallback);
+``roll_gyradius_m`` / ``pitch_gyradius_m`` radii of gyration about G [m] (defaults in
+:mod:`..motions.strip_transfer`). ``roll_damping_ratio``: an explicit JSON ``null`` asks the
+strip model for Ikeda's component estimate; a missing key keeps the old default 0.10.
 """
 from __future__ import annotations
 
@@ -61,6 +68,11 @@ _KNOWN_TASKS = (
     "transit_passengers",
     "cruise_liner",
 )
+
+MOTION_MODELS = ("strip", "closed_form")
+"""Accepted ``motion_model`` values; the first is the default."""
+IS_CODE_MIN_LENGTH_M = 24.0
+"""IMO 2008 IS Code (Res. MSC.267(85)) applies to ships of 24 m in length and over (Part A 1.2)."""
 
 CB_MIN, CB_MAX = 0.35, 1.0
 """Accepted block-coefficient range (the closed-form motion model is built for this range)."""
@@ -144,11 +156,15 @@ class VesselProfile:
     gm_m : transverse metacentric height GM [m] > 0 (corrected for free surface).
     roll_period_s : natural roll period [s]; ``None`` = IMO 2008 IS Code estimate from GM
         (:func:`.roll_period.imo_roll_period_s`). One of gm_m / roll_period_s is required.
-    roll_damping_ratio : roll damping as a fraction of critical, in (0, 1) (default 0.10).
+    roll_damping_ratio : roll damping as a fraction of critical, in (0, 1) (default 0.10);
+        ``None`` = Ikeda's component estimate (strip model; the closed form then uses 0.10).
     service_speed_kn : service speed through the water [kn], > 0.
     stations : tuple of :class:`Station` (at least one, unique names, inside the hull).
     description : free text.
     rao_table : optional CSV path (relative to ``base_dir`` when that is set).
+    hull_sections : optional hull-sections CSV path (relative to ``base_dir``).
+    motion_model : "strip" (default) or "closed_form".
+    roll_gyradius_m, pitch_gyradius_m : radii of gyration about G [m], > 0, or None.
     base_dir : folder the profile was loaded from (not compared, not saved).
 
     Validation rules (errors name the field and value): B <= L, T > 0, T <= B, Cb in
@@ -165,20 +181,24 @@ class VesselProfile:
     gm_m: Optional[float] = None
     roll_period_s: Optional[float] = None
     waterplane_coeff: Optional[float] = None
-    roll_damping_ratio: float = 0.10
+    roll_damping_ratio: Optional[float] = 0.10
     service_speed_kn: float = 10.0
     description: str = ""
     rao_table: Optional[str] = None
+    hull_sections: Optional[str] = None
+    motion_model: str = "strip"
+    roll_gyradius_m: Optional[float] = None
+    pitch_gyradius_m: Optional[float] = None
     base_dir: Optional[str] = field(default=None, compare=False)
 
     def __post_init__(self) -> None:
         src = f"vessel {show(self.name)}"
         if not isinstance(self.name, str) or not self.name.strip():
             raise SeawayInputError(f"vessel name must be a non-empty string, got {show(self.name)}")
-        for fname in ("length_wl_m", "beam_m", "draught_m", "block_coeff",
-                      "roll_damping_ratio", "service_speed_kn"):
+        for fname in ("length_wl_m", "beam_m", "draught_m", "block_coeff", "service_speed_kn"):
             object.__setattr__(self, fname, _num(src, fname, getattr(self, fname)))
-        for fname in ("gm_m", "roll_period_s", "waterplane_coeff"):
+        for fname in ("gm_m", "roll_period_s", "waterplane_coeff", "roll_damping_ratio",
+                      "roll_gyradius_m", "pitch_gyradius_m"):
             v = getattr(self, fname)
             if v is not None:
                 object.__setattr__(self, fname, _num(src, fname, v))
@@ -187,8 +207,20 @@ class VesselProfile:
         self._check_ranges(src)
         object.__setattr__(self, "stations", tuple(self.stations))
         self._check_stations(src)
-        if self.rao_table is not None and (not isinstance(self.rao_table, str) or not self.rao_table):
-            raise _err(src, f"rao_table must be a non-empty path string or null, got {show(self.rao_table)}")
+        self._check_model(src)
+
+    def _check_model(self, src: str) -> None:
+        """File keys are non-empty strings or None; motion model known; radii of gyration > 0."""
+        for fname in ("rao_table", "hull_sections"):
+            v = getattr(self, fname)
+            if v is not None and (not isinstance(v, str) or not v):
+                raise _err(src, f"{fname} must be a non-empty path string or null, got {show(v)}")
+        if self.motion_model not in MOTION_MODELS:
+            raise _err(src, f"motion_model must be one of {', '.join(MOTION_MODELS)}, got {show(self.motion_model)}")
+        for fname in ("roll_gyradius_m", "pitch_gyradius_m"):
+            v = getattr(self, fname)
+            if v is not None and v <= 0:
+                raise _err(src, f"{fname} must be > 0 (a radius of gyration in metres) or null, got {show(v)}")
 
     def _check_ranges(self, src: str) -> None:
         """FIELD_RANGES, and GM no larger than the hydrostatic bound KB + BM with KG >= 0:
@@ -251,7 +283,7 @@ class VesselProfile:
             raise _err(src, f"gm_m must be > 0 (a vessel with GM <= 0 is unstable), got {show(self.gm_m)}")
         if self.roll_period_s is not None and self.roll_period_s <= 0:
             raise _err(src, f"roll_period_s must be > 0, got {show(self.roll_period_s)}")
-        if not 0.0 < self.roll_damping_ratio < 1.0:
+        if self.roll_damping_ratio is not None and not 0.0 < self.roll_damping_ratio < 1.0:
             raise _err(src, f"roll_damping_ratio must lie in (0, 1), got {show(self.roll_damping_ratio)}")
         if self.service_speed_kn <= 0:
             raise _err(src, f"service_speed_kn must be > 0, got {show(self.service_speed_kn)}")
@@ -289,8 +321,20 @@ class VesselProfile:
         return estimate_waterplane_coeff(self.block_coeff)
 
     @property
+    def closed_form_damping_ratio(self) -> float:
+        """Roll damping ratio of the closed-form model: given, else 0.10 (the old default)."""
+        return 0.10 if self.roll_damping_ratio is None else float(self.roll_damping_ratio)
+
+    @property
+    def is_code_roll_period_applies(self) -> bool:
+        """True when the IS Code roll-period formula is within its scope (L >= 24 m)."""
+        return self.length_wl_m >= IS_CODE_MIN_LENGTH_M
+
+    @property
     def natural_roll_period_s(self) -> float:
-        """Natural roll period [s]: given, else the IMO 2008 IS Code estimate from GM."""
+        """Natural roll period [s] of the closed-form model: given, else the IMO 2008 IS Code
+        estimate from GM (kept for every length so closed-form results do not change; the
+        strip model uses the IS Code only from 24 m, see :mod:`..motions.strip_transfer`)."""
         if self.roll_period_s is not None:
             return float(self.roll_period_s)
         from .roll_period import imo_roll_period_s
@@ -313,20 +357,28 @@ class VesselProfile:
             f"{', '.join(self.station_names)}"
         )
 
-    def rao_table_path(self) -> Optional[Path]:
-        """Absolute path of the RAO table CSV, or None."""
-        if self.rao_table is None:
+    def _file_path(self, value: Optional[str]) -> Optional[Path]:
+        if value is None:
             return None
-        p = Path(self.rao_table)
+        p = Path(value)
         if not p.is_absolute() and self.base_dir is not None:
             p = Path(self.base_dir) / p
         return p
+
+    def rao_table_path(self) -> Optional[Path]:
+        """Absolute path of the RAO table CSV, or None."""
+        return self._file_path(self.rao_table)
+
+    def hull_sections_path(self) -> Optional[Path]:
+        """Absolute path of the hull-sections CSV, or None."""
+        return self._file_path(self.hull_sections)
 
 
 # ---------------------------------------------------------------------- dict / JSON
 _REQUIRED = ("name", "length_wl_m", "beam_m", "draught_m", "block_coeff", "stations")
 _OPTIONAL = ("gm_m", "roll_period_s", "waterplane_coeff", "roll_damping_ratio",
-             "service_speed_kn", "description", "rao_table")
+             "service_speed_kn", "description", "rao_table", "hull_sections", "motion_model",
+             "roll_gyradius_m", "pitch_gyradius_m")
 _ALLOWED = ("format", "format_version") + _REQUIRED + _OPTIONAL
 _STATION_KEYS = ("name", "x_m", "y_m", "z_m", "task")
 
@@ -375,6 +427,8 @@ def profile_from_dict(d: Mapping[str, Any], *, source: str = "<dict>", base_dir:
     for k in _OPTIONAL:
         if k in d and d[k] is not None:
             kwargs[k] = d[k]
+    if "roll_damping_ratio" in d and d["roll_damping_ratio"] is None:
+        kwargs["roll_damping_ratio"] = None  # explicit null: Ikeda estimate (module docstring)
     desc = kwargs.get("description", "")
     if not isinstance(desc, str):
         raise _err(source, f"description must be a string, got {show(desc)}")

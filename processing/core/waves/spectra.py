@@ -31,7 +31,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Optional
+from typing import Optional, Sequence
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -51,6 +51,8 @@ __all__ = [
     "DirectionGrid",
     "direction_grid",
     "spread_s_from_sigma_deg",
+    "SWELL_SPREAD_S",
+    "partition_spread_s",
     "sigma_deg_from_spread_s",
     "spectral_moment",
     "significant_wave_height_m",
@@ -303,6 +305,22 @@ def cos2s_spreading_per_rad(theta_rel_rad: ArrayLike, s: ArrayLike) -> FloatArra
     with np.errstate(divide="ignore"):
         d = _cos2s_constant(sv) * np.where(sv == 0, 1.0, c2**sv)
     return np.asarray(d, dtype=float)
+
+
+SWELL_SPREAD_S: float = 13.0
+"""cos-2s exponent of a swell partition: DNV-RP-C205 (2010) s.3.5.8 advises cos**n spreading with
+n = 2 for wind sea and n >= 6 for swell (from memory); cos**6 has the circular spread of
+cos-2s with s = m1/(1-m1) = 13.55 (m1 = 0.9313 by numerical integration; Kuik, van Vledder &
+Holthuijsen 1988 spread measure), rounded down to 13. (cos**2 gives s = 5.6.)"""
+
+
+def partition_spread_s(names: Sequence[str], wind_spread_s: float) -> FloatArray:
+    """cos-2s exponent per partition: ``wind_spread_s`` for the wind sea and the combined sea,
+    max(wind_spread_s, SWELL_SPREAD_S) for partitions named ``swell...`` (the tags of
+    :data:`..seastate.variables.PARTITIONS`)."""
+    s = float(require_nonnegative("spread_s", wind_spread_s))
+    return np.array([max(s, SWELL_SPREAD_S) if str(n).lower().startswith("swell") else s for n in names],
+                    dtype=float)
 
 
 def spread_s_from_sigma_deg(sigma_deg: ArrayLike) -> FloatArray:

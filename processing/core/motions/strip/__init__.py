@@ -1,7 +1,8 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Linear strip-theory seakeeping engine (Salvesen, Tuck & Faltinsen 1970) with Lewis sections.
 
-Self-contained numerical heart; it imports only the standard library, numpy and scipy.
+Numerical heart; it imports the standard library, numpy, scipy and the core's base module
+``validation`` (its errors are :class:`..validation.SeawayInputError`).
 
 Axes and signs used in every module of this package (decided once):
 
@@ -21,6 +22,8 @@ Axes and signs used in every module of this package (decided once):
 """
 from __future__ import annotations
 
+from ...validation import SeawayInputError
 
-class StripInputError(ValueError):
+
+class StripInputError(SeawayInputError):
     """Bad input to the strip-theory engine; the message names the input, its value and a fix."""

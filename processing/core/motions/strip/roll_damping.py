@@ -27,6 +27,8 @@ Kawahara, Maekawa & Ikeda 2009): total = friction + eddy + lift + wave (+ bilge 
   checked against the paper in this session and the coefficients as recalled gave an
   implausibly small eddy damping, so it was left out rather than guessed. Without it the
   "ikeda" damping is a lower bound at low speed for hulls without bilge keels (larger roll).
+  A later search found public transcriptions of the authors' own program of the simplified
+  method, but not the paper or ITTC 7.5-02-07-04.5 text to check them against; still left out.
 
 Both friction and eddy depend on the roll amplitude phi_a: they are equivalent linear damping
 coefficients at that amplitude (equal dissipated energy per cycle).
