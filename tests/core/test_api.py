@@ -1,9 +1,8 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """The one-call facade assess_motions.
 
-Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
-[D] computed from the named published formula by an independent implementation outside this
-project (the source itself does not print the number)."""
+Sources are named beside each check; "from memory" marks a source not re-read, "by hand" a
+derivation written beside the check, "common practice, no source" a fact of the trade."""
 from __future__ import annotations
 
 import dataclasses

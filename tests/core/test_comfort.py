@@ -1,15 +1,18 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """MSI, ISO 2631-1 Wf weighting, MSDV, comfort classes.
 
-Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
-[D] computed from the named published formula by an independent implementation outside this
-project (the source itself does not print the number)."""
+Every expected number is traceable from this file: the MSI rows are recomputed by
+_reference_msi (the published formula evaluated with scipy.stats.norm.cdf), the Wf rows by
+_reference_wf (the ISO 2631-1 Annex A filter written anew as polynomials and evaluated with
+scipy.signal.freqs), the doses by hand beside the checks. "From memory" marks what was not
+read from the source."""
 from __future__ import annotations
 
 import math
 
 import numpy as np
 import pytest
+from scipy import signal
 from scipy.stats import norm
 
 from seaway_comfort.processing.core.comfort.indices import (
@@ -26,8 +29,18 @@ from seaway_comfort.processing.core.comfort.indices import (
 )
 from seaway_comfort.processing.core.validation import SeawayInputError
 
-# [D] values of O'Hanlon & McCauley (1974) in the Lloyd (1989) / PNA (1989) form,
-# g = 9.81, mean |a|, omega_e in rad/s, 2 h.
+
+def _reference_msi(a_m_s2: float, w_rad_s: float) -> float:
+    """O'Hanlon & McCauley (1974), 2 h, as given by Lloyd (1989) p. 335 (PNA 1989 vol. III ch. 8):
+    MSI = 100 Phi((log10(a/g) - mu)/0.4), mu = -0.819 + 2.32 (log10 w)^2, g = 9.81, a mean |a|;
+    written anew here with math.log10 and scipy.stats.norm.cdf."""
+    mu = -0.819 + 2.32 * math.log10(w_rad_s) ** 2
+    return 100.0 * float(norm.cdf((math.log10(a_m_s2 / 9.81) - mu) / 0.4))
+
+
+# MSI rows printed from _reference_msi (test_msi_rows_follow_from_reference recomputes each);
+# hand anchor: row 1 sits at the median, log10(a/g) = mu = -0.819 at w = 1 -> a = 9.81 x
+# 10^-0.819 = 1.4911 m/s^2 -> 50 %; row (0.79788, 1.0) is mean |a| of RMS 1 (sqrt(2/pi)).
 MSI_ROWS = [
     (1.4911, 1.0, 50.08), (0.5, 1.0, 11.816), (1.0, 1.0, 33.299), (0.5, 0.6, 7.082),
     (0.3, 1.2, 3.793), (1.0, 2.0, 16.922), (2.0, 1.5, 55.609), (0.8, 0.8, 23.318),
@@ -40,6 +53,13 @@ def test_msi_two_hours_table(a, w, expected):
     assert float(msi_percent(a, w)) == pytest.approx(expected, abs=6e-3)
 
 
+@pytest.mark.parametrize("a, w, expected", MSI_ROWS)
+def test_msi_rows_follow_from_reference(a, w, expected):
+    # each printed row equals the reference formula to its printed digits (the 50.08 row is
+    # also the hand-derived median: Phi(0) = 1/2 up to a = 1.4911 rounded to 5 digits)
+    assert _reference_msi(a, w) == pytest.approx(expected, abs=6e-3)
+
+
 def test_msi_against_published_formula_with_scipy_normal_cdf():
     # Lloyd (1989) p. 335 form evaluated independently with scipy.stats.norm.cdf.
     a = np.array([0.1, 0.7, 2.5]); w = np.array([0.5, 1.3, 3.0])
@@ -50,34 +70,75 @@ def test_msi_against_published_formula_with_scipy_normal_cdf():
 
 
 def test_msi_time_dependent_model():
-    # McCauley et al. (1976) time-dependent model [C, coefficients from memory]:
-    # 0.5 m/s^2 at 1 rad/s for 120 min gives 10.8 % ([D], vs 11.8 % for the 1974 form).
-    assert float(msi_percent(0.5, 1.0, exposure_h=2.0 + 1e-12)) == pytest.approx(10.8, abs=0.06)
+    # McCauley et al. (1976) time-dependent model, coefficients from memory (not read from the
+    # report): MSI = 100 Phi(Za) Phi(Zt), Za = 2.128 log10(a/g) - 9.277 lf - 5.809 lf^2 - 1.851,
+    # lf = log10(f [Hz]), Zt = 1.134 Za + 1.989 log10(t [min]) - 2.904; evaluated here with
+    # scipy.stats.norm.cdf: 0.5 m/s^2 at 1 rad/s for 120 min -> 10.787 % (vs 11.8 % of the
+    # 1974 form, MSI_ROWS).
+    lf = math.log10(1.0 / (2 * math.pi))
+    za = 2.128 * math.log10(0.5 / 9.81) - 9.277 * lf - 5.809 * lf * lf - 1.851
+    zt = 1.134 * za + 1.989 * math.log10(120.0) - 2.904
+    ref = 100 * norm.cdf(za) * norm.cdf(zt)
+    assert ref == pytest.approx(10.787, abs=5e-4)
+    assert float(msi_percent(0.5, 1.0, exposure_h=2.0 + 1e-12)) == pytest.approx(ref, rel=1e-9)
     # MSI grows with exposure (common practice, no source).
     v = [float(msi_percent(1.0, 1.0, exposure_h=t)) for t in (0.5, 1.0, 4.0)]
     assert v[0] < v[1] < v[2]
 
 
-@pytest.mark.parametrize("f, expected", [
+def _reference_wf(freq_hz: float) -> float:
+    """|Wf| of ISO 2631-1:1997 Annex A written anew as four analogue filters in polynomial form
+    (b(s)/a(s), highest power first) and evaluated with scipy.signal.freqs at w = 2 pi f:
+    high-pass s^2/(s^2 + w1 s/Q1 + w1^2), low-pass w2^2/(s^2 + w2 s/Q2 + w2^2), Q1 = Q2 = 1/sqrt(2),
+    transition w4^2/(s^2 + w4 s/Q4 + w4^2), step (s^2 + w5 s/Q5 + w5^2)/(s^2 + w6 s/Q6 + w6^2);
+    f1 0.08, f2 0.63, f4 0.25, Q4 0.86, f5 0.0625, Q5 0.80, f6 0.10, Q6 0.80 Hz (parameters from
+    memory; they reproduce the standard's table values we recall: 0.16 Hz 1.006, 0.2 Hz 0.992,
+    0.5 Hz 0.224)."""
+    w1, w2, w4, w5, w6 = (2 * math.pi * f for f in (0.08, 0.63, 0.25, 0.0625, 0.10))
+    q = 1 / math.sqrt(2)
+    filters = [([1, 0, 0], [1, w1 / q, w1**2]), ([w2**2], [1, w2 / q, w2**2]),
+               ([w4**2], [1, w4 / 0.86, w4**2]), ([1, w5 / 0.80, w5**2], [1, w6 / 0.80, w6**2])]
+    h = np.prod([signal.freqs(b, a, worN=[2 * math.pi * freq_hz])[1][0] for b, a in filters])
+    return float(abs(h))
+
+
+WF_ROWS = [  # printed from _reference_wf (test_wf_rows_follow_from_reference recomputes each)
     (0.02, 0.0242), (0.05, 0.1566), (0.08, 0.4607), (0.1, 0.6951), (0.125, 0.8951), (0.16, 1.0060),
     (0.2, 0.9920), (0.25, 0.8543), (0.315, 0.6191), (0.4, 0.3843), (0.5, 0.2239), (0.63, 0.1163),
     (0.8, 0.0530), (1.0, 0.0235),
-])
+]
+
+
+@pytest.mark.parametrize("f, expected", WF_ROWS)
+def test_wf_rows_follow_from_reference(f, expected):
+    assert _reference_wf(f) == pytest.approx(expected, abs=5.1e-5)
+
+
+def test_wf_recalled_iso_table_values():
+    # ISO 2631-1:1997 weighting table values as recalled (from memory): 0.16 Hz 1.006,
+    # 0.2 Hz 0.992, 0.5 Hz 0.224, to the 3 printed decimals.
+    for f, v in ((0.16, 1.006), (0.2, 0.992), (0.5, 0.224)):
+        assert float(iso2631_wf_weighting(f)) == pytest.approx(v, abs=5e-4)
+
+
+@pytest.mark.parametrize("f, expected", WF_ROWS)
 def test_wf_weighting_at_nominal_band_frequencies(f, expected):
-    # [D] |Wf| from the ISO 2631-1:1997 Annex A filter (parameters recalled [C]) at the nominal
-    # frequencies; the recalled ISO table values 0.16 Hz 1.006, 0.2 Hz 0.992, 0.5 Hz 0.224 agree [C].
+    # WF_ROWS (from _reference_wf) at the nominal one-third-octave frequencies.
     assert float(iso2631_wf_weighting(f)) == pytest.approx(expected, abs=5.1e-5)
 
 
 def test_wf_sinusoid_weighted_rms():
-    # [D] ISO 2631-1 Wf: a 0.2 Hz sinusoid of amplitude 1 m/s^2 -> a_w,rms = 0.70146 m/s^2.
+    # a sinusoid of amplitude A has RMS A/sqrt(2) (by hand); weighted at 0.2 Hz by _reference_wf:
+    # 0.992010 / 1.414214 = 0.70146 m/s^2.
+    assert _reference_wf(0.2) / math.sqrt(2) == pytest.approx(0.70146, abs=5e-6)
     assert float(iso2631_wf_weighting(0.2)) / math.sqrt(2) == pytest.approx(0.70146, abs=5e-6)
     assert float(iso2631_wf_weighting(0.0)) == 0.0
 
 
 def test_msdv_sqrt_time_and_values():
-    # ISO 2631-1:1997 Annex D MSDV = a_w sqrt(T), Km = 1/3; worked values [D]:
-    # 0.5 m/s^2 for 2 h -> 42.426 -> 14.14 %; 0.3 for 1 h -> 18.000 -> 6.00 %; 1.0 for 0.5 h -> 42.426.
+    # ISO 2631-1:1997 Annex D MSDV = a_w sqrt(T), Km = 1/3; by hand: 0.5 x sqrt(7200 s) = 0.5 x
+    # 84.8528 = 42.426 m/s^1.5 -> /3 = 14.14 %; 0.3 x sqrt(3600) = 0.3 x 60 = 18.000 -> 6.00 %;
+    # 1.0 x sqrt(1800) = 42.426 (a quarter of the time at twice the level gives the same dose).
     assert float(msdv_m_s15(0.5, 7200)) == pytest.approx(42.426, abs=5e-4)
     assert float(vomiting_share_pct(msdv_m_s15(0.5, 7200))) == pytest.approx(14.14, abs=5e-3)
     assert float(msdv_m_s15(0.3, 3600)) == pytest.approx(18.0, abs=5e-4)

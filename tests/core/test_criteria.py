@@ -1,9 +1,8 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
-"""NORDFORSK 1987 criteria by task (table from memory [C]).
+"""NORDFORSK 1987 criteria by task (table from memory).
 
-Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
-[D] computed from the named published formula by an independent implementation outside this
-project (the source itself does not print the number)."""
+Sources are named beside each check; "from memory" marks a source not re-read, "by hand" a
+derivation written beside the check, "common practice, no source" a fact of the trade."""
 from __future__ import annotations
 
 import numpy as np
@@ -16,7 +15,7 @@ G = 9.80665
 
 
 def test_table_entries():
-    # NORDFORSK (1987), from memory [C] (widely reproduced, e.g. Faltinsen 1990; not checked here).
+    # NORDFORSK (1987), from memory (widely reproduced, e.g. Faltinsen 1990; not re-read here).
     want = {
         "light_manual_work": (0.20, 0.10, 6.0), "heavy_manual_work": (0.15, 0.07, 4.0),
         "intellectual_work": (0.10, 0.05, 3.0), "transit_passengers": (0.05, 0.04, 2.5),

@@ -118,8 +118,12 @@ def test_heading_cases_match_ittc_and_deep_water_encounter(uniform_source, profi
 
 
 def test_head_seas_value_from_encounter_table(uniform_source, profile):
-    """Deep water T 8 s, U 10 kn, head seas: Te = 5.6657 s (PNA vol. III ch. 8 formula, value
-    as tabulated in the project's methods table, tag [D]; recomputed above independently)."""
+    """Deep water T 8 s, U 10 kn, head seas: Te = 5.6657 s (PNA vol. III ch. 8 deep-water
+    encounter frequency, by hand: omega = 2 pi/8 = 0.785398 rad/s, U = 10 x 1852/3600 =
+    5.144444 m/s, omega_e = omega + omega^2 U/g = 0.785398 + 0.323592 = 1.108990 rad/s,
+    Te = 2 pi/omega_e = 5.6657 s, g = 9.80665)."""
+    w = 2 * math.pi / 8.0
+    assert 2 * math.pi / (w + w * w * (10 * 1852 / 3600) / 9.80665) == pytest.approx(5.6657, abs=5e-5)
     r = _run(uniform_source, profile, [0.0, 0.0], [0.0, 0.5], speed_kn=10.0, spacing_nm=10.0)
     np.testing.assert_allclose(r.enc_period_s, 5.6657, atol=5e-5)
 
@@ -216,7 +220,12 @@ def test_msdv_steady_motion_iso2631(uniform_source, profile):
 
 
 def test_shallow_bathymetry_changes_wavelength(tmp_path, uniform_source, profile):
-    """Depth 10 m, T 8 s: L = 70.883 m (Airy dispersion; methods table [D], SPM 1984 Table C-1 form)."""
+    """Depth 10 m, T 8 s: L = 70.883 m, c = 8.8604 m/s (Airy dispersion omega^2 = g k tanh(kh),
+    Dean & Dalrymple 1991 ch. 3, solved here by scipy.optimize.brentq, g = 9.80665)."""
+    from scipy.optimize import brentq
+    w = 2 * math.pi / 8.0
+    k = brentq(lambda kk: 9.80665 * kk * math.tanh(kk * 10.0) - w * w, 1e-6, 10.0, xtol=1e-15)
+    assert 2 * math.pi / k == pytest.approx(70.883, abs=5e-4) and w / k == pytest.approx(8.8604, abs=5e-5)
     lon = np.arange(-10.0, 10.01, 0.5)
     lat = np.arange(-10.0, 20.01, 0.5)
     tif = str(tmp_path / "depth10.tif")

@@ -1,9 +1,12 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Spectral response in the encounter domain (integration over absolute frequency).
 
-Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
-[D] computed from the named published formula by an independent implementation outside this
-project (the source itself does not print the number)."""
+The tabulated values are recomputed in this file by _reference_rows: the DNV-RP-C205 eq. 3.5.5
+JONSWAP written anew (_reference_jonswap), the encounter-domain integrals of PNA 1989 vol. III
+ch. 8 by scipy.integrate.trapezoid, MSI by the published formula with scipy.stats.norm.cdf.
+It takes the heave/pitch RAOs from jmo_heave_pitch and |Wf| from iso2631_wf_weighting, each
+anchored to its own reference in test_transfer.py and test_comfort.py; so these checks anchor
+the spectrum, the encounter frequency, the station combination and the integration."""
 from __future__ import annotations
 
 import math
@@ -11,7 +14,11 @@ import math
 import numpy as np
 import pytest
 
+from scipy import integrate
+from scipy.stats import norm
+
 from seaway_comfort.processing.core.comfort.indices import (
+    iso2631_wf_weighting,
     mean_abs_from_rms,
     msdv_m_s15,
     msi_percent,
@@ -20,15 +27,15 @@ from seaway_comfort.processing.core.comfort.indices import (
 from seaway_comfort.processing.core.numerics import trapezoid_weights
 from seaway_comfort.processing.core.motions.response import motion_response, unit_moments
 from seaway_comfort.processing.core.waves.spectra import FrequencyGrid
-from seaway_comfort.processing.core.motions.closed_form import ClosedFormTransfer
+from seaway_comfort.processing.core.motions.closed_form import ClosedFormTransfer, jmo_heave_pitch
 from seaway_comfort.processing.core.validation import SeawayInputError
 from seaway_comfort.processing.core.vessel.profile import Station, builtin_profile
 
 G = 9.81
-# [D] values (independent implementations of JMO 2004 + DNV-RP-C205 JONSWAP + the encounter-domain
-# integral of PNA 1989 vol. III ch. 8): vessel A (L 12, B0 4, T 1, Cb 0.45), long-crested JONSWAP Hs 1.5, Tp 6,
-# gamma 3.3 (DNV A_gamma normalisation), U 4 m/s, trapezoid on omega in [0.1, 6.0] with 59 001
-# points, g 9.81; accelerations at x = 0 and x = 4.8 m with the quadrature rule; MSI with
+# Case of the tables (printed from _reference_rows, which test_rows_follow_from_reference re-runs):
+# vessel A (L 12, B0 4, T 1, Cb 0.45), long-crested JONSWAP Hs 1.5, Tp 6, gamma 3.3 (DNV A_gamma
+# normalisation), U 4 m/s, trapezoid on omega in [0.1, 6.0] with 59 001 points, g 9.81;
+# accelerations at x = 0 and x = 4.8 m with heave and pitch in quadrature; MSI with
 # mean|a| = sqrt(2/pi) sigma_a (Lloyd 1989 form).
 _OM = np.linspace(0.1, 6.0, 59001)
 GRID = FrequencyGrid(_OM, trapezoid_weights(_OM))
@@ -59,6 +66,40 @@ ROWS_K = [  # recommended kappa = exp(-kT)
 ]
 
 
+def _reference_jonswap(w, hs, tp, gam):
+    """DNV-RP-C205 eq. 3.5.5 written anew: A_g (5/16) Hs^2 wp^4 w^-5 exp(-1.25 (w/wp)^-4)
+    gam^exp(-(w - wp)^2/(2 s^2 wp^2)), A_g = 1 - 0.287 ln gam, s = 0.07 (w <= wp) / 0.09."""
+    wp = 2 * math.pi / tp
+    sig = np.where(w <= wp, 0.07, 0.09)
+    pm = 5 / 16 * hs**2 * wp**4 * w**-5 * np.exp(-1.25 * (w / wp) ** -4)
+    return (1 - 0.287 * math.log(gam)) * pm * gam ** np.exp(-((w - wp) ** 2) / (2 * sig**2 * wp**2))
+
+
+def _reference_msi(sigma_a, wz):
+    """Lloyd (1989) p. 335 MSI (2 h) of a Gaussian acceleration: mean |a| = sqrt(2/pi) sigma."""
+    mu = -0.819 + 2.32 * math.log10(wz) ** 2
+    return 100 * norm.cdf((math.log10(math.sqrt(2 / math.pi) * sigma_a / G) - mu) / 0.4)
+
+
+def _reference_rows(kappa, mu, u=4.0):
+    """(heave sigma [m], pitch sigma [deg], then per x in (0, 4.8) m: sigma_a, wz = sqrt(m6/m4)
+    of omega_e^4 |z|^2 S, MSI; last the Wf-weighted sigma_a at x = 0) by the encounter-domain
+    integrals over absolute frequency (PNA 1989 vol. III ch. 8): m = int f(omega_e) |H|^2 S d omega,
+    omega_e = omega - omega^2 U cos(mu)/g, |z|^2 = heave^2 + x^2 pitch^2."""
+    w = np.linspace(0.1, 6.0, 59001)
+    we = w - w * w / G * u * math.cos(math.radians(mu))
+    s = _reference_jonswap(w, 1.5, 6.0, 3.3)
+    r = jmo_heave_pitch(w, w * w / G, mu, u, 12.0, 4.0, 1.0, 0.45, kappa=kappa)
+    out = [math.sqrt(integrate.trapezoid(r.heave_m_per_m**2 * s, w)),
+           math.degrees(math.sqrt(integrate.trapezoid(r.pitch_rad_per_m**2 * s, w)))]
+    for x in (0.0, 4.8):
+        z2 = r.heave_m_per_m**2 + x**2 * r.pitch_rad_per_m**2
+        m4, m6 = (integrate.trapezoid(we**n * z2 * s, w) for n in (4, 6))
+        out += [math.sqrt(m4), math.sqrt(m6 / m4), _reference_msi(math.sqrt(m4), math.sqrt(m6 / m4))]
+    wf2 = iso2631_wf_weighting(np.abs(we) / (2 * math.pi)) ** 2
+    return out + [math.sqrt(integrate.trapezoid(we**4 * r.heave_m_per_m**2 * wf2 * s, w))]
+
+
 def _half_unit(v: float) -> float:
     """Half a unit of the last printed digit of a check value (the values are printed rounded)."""
     s = f"{v}"
@@ -86,13 +127,24 @@ def test_integrated_responses_methods_4_6(kappa, row):
     assert np.all(np.isfinite(r.heave_tz_s)) and r.flags[0] == 0
 
 
+@pytest.mark.parametrize("kappa, row", [("ke", r) for r in ROWS_KE] + [("k", r) for r in ROWS_K])
+def test_rows_follow_from_reference(kappa, row):
+    ref = _reference_rows(kappa, row[0])
+    for got, want in zip(ref[:8], row[1:]):
+        if want is not None:
+            assert got == pytest.approx(want, abs=_half_unit(want))
+
+
 @pytest.mark.parametrize("kappa, mu, aw, msdv, vomit", [
     ("ke", 180, 0.9877, 83.81, 27.9), ("ke", 90, 0.7407, 62.85, 21.0),
     ("k", 135, 0.9139, 77.55, 25.8), ("k", 90, 0.5778, 49.03, 16.3),
 ])
 def test_wf_weighted_acceleration_and_dose(kappa, mu, aw, msdv, vomit):
-    # [D] same case: ISO 2631-1 Wf at |omega_e|/2pi inside the integral; MSDV(2 h) and
-    # Km = 1/3 (ISO 2631-1:1997 Annex D).
+    # same case: ISO 2631-1 Wf at |omega_e|/2pi inside the integral (aw from _reference_rows);
+    # MSDV(2 h) = aw sqrt(7200) and Km = 1/3 (ISO 2631-1:1997 Annex D), e.g. by hand 0.9877 x
+    # 84.8528 = 83.81 m/s^1.5 -> 27.9 %.
+    assert _reference_rows(kappa, mu)[-1] == pytest.approx(aw, abs=_half_unit(aw))
+    assert aw * math.sqrt(7200) == pytest.approx(msdv, abs=0.01) and msdv / 3 == pytest.approx(vomit, abs=0.06)
     r = _run(_vessel_a(kappa), mu)
     a = r.vacc_wf_rms_m_s2[0, 0]
     assert a == pytest.approx(aw, abs=_half_unit(aw))
@@ -102,9 +154,16 @@ def test_wf_weighted_acceleration_and_dose(kappa, mu, aw, msdv, vomit):
 
 
 def test_simple_roll_irregular():
-    # [D] simple roll model (Lloyd 1989, r = 1), vessel A at zero speed in beam seas,
-    # same spectrum: roll sigma = 10.15 deg.
+    # simple roll model (Lloyd 1989 ch. 9, r = 1), vessel A at zero speed in beam seas, same
+    # spectrum: roll = k/sqrt((1 - q^2)^2 + (2 zeta q)^2), q = omega/omega_r, integrated here:
+    # roll sigma = 10.146 deg (printed 10.15).
+    w = np.linspace(0.1, 6.0, 59001)
+    q = w / (2 * math.pi / 4.1129)
+    roll = (w * w / G) / np.sqrt((1 - q * q) ** 2 + (0.2 * q) ** 2)
+    ref = math.degrees(math.sqrt(integrate.trapezoid(roll**2 * _reference_jonswap(w, 1.5, 6.0, 3.3), w)))
+    assert ref == pytest.approx(10.15, abs=0.005)
     r = _run(_vessel_a("k", "none"), 90, speed=0.0)
+    assert r.roll_rms_deg[0] == pytest.approx(ref, rel=1e-6)
     assert r.roll_rms_deg[0] == pytest.approx(10.15, abs=0.005)
     # lateral specific force at z = 0 is g * roll (common practice, no source: g*phi term)
     assert r.lacc_rms_m_s2[0, 0] == pytest.approx(G * math.radians(r.roll_rms_deg[0]), rel=1e-12)
@@ -112,9 +171,14 @@ def test_simple_roll_irregular():
 
 @pytest.mark.parametrize("mu, m2e", [(180.0, 0.78806), (90.0, 0.25335), (0.0, 0.08189)])
 def test_wave_encounter_moments_methods_3_3(mu, m2e):
-    # [D] encounter moments (PNA 1989 vol. III ch. 8; DNV-RP-C205 JONSWAP): wave elevation (H = 1), Hs 2, Tp 8, gamma 3.3, U 5 m/s, deep
-    # water, trapezoid on [0.05, 8.0] rad/s with 400 001 points, g 9.80665: m0 0.25058 and m2e.
+    # encounter moments (PNA 1989 vol. III ch. 8) of the wave elevation (H = 1), Hs 2, Tp 8,
+    # gamma 3.3, U 5 m/s, deep water, trapezoid on [0.05, 8.0] rad/s with 400 001 points,
+    # g 9.80665: m0 0.25058 and m2e, recomputed here from _reference_jonswap.
     om = np.linspace(0.05, 8.0, 400001)
+    s_ref = _reference_jonswap(om, 2.0, 8.0, 3.3)
+    we = om - om**2 / 9.80665 * 5.0 * math.cos(math.radians(mu))
+    assert integrate.trapezoid(s_ref, om) == pytest.approx(0.25058, abs=5e-6)
+    assert integrate.trapezoid(we**2 * s_ref, om) == pytest.approx(m2e, abs=5e-6)
     fg = FrequencyGrid(om, trapezoid_weights(om))
     tr = ClosedFormTransfer(12.0, 4.0, 1.0, 0.45, 4.1129, 0.1)
     um = unit_moments(tr, np.array([[8.0]]), np.array([[mu]]), np.array([5.0]), None, np.array([3.3]),

@@ -4,9 +4,9 @@
 Sources (keys used in the comments):
   [DNV2010]   DNV-RP-C205 (Oct. 2010) s.3.5.5: JONSWAP/PM forms, A_gamma, sigma 0.07/0.09, the
               gamma(Tp/sqrt(Hs)) rule, and the Tz/Tp, T1/Tp polynomial fits versus gamma
-              (coefficients from memory [C]; the same coefficients appear in several public codes).
+              (coefficients from memory; not re-read from the document).
   [ITTC2002]  23rd ITTC Specialist Committee on Waves (2002), Table A4: Te/Tp fit versus gamma
-              (also used verbatim by mhkit 1.1.2 energy_period_to_peak_period, tag [B]).
+              (coefficients from memory, like the DNV fits above).
   [PM-Gamma]  closed-form moments of omega^-5 exp(-B omega^-4) through the Gamma function
               (integral x^(n-5) exp(-B x^-4) dx = Gamma((4-n)/4) B^((n-4)/4) / 4).
   [quad-ref]  reference computation in this file (_reference_jonswap, _reference_ratios): the
@@ -15,7 +15,9 @@ Sources (keys used in the comments):
               s = 0.07 (w <= wp) / 0.09, integrated by scipy.integrate.quad (split at wp); the
               tables below were printed from it and test_integrated_table_follows_from_quad
               recomputes every row.
-  [mhkit-B]   mhkit 1.1.2 results recorded in the methods notes (tag [B]); mhkit not installed here.
+  [cos2s-ref] _reference_cos2s in this file: D(theta) = C(s) cos^2s(theta/2), C(s) =
+              Gamma(s+1)/(2 sqrt(pi) Gamma(s+1/2)) [LH1963] with scipy.special.gamma, integrated
+              by scipy.integrate.quad.
   [LH1963]    Longuet-Higgins, Cartwright & Smith (1963): cos-2s normalisation.
   [Kuik1988]  Kuik, van Vledder & Holthuijsen (1988) J. Phys. Oceanogr. 18: sigma_theta = sqrt(2(1-m1)).
   scipy.integrate.quad / scipy.integrate.trapezoid / scipy.special.gamma: reference library.
@@ -102,14 +104,17 @@ def test_trapezoid_bad_y() -> None:
 # JONSWAP / PM
 # ---------------------------------------------------------------------------------------------
 def test_peak_values() -> None:
-    """S_PM(wp) = (5/16) Hs^2 wp^-1 e^-5/4 = 0.455987 and S_J(wp; 3.3) = 0.989142 m^2 s
-    (Hs 2, Tp 8) [methods-D]; S_J(wp) = A_gamma gamma S_PM(wp) follows from [DNV2010]."""
+    """By hand from [DNV2010] at w = wp = 2 pi/8: S_PM(wp) = (5/16) Hs^2 wp^-1 e^-5/4 = 1.25 x
+    (4/pi) x 0.2865048 = 0.455987 m^2 s; S_J(wp; 3.3) = A_gamma gamma S_PM(wp) with
+    A_gamma = 1 - 0.287 ln 3.3 = 0.657344 -> 2.169236 x 0.455987 = 0.989142 m^2 s (Hs 2, Tp 8);
+    also _reference_jonswap at wp."""
     pm = float(pierson_moskowitz_s_m2_s_rad(np.array([WP]), HS, TP)[0])
     js = float(jonswap_s_m2_s_rad(np.array([WP]), HS, TP, 3.3)[0])
     assert pm == pytest.approx(0.455987, abs=0.5e-6)
     assert pm == pytest.approx(5.0 / 16.0 * HS**2 / WP * math.exp(-1.25), rel=1e-14)
     assert js == pytest.approx(0.989142, abs=0.5e-6)
-    assert js == pytest.approx((1 - 0.287 * math.log(3.3)) * 3.3 * pm, rel=1e-14)
+    assert js == pytest.approx(_reference_jonswap(WP, 3.3), rel=1e-13)
+    assert 5.0 / math.pi * math.exp(-1.25) == pytest.approx(0.455987, abs=0.5e-6)
 
 
 def test_gamma_one_is_pierson_moskowitz_exactly() -> None:
@@ -118,6 +123,10 @@ def test_gamma_one_is_pierson_moskowitz_exactly() -> None:
     np.testing.assert_array_equal(
         jonswap_s_m2_s_rad(om, HS, TP, 1.0), pierson_moskowitz_s_m2_s_rad(om, HS, TP)
     )
+    # outside anchor: both equal the [quad-ref] transcription with gamma = 1
+    pick = om[::200]
+    np.testing.assert_allclose(pierson_moskowitz_s_m2_s_rad(pick, HS, TP),
+                               [_reference_jonswap(w, 1.0) for w in pick], rtol=1e-12, atol=1e-300)
 
 
 def _pm_moment(n: float, hs: float, tp: float) -> float:
@@ -209,12 +218,13 @@ def test_integrated_table_follows_from_quad(gam: float, hm0_ratio: float, tz: fl
 
 def test_independent_quad_check() -> None:
     """m0, m1, m_-1 of JONSWAP (gamma 3.3) by scipy.integrate.quad (reference library) on the
-    spectrum function versus our trapezoid moments; quad split at wp as in [quad-ref]."""
+    independent transcription _reference_jonswap [quad-ref] versus our spectrum's trapezoid
+    moments; quad split at wp."""
     om = _fine_grid()
     s = jonswap_s_m2_s_rad(om, HS, TP, 3.3)
 
     def spec(w: float) -> float:
-        return float(jonswap_s_m2_s_rad(np.array([w]), HS, TP, 3.3)[0])
+        return _reference_jonswap(w, 3.3)
 
     for n in (-1, 0, 1):
         pieces = [(1e-6 * WP, WP), (WP, 60 * WP), (60 * WP, np.inf)]
@@ -265,8 +275,9 @@ def test_zero_frequency_node() -> None:
      (1.0, 3.6, 5.0), (1.0, 5.0, 1.0), (1.0, 4.3, math.exp(5.75 - 1.15 * 4.3))],
 )
 def test_dnv_default_gamma(hs: float, tp: float, gam: float) -> None:
-    """[DNV2010] gamma rule on Tp/sqrt(Hs); (Hs 4, Tp 8) -> e^1.15 = 3.15819 and (Hs 6, Tp 8) -> 5
-    as mhkit 1.1.2 jonswap_spectrum(gamma=None) [mhkit-B]."""
+    """[DNV2010] gamma rule on p = Tp/sqrt(Hs): 5 for p <= 3.6, exp(5.75 - 1.15 p) for 3.6 < p < 5,
+    1 for p >= 5. By hand: (Hs 4, Tp 8) p = 4 -> e^(5.75 - 4.6) = e^1.15 = 3.15819; (Hs 6, Tp 8)
+    p = 3.266 -> 5; (Hs 1, Tp 3.6) p = 3.6 -> 5 (edge); (Hs 1, Tp 5) p = 5 -> 1 (edge)."""
     assert float(dnv_default_gamma(hs, tp)) == pytest.approx(gam, rel=1e-14)
 
 
@@ -280,10 +291,12 @@ def test_dnv_default_gamma_bad_input() -> None:
         dnv_default_gamma(np.ones(2), np.ones(3))
 
 
-@pytest.mark.parametrize("hs, hm0", [(4.0, 4.0042), (6.0, 6.0000)])
-def test_dnv_rule_spectrum_hm0_mhkit(hs: float, hm0: float) -> None:
-    """Hm0 of the A_gamma-normalised JONSWAP with the DNV gamma rule, Tp 8 s: [mhkit-B]
-    4.0042 and 6.0000 (their rectangle rule on 0.0005 Hz steps; our fine trapezoid, 2e-4 rel)."""
+@pytest.mark.parametrize("hs, gam, hm0", [(4.0, math.exp(1.15), 4.0042), (6.0, 5.0, 6.0000)])
+def test_dnv_rule_spectrum_hm0(hs: float, gam: float, hm0: float) -> None:
+    """Hm0 of the A_gamma-normalised JONSWAP with the DNV gamma rule (gamma by hand, see
+    test_dnv_default_gamma), Tp 8 s: 4.0042 and 6.0000, i.e. Hs x Hm0/Hs of [quad-ref]
+    (_reference_ratios; the ratio does not depend on Hs); our fine trapezoid within 2e-4 rel."""
+    assert hs * _reference_ratios(gam)[0] == pytest.approx(hm0, abs=0.5e-4 + 1e-5)
     om = _fine_grid()
     s = jonswap_s_m2_s_rad(om, hs, 8.0, dnv_default_gamma(hs, 8.0))
     assert float(significant_wave_height_m(s, om)) == pytest.approx(hm0, rel=2e-4)
@@ -370,15 +383,29 @@ def test_frequency_grid_bad_input(args: tuple) -> None:
 # ---------------------------------------------------------------------------------------------
 # directional spreading
 # ---------------------------------------------------------------------------------------------
-# s, normalising constant, sigma_theta [deg]  -- [methods-D] (trapezoid, 200 001 points)
+def _reference_cos2s(theta: float, s: float) -> float:
+    """[cos2s-ref] D(theta) = Gamma(s+1)/(2 sqrt(pi) Gamma(s+1/2)) cos^2s(theta/2) [1/rad]."""
+    return gamma_fn(s + 1) / (2 * math.sqrt(math.pi) * gamma_fn(s + 0.5)) * math.cos(theta / 2) ** (2 * s)
+
+
+# s, normalising constant, sigma_theta [deg] -- by hand and [cos2s-ref]: s = 1: Gamma(2)/(2 sqrt(pi)
+# Gamma(3/2)) = 1/(2 sqrt(pi) sqrt(pi)/2) = 1/pi = 0.31831, sigma = sqrt(2/2) rad = 57.296 deg;
+# s = 2: Gamma(3)/(2 sqrt(pi) (3/4) sqrt(pi)) = 4/(3 pi) = 0.42441, sigma = sqrt(2/3) rad = 46.782 deg.
 COS2S_TABLE = [(1.0, 0.31831, 57.296), (2.0, 0.42441, 46.782), (4.0, 0.58205, 36.237), (10.0, 0.90328, 24.431)]
 
 
 @pytest.mark.parametrize("s, const, sigma_deg", COS2S_TABLE)
 def test_cos2s_normalisation_and_spread(s: float, const: float, sigma_deg: float) -> None:
     """[LH1963] constant Gamma(s+1)/(2 sqrt(pi) Gamma(s+1/2)) and integral 1 (scipy quad);
-    [Kuik1988] sigma_theta = sqrt(2(1 - m1)) equals sqrt(2/(s+1)); printed values [methods-D]."""
+    [Kuik1988] sigma_theta = sqrt(2(1 - m1)) equals sqrt(2/(s+1)); the printed row follows from
+    [cos2s-ref] (m1 by quad of the reference, not of the core)."""
+    assert _reference_cos2s(0.0, s) == pytest.approx(const, abs=0.5e-5)
+    m1_ref = integrate.quad(lambda t: _reference_cos2s(t, s) * math.cos(t), -math.pi, math.pi)[0]
+    assert math.degrees(math.sqrt(2 * (1 - m1_ref))) == pytest.approx(sigma_deg, abs=0.5e-3)
+    assert math.degrees(math.sqrt(2 / (s + 1))) == pytest.approx(sigma_deg, abs=0.5e-3)
     assert float(cos2s_spreading_per_rad(0.0, s)) == pytest.approx(const, abs=0.5e-5)
+    th = np.linspace(-3.1, 3.1, 9)
+    np.testing.assert_allclose(cos2s_spreading_per_rad(th, s), [_reference_cos2s(t, s) for t in th], rtol=1e-12, atol=1e-15)
     total = integrate.quad(lambda t: float(cos2s_spreading_per_rad(t, s)), -math.pi, math.pi)[0]
     assert total == pytest.approx(1.0, abs=1e-12)
     m1 = integrate.quad(lambda t: float(cos2s_spreading_per_rad(t, s)) * math.cos(t), -math.pi, math.pi)[0]

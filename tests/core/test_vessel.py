@@ -1,12 +1,12 @@
 # SPDX-License-Identifier: GPL-2.0-or-later
 """Vessel profiles: validation, JSON round trip, built-in examples.
 
-Tags beside checks: [A] printed in the named source; [C] from memory (soft expectation);
-[D] computed from the named published formula by an independent implementation outside this
-project (the source itself does not print the number)."""
+Sources are named beside each check; "from memory" marks a source not re-read, "by hand" a
+derivation written beside the check, "common practice, no source" a fact of the trade."""
 from __future__ import annotations
 
 import json
+import math
 
 import pytest
 
@@ -59,8 +59,10 @@ def test_round_trip_dict_and_file(tmp_path):
 
 
 def test_roll_period_defaults_to_imo_estimate():
-    # IMO 2008 IS Code (MSC.267(85)) T = 2CB/sqrt(GM); worked value B 4, d 1, L 12, GM 0.8
-    # -> 4.1129 s ([D]: the Code's formula evaluated by an independent implementation).
+    # IMO 2008 IS Code (MSC.267(85)) Part A 2.3: T = 2CB/sqrt(GM), C = 0.373 + 0.023 B/d
+    # - 0.043 L/100; by hand, B 4, d 1, L 12, GM 0.8: C = 0.373 + 0.092 - 0.00516 = 0.45984,
+    # T = 2 x 0.45984 x 4/sqrt(0.8) = 3.67872/0.894427 = 4.1129 s.
+    assert 3.67872 / math.sqrt(0.8) == pytest.approx(4.1129, abs=5e-5)
     p = profile_from_dict(_d())
     assert p.natural_roll_period_s == pytest.approx(4.1129, abs=5e-5)
     assert profile_from_dict(_d(roll_period_s=5.0)).natural_roll_period_s == 5.0

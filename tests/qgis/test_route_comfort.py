@@ -105,6 +105,42 @@ def _core(sea, lon, lat, departure, speed):
         src.close()
 
 
+def _overview_rows(text):
+    """Data rows (cell texts) of the table after the report's "Overview" heading (html.parser)."""
+    from html.parser import HTMLParser
+
+    class Rows(HTMLParser):
+        def __init__(self):
+            super().__init__()
+            self.rows, self.heading, self.cell, self.active = [], "", None, False
+
+        def handle_starttag(self, tag, attrs):
+            if tag == "h2":
+                self.heading = ""
+            elif tag == "td" and self.active:
+                self.cell = ""
+            elif tag == "tr" and self.active:
+                self.rows.append([])
+
+        def handle_endtag(self, tag):
+            if tag == "h2":
+                self.active = self.heading.strip() == "Overview"
+            elif tag == "td" and self.cell is not None:
+                self.rows[-1].append(self.cell.strip())
+                self.cell = None
+            elif tag == "table":
+                self.active = False
+
+        def handle_data(self, data):
+            self.heading += data
+            if self.cell is not None:
+                self.cell += data
+
+    p = Rows()
+    p.feed(text)
+    return [r for r in p.rows if r]
+
+
 def _num(v):
     from qgis.PyQt.QtCore import QVariant
 
@@ -141,7 +177,17 @@ def test_end_to_end_matches_core(seaway_provider, route, sea, tmp_path):
     _, segs = _features(res["OUTPUT_SEGMENTS"])
     assert len(segs) == len(feats) - 2  # one fewer segment than samples per leg
     text = open(res["OUTPUT_REPORT"], encoding="utf-8").read()
-    assert "north run" in text and "east run" in text
+    # the report's overview table, parsed (html.parser): one row per leg with its name, distance
+    # [NM] = geodesic length (geographiclib, 1852 m/NM), hours = NM / speed [kn], max MSI [%]
+    rows = {r[1]: r for r in _overview_rows(text)}
+    assert set(rows) == {"north run", "east run"}
+    for name, (lat1, lon1, lat2, lon2), speed, leg in (("north run", (0.0, 0.0, 0.5, 0.0), 10.0, 0),
+                                                       ("east run", (1.0, 1.0, 1.0, 1.4), 6.0, 1)):
+        nm = Geodesic.WGS84.Inverse(lat1, lon1, lat2, lon2)["s12"] / 1852.0
+        assert rows[name][0] == str(leg + 1)
+        assert float(rows[name][4]) == pytest.approx(nm, abs=0.05 + 1e-9), name
+        assert float(rows[name][5]) == pytest.approx(nm / speed, abs=0.05 + 1e-9), name
+        assert float(rows[name][7]) == pytest.approx(float(np.nanmax(legs[leg].msi_pct)), abs=0.05 + 1e-9)
 
 
 def test_nulls_where_not_computed(seaway_provider, sea, tmp_path):
