@@ -106,7 +106,7 @@ def _core(sea, lon, lat, departure, speed):
 
 
 def _overview_rows(text):
-    """Data rows (cell texts) of the table after the report's "Overview" heading (html.parser)."""
+    """Data rows (cell texts) of the table after the report's "Legs" heading (html.parser)."""
     from html.parser import HTMLParser
 
     class Rows(HTMLParser):
@@ -124,7 +124,7 @@ def _overview_rows(text):
 
         def handle_endtag(self, tag):
             if tag == "h2":
-                self.active = self.heading.strip() == "Overview"
+                self.active = self.heading.strip() in ("Overview", "Legs")  # the legs table
             elif tag == "td" and self.cell is not None:
                 self.rows[-1].append(self.cell.strip())
                 self.cell = None

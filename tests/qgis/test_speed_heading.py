@@ -32,6 +32,7 @@ TP = "sea_surface_wave_period_at_variance_spectral_density_maximum"
 DIR = "sea_surface_wave_from_direction"
 T0 = np.datetime64("2030-06-01T00:00", "ms")  # invented scenario
 VESSEL = "harbour_workboat_12m"
+TP_ZONES_S = 7.0  # peak period of the zone test: synchronous roll reachable for the strip-theory TR of the 12 m boat
 FIELDS = ("speed_kn", "course_deg", "rel_heading_deg", "enc_period_s", "msi_pct", "roll_rms_deg",
           "vacc_rms_m_s2", "lacc_rms_m_s2", "comfort_class", "class_reason", "flags")
 G = 9.80665
@@ -92,10 +93,15 @@ def test_default_grid_reasons_and_report(seaway_provider, tmp_path):
 
 
 def test_zones_where_the_circular_puts_them(seaway_provider, tmp_path):
-    L, tr = resolve_vessel(VESSEL).length_wl_m, resolve_vessel(VESSEL).natural_roll_period_s
-    out = _run(tmp_path, _sea(str(tmp_path / "u.nc"), 1.0, 8.0), SPEEDS_KN="0,4,8,10,12")
+    from seaway_comfort.processing.core.api import transfer_model
+
+    prof = resolve_vessel(VESSEL)
+    # TR: the motion model's own natural roll period (strip theory: from GM and the roll inertia
+    # with added inertia), the one the circular's roll checks use; else the profile's estimate
+    L, tr = prof.length_wl_m, float(getattr(transfer_model(prof), "roll_period_s", prof.natural_roll_period_s))
+    out = _run(tmp_path, _sea(str(tmp_path / "u.nc"), 1.0, TP_ZONES_S), SPEEDS_KN="0,4,8,10,12")
     _, rows = _rows(out["OUTPUT_TABLE"])
-    tw = 0.8343 * 8.0
+    tw = 0.8343 * TP_ZONES_S
     c = G * tw / (2 * math.pi)
     lam = G * tw * tw / (2 * math.pi)
     checked = {"SURFRISK": 0, "WAVEGROUPS": 0, "ROLLSYNC": 0}

@@ -53,7 +53,6 @@ from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
-from scipy.special import exp1
 
 from . import StripInputError
 from ...validation import show
@@ -169,6 +168,8 @@ def _map(a1: NDArray, a3: NDArray, psi: NDArray) -> tuple[NDArray, NDArray]:
 
 def _e1_upper(z: NDArray) -> NDArray:
     """E1(z) continuous from Im z > 0 onto the negative real axis (E1(-x + i0) = -Ei(x) - i pi)."""
+    from scipy.special import exp1  # only when a profile's RAO set is built (then cached)
+
     z = np.where((z.imag == 0) & (z.real < 0), z + 1e-300j, z)
     return exp1(z)
 
