@@ -44,7 +44,22 @@ class ChunkTask:
 
 
 @dataclass(frozen=True)
-class ChunkResult:
+class MonthlyCounts:
+    """Integer counts per calendar month (months 0..11): see :class:`ChunkResult`."""
+
+    class_counts: NDArray[np.int64]
+    exceed_counts: NDArray[np.int64]
+    limit_counts: NDArray[np.int64]
+    implausible_counts: NDArray[np.int64]
+    steps: NDArray[np.int64]
+    dep_ok: NDArray[np.int64]
+    dep_known: NDArray[np.int64]
+    dep_unknown: NDArray[np.int64]
+    dep_past_end: NDArray[np.int64]
+
+
+@dataclass(frozen=True)
+class ChunkResult(MonthlyCounts):
     """Integer partial sums of one chunk (global step indices; months 0..11).
 
     ``class_counts`` (12, n, 6): steps per month, sample and bin (missing, class 0..4);
@@ -57,15 +72,6 @@ class ChunkResult:
     index: int
     a: int
     b: int
-    class_counts: NDArray[np.int64]
-    exceed_counts: NDArray[np.int64]
-    limit_counts: NDArray[np.int64]
-    implausible_counts: NDArray[np.int64]
-    steps: NDArray[np.int64]
-    dep_ok: NDArray[np.int64]
-    dep_known: NDArray[np.int64]
-    dep_unknown: NDArray[np.int64]
-    dep_past_end: NDArray[np.int64]
     wait: WaitPartial
 
 

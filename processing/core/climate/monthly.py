@@ -28,7 +28,7 @@ from numpy.typing import NDArray
 from ..flags import CAUTION, SampleFlag
 from ..units import FloatArray, nm_from_m
 from ..validation import SeawayInputError, show
-from .chunks import ChunkResult
+from .chunks import ChunkResult, MonthlyCounts
 from .engine import ClimateSetup
 from .windows import WaitTotals, merge_waits
 
@@ -74,18 +74,9 @@ def parse_months(text: object) -> Tuple[int, ...]:
 
 
 @dataclass(frozen=True)
-class ClimateTotals:
+class ClimateTotals(MonthlyCounts):
     """Integer sums over all chunks (months 0..11); see :class:`.chunks.ChunkResult`."""
 
-    class_counts: NDArray[np.int64]
-    exceed_counts: NDArray[np.int64]
-    limit_counts: NDArray[np.int64]
-    implausible_counts: NDArray[np.int64]
-    steps: NDArray[np.int64]
-    dep_ok: NDArray[np.int64]
-    dep_known: NDArray[np.int64]
-    dep_unknown: NDArray[np.int64]
-    dep_past_end: NDArray[np.int64]
     wait: WaitTotals
 
 
