@@ -83,14 +83,16 @@ TARGETS = [  # (output parameter, file name it is pointed at, input it reaches)
 ]
 
 
-@pytest.mark.parametrize("alg", sorted(CASES))
-@pytest.mark.parametrize("output,target,names", TARGETS + [("OUTPUT_CSV", "boat_rao.csv", "rao_table")])
+# every algorithm x every target, plus the seasonal climate's own CSV output (only it has one)
+COMBINATIONS = [(alg, *t) for alg in sorted(CASES) for t in TARGETS] + [
+    ("seawaycomfort:seasonalclimate", "OUTPUT_CSV", "boat_rao.csv", "rao_table")]
+
+
+@pytest.mark.parametrize("alg,output,target,names", COMBINATIONS)
 def test_outputs_never_overwrite_inputs(seaway_provider, files, alg, output, target, names):
     import processing
     from qgis.core import QgsApplication, QgsProcessingException
 
-    if output == "OUTPUT_CSV" and alg != "seawaycomfort:seasonalclimate":
-        pytest.skip("OUTPUT_CSV belongs to the seasonal climate")
     params = CASES[alg](files)
     before = _snapshot(files)
     params[output] = str(files / target)
