@@ -422,51 +422,50 @@ def with_ensemble(features: Iterator[QgsFeature], ens: Any) -> Iterator[QgsFeatu
         yield f
 
 
-def _attributes(r: PassageResult, i: int, leg_name: str, flag_text: Sequence[str]) -> List[Any]:
-    attrs: List[Any] = []
-    for name, kind, attr in POINT_FIELDS:
-        if attr is not None:
-            v = getattr(r, attr)[i]
-            if kind == "double":
-                fv = float(v)
-                attrs.append(fv if math.isfinite(fv) else _null())
-            else:
-                attrs.append(int(v))
-        elif name == "leg_name":
-            attrs.append(leg_name)
-        elif name == "eta_utc":
-            # to the nearest second: GeoPackage date-times keep whole seconds only
-            attrs.append(qdatetime_from_datetime64(round_to_second(r.eta_utc[i])))
-        elif name == "comfort_class":
-            c = int(r.comfort_class[i])
-            attrs.append(c if c != NOT_COMPUTED_CLASS else _null())
-        elif name == "comfort_label":
-            attrs.append(r.comfort_label[i] or _null())
-        elif name == "class_reason":
-            attrs.append(r.class_reason[i] or _null())
-        elif name == "flags":
-            attrs.append(flag_text[i])
-        elif name == "source":
-            attrs.append(r.source[i] or _null())
-    return attrs
+def _column(r: PassageResult, name: str, kind: str, attr: Optional[str], leg_name: str) -> List[Any]:
+    """One field's values for every sample as Python values (NULL where not computed)."""
+    null = _null()
+    if attr is not None:
+        a = np.asarray(getattr(r, attr))
+        if kind != "double":
+            return a.astype(np.int64).tolist()
+        a = a.astype(float)
+        return [v if ok else null for v, ok in zip(a.tolist(), np.isfinite(a).tolist())]
+    if name == "leg_name":
+        return [leg_name] * r.n
+    if name == "eta_utc":  # to the nearest second: GeoPackage date-times keep whole seconds only
+        return [qdatetime_from_datetime64(round_to_second(t)) for t in r.eta_utc]
+    if name == "comfort_class":
+        return [c if c != NOT_COMPUTED_CLASS else null for c in np.asarray(r.comfort_class).astype(np.int64).tolist()]
+    if name == "flags":
+        return list(flag_codes_array(r.flags))
+    if name in ("comfort_label", "class_reason", "source"):
+        return [v or null for v in getattr(r, name)]
+    raise ValueError(f"no writer for field {name}")
+
+
+def _attribute_rows(r: PassageResult, leg_name: str) -> List[List[Any]]:
+    """The attribute rows of every sample, built column by column (one pass per field)."""
+    cols = [_column(r, name, kind, attr, leg_name) for name, kind, attr in POINT_FIELDS]
+    return [list(row) for row in zip(*cols)]
 
 
 def point_features(r: PassageResult, fields: QgsFields, leg_name: str) -> Iterator[QgsFeature]:
     """One point feature per sample (EPSG:4326)."""
-    flag_text = flag_codes_array(r.flags)
-    for i in range(r.n):
+    rows = _attribute_rows(r, leg_name)
+    for i, (x, y) in enumerate(zip(np.asarray(r.lon_deg, dtype=float).tolist(), np.asarray(r.lat_deg, dtype=float).tolist())):
         f = QgsFeature(fields)
-        f.setGeometry(QgsGeometry.fromPointXY(QgsPointXY(float(r.lon_deg[i]), float(r.lat_deg[i]))))
-        f.setAttributes(_attributes(r, i, leg_name, flag_text))
+        f.setGeometry(QgsGeometry.fromPointXY(QgsPointXY(x, y)))
+        f.setAttributes(rows[i])
         yield f
 
 
 def segment_features(r: PassageResult, fields: QgsFields, leg_name: str) -> Iterator[QgsFeature]:
     """One line from each sample to the next, with the start sample's fields (EPSG:4326),
     unwrapped across the antimeridian (:func:`segment_geometry`)."""
-    flag_text = flag_codes_array(r.flags)
+    rows = _attribute_rows(r, leg_name)
     for i in range(r.n - 1):
         f = QgsFeature(fields)
         f.setGeometry(segment_geometry(r.lon_deg[i], r.lat_deg[i], r.lon_deg[i + 1], r.lat_deg[i + 1]))
-        f.setAttributes(_attributes(r, i, leg_name, flag_text))
+        f.setAttributes(rows[i])
         yield f

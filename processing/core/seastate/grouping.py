@@ -135,6 +135,8 @@ def group_forecast_files(paths: Sequence[str], names: Sequence[str] = ()) -> Lis
     if not paths:
         raise SeawayInputError("no forecast files given")
     names = [str(n).strip() for n in names]
+    if not names and len(paths) == 1:  # one file is one source: nothing to join, no need to read it twice
+        return [SourceGroup(_stem(paths[0]), (paths[0],))]
     return _by_name(paths, names) if names else _auto(paths)
 
 
