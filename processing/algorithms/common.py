@@ -345,9 +345,12 @@ def parse_datetime(
     alg: QgsProcessingAlgorithm, parameters: Dict[str, Any], name: str, context: QgsProcessingContext,
     *, required: bool = False,
 ) -> Optional[Any]:
-    """Date-time parameter ``name`` as a UTC datetime64; None when unset and not ``required``."""
+    """Date-time parameter ``name`` as a UTC datetime64; None when unset and not ``required``,
+    or when the algorithm has no such parameter (an extra one is ignored, as QGIS ignores it)."""
     from .. import adapters
 
+    if alg.parameterDefinition(name) is None:
+        return None
     raw = parameters.get(name)
     if isinstance(raw, QDateTime) and not raw.isValid():
         raw = None  # the dialog's "not set" value

@@ -339,3 +339,10 @@ def test_progress_and_cancel(sweep_registered, route, seas, tmp_path):
         _run(_params(route, seas, tmp_path, OUTPUT_TABLE=str(tmp_path / "cancelled.gpkg")), feedback=CancelSoon())
     assert CancelSoon.calls > 2
     assert not (tmp_path / "cancelled.gpkg").exists()
+
+
+def test_a_parameter_the_sweep_does_not_have_is_ignored(sweep_registered, route, seas, tmp_path):
+    """DEPARTURE belongs to routecomfort; given to the sweep (a script reusing its parameters)
+    it is ignored like any unknown parameter, not refused as an invalid date-time."""
+    res = _run(_params(route, seas, tmp_path, DEPARTURE="2031-03-11T06:00:00Z"))
+    assert res["N_ROWS"] > 0
