@@ -79,6 +79,8 @@ from ..vessel.profile import Station
 
 __all__ = [
     "ROWS",
+    "chunk_moments",
+    "wave_energy",
     "ROWS_COMPLEX",
     "WEIGHTS",
     "UnitMoments",
@@ -246,7 +248,7 @@ def unit_moments(
     dgs = [direction_grid(n_dir, float(s), long_crested) for s in spread_s]
     theta_deg = dgs[0].theta_rel_rad * DEG_PER_RAD  # (nd,)
     wd = np.stack([d.weights for d in dgs])  # (p, nd)
-    energy = _wave_energy(gamma, n_freq, frequency_grid, normalise_spectrum)
+    energy = wave_energy(gamma, n_freq, frequency_grid, normalise_spectrum)
     rows = 12 if getattr(transfer, "complex_motions", False) else 4
     m_out = np.empty((n, p, rows, 5))
     outside = np.zeros((n, p))
@@ -259,7 +261,7 @@ def unit_moments(
         omega, e_f = energy(tp_s[a:b])
         mu = rel_heading_deg[a:b, :, None, None] + theta_deg[None, None, None, :]  # (c, p, 1, nd)
         depth = None if depth_m is None else depth_m[a:b, None, None]
-        m_out[a:b] = _chunk_moments(transfer, omega, e_f, wd, mu, speed_m_s[a:b], depth, g_m_s2, buf[:, :b - a])
+        m_out[a:b] = chunk_moments(transfer, omega, e_f, wd, mu, speed_m_s[a:b], depth, g_m_s2, buf[:, :b - a])
         cov = transfer.covered(omega) if hasattr(transfer, "covered") else None
         if cov is not None:
             tot = e_f.sum(axis=-1)
@@ -268,7 +270,7 @@ def unit_moments(
     return UnitMoments(m=m_out, outside_fraction=outside)
 
 
-def _wave_energy(gamma: FloatArray, n_freq: int, frequency_grid: Optional[FrequencyGrid],
+def wave_energy(gamma: FloatArray, n_freq: int, frequency_grid: Optional[FrequencyGrid],
                  normalise_spectrum: bool) -> Any:
     """A function tp (c, p) -> (omega, S d omega) (c, p, nf) of the unit-Hs JONSWAP sea.
 
@@ -294,7 +296,7 @@ def _wave_energy(gamma: FloatArray, n_freq: int, frequency_grid: Optional[Freque
     return shared
 
 
-def _chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatArray, mu: FloatArray,
+def chunk_moments(transfer: Any, omega: FloatArray, e_f: FloatArray, wd: FloatArray, mu: FloatArray,
                    speed_m_s: FloatArray, depth: Optional[FloatArray], g_m_s2: float, buf: FloatArray) -> FloatArray:
     """Moments (c, p, R, 5) of one chunk (module docstring): omega, e_f (c, p, nf) absolute
     frequencies and wave energy S d omega, wd (p, nd) direction weights, mu (c, p, 1, nd);

@@ -30,7 +30,7 @@ default grids (mu in 2.5 deg steps, theta in 15 deg steps) the directions mu_j +
 360) take only 144 distinct values (73 for a port/starboard symmetric transfer), so the transfer, encounter frequency and weighted squares
 are evaluated ONCE per (Tp_i, x_f, distinct direction) and summed over frequency per direction;
 each node's moments are then the direction-weight matrix W (nh x n_distinct) times these sums
-(:func:`_node_moments`). Same integrand (:func:`.response._chunk_moments`), only summed in
+(:func:`_node_moments`). Same integrand (:func:`.response.chunk_moments`), only summed in
 another order: the nodes agree with the exact path to rounding (tests).
 """
 from __future__ import annotations
@@ -45,14 +45,15 @@ from numpy.typing import ArrayLike, NDArray
 from ..flags import SampleFlag
 from .response import (
     MotionResponse,
+    chunk_moments,
     combine_quantities,
     concat_responses,
     prepare_sea,
     station_quantities,
     unit_moments,
     validity_flags,
+    wave_energy,
 )
-from .response import _chunk_moments, _wave_energy
 from ..units import DEG_PER_RAD, G_STANDARD_M_S2, FloatArray, wrap_deg
 from ..waves.spectra import direction_grid
 from ..validation import SeawayInputError, show
@@ -276,7 +277,7 @@ def _node_moments(transfer: Any, tpg: FloatArray, hg: FloatArray, speed: float, 
     fold = getattr(getattr(transfer, "table", None), "symmetric", True) is not False
     dirs, w = _direction_weights(hg, spread_s, long_crested, n_dir, fold)
     nt, nu = tpg.size, dirs.size
-    omega, e_f = _wave_energy(np.array([gamma]), n_freq, None, True)(tpg[:, None])  # (nt, 1, nf)
+    omega, e_f = wave_energy(np.array([gamma]), n_freq, None, True)(tpg[:, None])  # (nt, 1, nf)
     nf = omega.shape[-1]
     rows = max(1, 150_000 // nf)
     buf = np.empty((9, min(nt * nu, rows), 1, nf, 1))
@@ -286,7 +287,7 @@ def _node_moments(transfer: Any, tpg: FloatArray, hg: FloatArray, speed: float, 
     for a in range(0, nt * nu, rows):
         b = min(nt * nu, a + rows)
         ti = t_idx[a:b]
-        sums[a:b] = _chunk_moments(
+        sums[a:b] = chunk_moments(
             transfer, omega[ti], e_f[ti], ones, dirs[u_idx[a:b], None, None, None], np.full(b - a, speed),
             None if depth is None else np.full((b - a, 1, 1), depth), g_m_s2, buf[:, :b - a])[:, 0]
     m = np.einsum("ju,iuk->ijk", w, sums.reshape(nt, nu, 20)).reshape(nt, hg.size, 4, 5)

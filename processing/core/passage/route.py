@@ -35,6 +35,7 @@ from ..validation import (
 
 __all__ = [
     "RouteSamples",
+    "geod_call",
     "densify_route",
     "arrival_times_utc",
     "elapsed_time_s",
@@ -47,7 +48,7 @@ __all__ = [
 _GEOD = Geod(ellps="WGS84")
 
 
-def _geod_call(method: str, *arrays: FloatArray) -> Tuple[FloatArray, FloatArray, FloatArray]:
+def geod_call(method: str, *arrays: FloatArray) -> Tuple[FloatArray, FloatArray, FloatArray]:
     """``pyproj.Geod.inv``/``fwd`` over 1-D arrays, always returning three float arrays.
 
     pyproj 3.7 turns a one-element array into a scalar itself, which numpy >= 1.25 deprecates
@@ -131,7 +132,7 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
     """
     lon, lat, spacing_m = _checked_vertices(lon_deg, lat_deg, spacing_nm)
     lon, lat = _drop_duplicates(lon, lat)
-    az12, az21, seg_len = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
+    az12, az21, seg_len = geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
     pieces = _pieces(seg_len, spacing_m, spacing_nm)
     n_seg = seg_len.size
     counts = pieces.astype(np.int64)
@@ -139,7 +140,7 @@ def densify_route(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float) -> 
     starts = np.concatenate(([0], np.cumsum(counts)[:-1]))
     j = np.arange(seg_idx.size, dtype=np.int64) - starts[seg_idx]
     along = j * (seg_len / pieces)[seg_idx]
-    plon, plat, pbaz = _geod_call("fwd", lon[:-1][seg_idx], lat[:-1][seg_idx], az12[seg_idx], along)
+    plon, plat, pbaz = geod_call("fwd", lon[:-1][seg_idx], lat[:-1][seg_idx], az12[seg_idx], along)
     course = wrap_deg(pbaz + 180.0)
     vertex = j == 0
     # exact input coordinates and departure azimuths at the vertices
@@ -174,7 +175,7 @@ def _checked_vertices(lon_deg: ArrayLike, lat_deg: ArrayLike, spacing_nm: float)
 
 def _drop_duplicates(lon: FloatArray, lat: FloatArray) -> "tuple[FloatArray, FloatArray]":
     """Drop consecutive vertices closer than DUPLICATE_TOLERANCE_M (with a warning)."""
-    _, _, s_all = _geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
+    _, _, s_all = geod_call("inv", lon[:-1], lat[:-1], lon[1:], lat[1:])
     dup = np.asarray(s_all, dtype=float) < DUPLICATE_TOLERANCE_M
     if dup.any():
         idx = np.flatnonzero(dup) + 1

@@ -13,7 +13,7 @@ from typing import Tuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from ..passage.route import _geod_call
+from ..passage.route import geod_call
 from ..units import FloatArray, wrap_deg
 
 __all__ = ["inverse", "direct", "points_along"]
@@ -26,7 +26,7 @@ def inverse(lon1: ArrayLike, lat1: ArrayLike, lon2: ArrayLike, lat2: ArrayLike) 
     if a[0].size == 0:
         e = np.zeros(0)
         return e, e, e
-    az12, az21, s = _geod_call("inv", *(v.ravel() for v in a))
+    az12, az21, s = geod_call("inv", *(v.ravel() for v in a))
     return wrap_deg(az12), wrap_deg(az21 + 180.0), s
 
 
@@ -37,7 +37,7 @@ def direct(lon1: ArrayLike, lat1: ArrayLike, az1_deg: ArrayLike, s_m: ArrayLike)
     if a[0].size == 0:
         e = np.zeros(0)
         return e, e, e
-    lon, lat, baz = _geod_call("fwd", *(v.ravel() for v in a))
+    lon, lat, baz = geod_call("fwd", *(v.ravel() for v in a))
     lon = np.where(lon >= 180.0, lon - 360.0, np.where(lon < -180.0, lon + 360.0, lon))
     return lon, lat, wrap_deg(baz + 180.0)
 

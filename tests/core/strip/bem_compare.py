@@ -105,3 +105,25 @@ def ratio_table() -> str:
 
 if __name__ == "__main__":
     print(ratio_table())
+
+
+KNOWN_MISSES = {
+    ("box", "pitch", 180.0, 5.0), ("box", "bow_acc", 180.0, 5.0),
+    ("box", "bow_acc", 180.0, 6.0), ("box", "roll", 90.0, 5.0), ("box", "roll", 90.0, 6.0),
+    ("fuller", "roll", 90.0, 5.0), ("fuller", "roll", 90.0, 6.0),
+}
+"""(hull, quantity, heading, Tp) measured outside the goal band (strict xfail: a fix shows up)."""
+
+
+def goal_band_params() -> list:
+    """pytest params (hull, quantity, mu, band, tp) of every compared case, misses marked xfail."""
+    import pytest
+
+    out = []
+    for hull in GM_T_M:
+        for q, mu, band in CASES:
+            for tp in TP_S:
+                marks = ([pytest.mark.xfail(strict=True, reason="measured outside the goal band")]
+                         if (hull, q, mu, tp) in KNOWN_MISSES else [])
+                out.append(pytest.param(hull, q, mu, band, tp, marks=marks, id=f"{hull}-{q}-mu{mu:.0f}-Tp{tp:.0f}"))
+    return out

@@ -3,7 +3,7 @@
 tests/reference/make_bem_reference.py): RMS ratios code/BEM in long-crested JONSWAP seas
 (DNV-RP-C205 form, local integration in bem_compare.py), goal bands from issue 13.
 
-Known misses (measured, see KNOWN_MISSES): short-period seas on the box barge (pitch, bow
+Known misses (measured, see bem_compare.KNOWN_MISSES): short-period seas on the box barge (pitch, bow
 acceleration, roll) and roll of the fuller hull at Tp 5-6 s, where the responses are small and
 dominated by omega > 1.2 rad/s; they are kept as strict expected failures so that a fix shows.
 """
@@ -20,20 +20,8 @@ _spec = importlib.util.spec_from_file_location("bem_compare", Path(__file__).wit
 bem_compare = importlib.util.module_from_spec(_spec)
 _spec.loader.exec_module(bem_compare)
 
-KNOWN_MISSES = {
-    ("box", "pitch", 180.0, 5.0), ("box", "bow_acc", 180.0, 5.0),
-    ("box", "bow_acc", 180.0, 6.0), ("box", "roll", 90.0, 5.0), ("box", "roll", 90.0, 6.0),
-    ("fuller", "roll", 90.0, 5.0), ("fuller", "roll", 90.0, 6.0),
-}
 
-PARAMS = []
-for _hull in bem_compare.GM_T_M:
-    for _q, _mu, _band in bem_compare.CASES:
-        for _tp in bem_compare.TP_S:
-            marks = ([pytest.mark.xfail(strict=True, reason="measured outside the goal band")]
-                     if (_hull, _q, _mu, _tp) in KNOWN_MISSES else [])
-            PARAMS.append(pytest.param(_hull, _q, _mu, _band, _tp, marks=marks,
-                                       id=f"{_hull}-{_q}-mu{_mu:.0f}-Tp{_tp:.0f}"))
+PARAMS = bem_compare.goal_band_params()
 
 
 @pytest.mark.parametrize("hull,quantity,mu,band,tp", PARAMS)

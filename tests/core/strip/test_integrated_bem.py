@@ -34,11 +34,6 @@ _spec.loader.exec_module(bem_compare)
 
 # measured outside the band through the integrated path (same cases as the direct comparison in
 # test_bem_comparison.py, where the short-sea misses of the engine itself are documented)
-KNOWN_MISSES = {
-    ("box", "pitch", 180.0, 5.0), ("box", "bow_acc", 180.0, 5.0),
-    ("box", "bow_acc", 180.0, 6.0), ("box", "roll", 90.0, 5.0), ("box", "roll", 90.0, 6.0),
-    ("fuller", "roll", 90.0, 5.0), ("fuller", "roll", 90.0, 6.0),
-}
 MAIN = {"box": (60.0, 12.0, 3.0), "wigley": (100.0, 10.0, 6.25), "fuller": (100.0, 16.0, 6.0)}
 
 
@@ -98,14 +93,7 @@ def cache_dir(tmp_path_factory, monkeypatch_module=None):
     return str(tmp_path_factory.mktemp("integrated"))
 
 
-PARAMS = []
-for _hull in bem_compare.GM_T_M:
-    for _q, _mu, _band in bem_compare.CASES:
-        for _tp in bem_compare.TP_S:
-            marks = ([pytest.mark.xfail(strict=True, reason="measured outside the goal band")]
-                     if (_hull, _q, _mu, _tp) in KNOWN_MISSES else [])
-            PARAMS.append(pytest.param(_hull, _q, _mu, _band, _tp, marks=marks,
-                                       id=f"{_hull}-{_q}-mu{_mu:.0f}-Tp{_tp:.0f}"))
+PARAMS = bem_compare.goal_band_params()
 
 
 @pytest.mark.parametrize("hull,quantity,mu,band,tp", PARAMS)
